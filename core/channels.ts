@@ -1,0 +1,38 @@
+import type { Quantity, UnitConversion } from './units.ts';
+import { lookupUnit } from './units.ts';
+
+/** Run-file columns of data contract v1 (DESIGN §3.1) and the unit each assumes without a bracket. */
+export const CHANNELS = {
+  alpha: { quantity: 'angle', defaultUnit: 'deg' },
+  dp_pitot: { quantity: 'pressure', defaultUnit: 'Pa' },
+  p_static: { quantity: 'pressure', defaultUnit: 'Pa' },
+  t_total: { quantity: 'temperature', defaultUnit: 'degC' },
+  rh: { quantity: 'ratio', defaultUnit: '%' },
+  lift: { quantity: 'force', defaultUnit: 'N' },
+  drag: { quantity: 'force', defaultUnit: 'N' },
+  side: { quantity: 'force', defaultUnit: 'N' },
+  normal: { quantity: 'force', defaultUnit: 'N' },
+  axial: { quantity: 'force', defaultUnit: 'N' },
+  pitch: { quantity: 'moment', defaultUnit: 'N m' },
+  roll: { quantity: 'moment', defaultUnit: 'N m' },
+  yaw: { quantity: 'moment', defaultUnit: 'N m' },
+} as const satisfies Record<string, { quantity: Quantity; defaultUnit: string }>;
+
+export type Channel = keyof typeof CHANNELS;
+export const CHANNEL_NAMES = Object.keys(CHANNELS) as Channel[];
+export const POINT_COLUMN = 'point';
+
+/** Loads measured by the balance, in its own axes. */
+export const WIND_LOADS: readonly Channel[] = ['lift', 'drag', 'side', 'pitch', 'roll', 'yaw'];
+export const BODY_LOADS: readonly Channel[] = ['normal', 'axial', 'side', 'pitch', 'roll', 'yaw'];
+export const FLOW_CHANNELS: readonly Channel[] = ['dp_pitot', 'p_static', 't_total', 'rh'];
+
+export function isChannel(name: string): name is Channel {
+  return Object.prototype.hasOwnProperty.call(CHANNELS, name);
+}
+
+export function defaultConversion(ch: Channel): UnitConversion {
+  const conv = lookupUnit(CHANNELS[ch].defaultUnit);
+  if (!conv) throw new Error(`no default unit for ${ch}`);
+  return conv;
+}

@@ -1,0 +1,64 @@
+/**
+ * The engine's entry points for hosts (command line, Electron main, browser worker): text in,
+ * result or located errors out. Nothing here touches a file system.
+ */
+import { attempt, InputError, type Outcome } from './messages.ts';
+import { reduce, type ReductionResult, type PointResult } from './reduce.ts';
+import { RunFileReader, type ColumnMapping, type RunData } from './runfile.ts';
+import { parseSetup, type SetupResult } from './setup.ts';
+import { toCsv, type Cell } from './csvout.ts';
+
+export type { ReductionResult, PointResult } from './reduce.ts';
+
+/** A source of text chunks: a Node stream with utf8 encoding, a browser file's text stream, or an array. */
+export type TextSource = AsyncIterable<string> | Iterable<string>;
+
+export async function readRun(file: string, source: TextSource, mapping?: ColumnMapping): Promise<Outcome<RunData>> {
+  const reader = new RunFileReader(file, { mapping });
+  return attemptAsync(async () => {
+    for await (const chunk of source as AsyncIterable<string>) reader.push(chunk);
+    return reader.finish();
+  });
+}
+
+export function readSetup(file: string, text: string): Outcome<SetupResult> {
+  return attempt(() => parseSetup(file, text));
+}
+
+export interface ReduceRequest {
+  run: RunData;
+  setup: SetupResult;
+  tare?: RunData;
+  noCorrections?: boolean;
+}
+
+export function reduceRun(req: ReduceRequest): Outcome<ReductionResult> {
+  return attempt(() =>
+    reduce({ run: req.run, setup: req.setup.setup, setupWarnings: req.setup.warnings, tare: req.tare, noCorrections: req.noCorrections }),
+  );
+}
+
+async function attemptAsync<T>(step: () => Promise<T>): Promise<Outcome<T>> {
+  try {
+    return { ok: true, value: await step() };
+  } catch (err) {
+    if (err instanceof InputError) return { ok: false, errors: [err.notice] };
+    throw err;
+  }
+}
+
+/** Point-table columns in export order: corrected first, then as measured, then the blockage terms. */
+export const POINT_COLUMNS: readonly (keyof PointResult)[] = [
+  'point', 'samples', 'alpha_deg', 'cl', 'cd', 'cm', 'ld', 'q_pa', 'v_mps', 'mach', 'reynolds',
+  'alpha_uncorrected_deg', 'cl_uncorrected', 'cd_uncorrected', 'cm_uncorrected', 'q_uncorrected_pa',
+  'v_uncorrected_mps', 'mach_uncorrected', 'reynolds_uncorrected', 'rho_kgm3', 'mu_pas', 'p_static_pa',
+  'p_total_pa', 't_static_k', 't_total_k', 'rh_pct', 'cy', 'c_roll', 'c_yaw', 'cy_uncorrected',
+  'c_roll_uncorrected', 'c_yaw_uncorrected', 'lift_n', 'drag_n', 'pitch_ref_nm', 'cl_scatter',
+  'eps_solid', 'eps_wake', 'line',
+];
+
+/** The point table of a result as CSV. */
+export function pointsCsv(result: ReductionResult): string {
+  const rows: Cell[][] = result.points.map((p) => POINT_COLUMNS.map((k) => p[k] as Cell));
+  return toCsv(POINT_COLUMNS as string[], rows);
+}

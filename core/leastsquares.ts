@@ -1,0 +1,117 @@
+/**
+ * Small least-squares solvers for the fits: straight line and polynomials by the normal equations
+ * (solved with partial-pivot Gaussian elimination; the fits here have at most 3 parameters on
+ * centred data, where the normal equations are well conditioned). Draper & Smith, Applied Regression
+ * Analysis, 3rd ed., ch. 1–2.
+ */
+
+export interface LineFit {
+  slope: number;
+  intercept: number;
+  /** Standard error of the slope, from the residual variance with n − 2 degrees of freedom. */
+  slopeStderr: number;
+  /** Largest absolute residual. */
+  maxResidual: number;
+  n: number;
+}
+
+/** Ordinary least-squares straight line y = a + b·x. Needs n ≥ 2 distinct x. */
+export function fitLine(x: ArrayLike<number>, y: ArrayLike<number>, from = 0, to = x.length): LineFit {
+  const n = to - from;
+  let sx = 0;
+  let sy = 0;
+  for (let i = from; i < to; i++) {
+    sx += x[i]!;
+    sy += y[i]!;
+  }
+  const mx = sx / n;
+  const my = sy / n;
+  let sxx = 0;
+  let sxy = 0;
+  for (let i = from; i < to; i++) {
+    const dx = x[i]! - mx;
+    sxx += dx * dx;
+    sxy += dx * (y[i]! - my);
+  }
+  const slope = sxy / sxx;
+  const intercept = my - slope * mx;
+  let sse = 0;
+  let maxResidual = 0;
+  for (let i = from; i < to; i++) {
+    const r = y[i]! - (intercept + slope * x[i]!);
+    sse += r * r;
+    maxResidual = Math.max(maxResidual, Math.abs(r));
+  }
+  const slopeStderr = n > 2 ? Math.sqrt(sse / (n - 2) / sxx) : Number.NaN;
+  return { slope, intercept, slopeStderr, maxResidual, n };
+}
+
+/** Least-squares polynomial of the given degree; coefficients lowest power first. Returns undefined when singular. */
+export function fitPolynomial(x: ArrayLike<number>, y: ArrayLike<number>, degree: number): number[] | undefined {
+  const k = degree + 1;
+  const n = x.length;
+  if (n < k) return undefined;
+  // centre and scale x for conditioning, then map the coefficients back
+  let mx = 0;
+  for (let i = 0; i < n; i++) mx += x[i]!;
+  mx /= n;
+  let sc = 0;
+  for (let i = 0; i < n; i++) sc = Math.max(sc, Math.abs(x[i]! - mx));
+  if (!(sc > 0)) return undefined;
+  const A: number[][] = Array.from({ length: k }, () => new Array<number>(k + 1).fill(0));
+  for (let i = 0; i < n; i++) {
+    const t = (x[i]! - mx) / sc;
+    const pw: number[] = [1];
+    for (let j = 1; j < 2 * k; j++) pw.push(pw[j - 1]! * t);
+    for (let r = 0; r < k; r++) {
+      for (let c = 0; c < k; c++) A[r]![c]! += pw[r + c]!;
+      A[r]![k]! += pw[r]! * y[i]!;
+    }
+  }
+  const u = solve(A);
+  if (!u) return undefined;
+  // p(x) = Σ u_j ((x − mx)/sc)^j → expand to powers of x
+  const out = new Array<number>(k).fill(0);
+  for (let j = 0; j < k; j++) {
+    const cj = u[j]! / Math.pow(sc, j);
+    // (x − mx)^j = Σ_i C(j,i) x^i (−mx)^(j−i)
+    for (let i = 0; i <= j; i++) out[i]! += cj * binomial(j, i) * Math.pow(-mx, j - i);
+  }
+  return out;
+}
+
+function binomial(n: number, k: number): number {
+  let r = 1;
+  for (let i = 1; i <= k; i++) r = (r * (n - k + i)) / i;
+  return r;
+}
+
+/** Gaussian elimination with partial pivoting on an augmented matrix. */
+function solve(A: number[][]): number[] | undefined {
+  const k = A.length;
+  for (let col = 0; col < k; col++) {
+    let piv = col;
+    for (let r = col + 1; r < k; r++) if (Math.abs(A[r]![col]!) > Math.abs(A[piv]![col]!)) piv = r;
+    if (Math.abs(A[piv]![col]!) < 1e-300) return undefined;
+    [A[col], A[piv]] = [A[piv]!, A[col]!];
+    for (let r = col + 1; r < k; r++) {
+      const f = A[r]![col]! / A[col]![col]!;
+      for (let c = col; c <= k; c++) A[r]![c]! -= f * A[col]![c]!;
+    }
+  }
+  const x = new Array<number>(k).fill(0);
+  for (let r = k - 1; r >= 0; r--) {
+    let s = A[r]![k]!;
+    for (let c = r + 1; c < k; c++) s -= A[r]![c]! * x[c]!;
+    x[r] = s / A[r]![r]!;
+  }
+  return x.every(Number.isFinite) ? x : undefined;
+}
+
+/** Vertex of the parabola through three points (x_i, y_i): returns {x, y} or undefined if they are collinear. */
+export function parabolaVertex(x: [number, number, number], y: [number, number, number]): { x: number; y: number } | undefined {
+  const p = fitPolynomial(x, y, 2);
+  if (!p || !(p[2]! < 0 || p[2]! > 0)) return undefined;
+  const xv = -p[1]! / (2 * p[2]!);
+  return { x: xv, y: p[0]! + p[1]! * xv + p[2]! * xv * xv };
+}

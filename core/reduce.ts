@@ -1,0 +1,367 @@
+/**
+ * The reduction pipeline (DESIGN §2): points → tares → axes and moment transfer → flow state →
+ * uncorrected coefficients → wall corrections → fits. Each stage lives in its own module; this one
+ * only puts them in order and assembles the contract's result (DESIGN §3.3).
+ */
+import { bodyToWind, transferPitch, windToBody } from './axes.ts';
+import { BODY_LOADS, WIND_LOADS, type Channel } from './channels.ts';
+import { fitPolar, EMPTY_FIT, type FitResult } from './fit.ts';
+import { flowState } from './flow.ts';
+import { InputError, formatNotice, type Notice } from './messages.ts';
+import type { RunData } from './runfile.ts';
+import type { Setup } from './setup.ts';
+import { buildTare, tareAt, type TareTable } from './tare.ts';
+import { correct2d, exceedsValidatedBlockage } from './wall2d.ts';
+import { correct3d, sortedOrder } from './wall3d.ts';
+import { NO_FACTORS, RAD, type CorrectedPoint, type TunnelPoint, type WallFactors } from './walls.ts';
+
+export interface PointResult {
+  point: string;
+  line: number;
+  samples: number;
+  alpha_deg: number | null;
+  alpha_uncorrected_deg: number;
+  q_pa: number | null;
+  q_uncorrected_pa: number;
+  v_mps: number | null;
+  v_uncorrected_mps: number;
+  mach: number | null;
+  mach_uncorrected: number;
+  reynolds: number | null;
+  reynolds_uncorrected: number;
+  rho_kgm3: number;
+  mu_pas: number;
+  p_static_pa: number;
+  p_total_pa: number;
+  t_static_k: number;
+  t_total_k: number;
+  rh_pct: number;
+  cl: number | null;
+  cd: number | null;
+  cm: number | null;
+  cl_uncorrected: number;
+  cd_uncorrected: number;
+  cm_uncorrected: number | null;
+  cy: number | null;
+  cy_uncorrected: number | null;
+  c_roll: number | null;
+  c_roll_uncorrected: number | null;
+  c_yaw: number | null;
+  c_yaw_uncorrected: number | null;
+  ld: number | null;
+  lift_n: number;
+  drag_n: number;
+  pitch_ref_nm: number | null;
+  cl_scatter: number;
+  eps_solid: number | null;
+  eps_wake: number | null;
+}
+
+export interface ReductionResult {
+  run: Record<string, unknown> & { name: string; configuration: string | null };
+  points: PointResult[];
+  fit: FitResult;
+  factors: WallFactors;
+  corrections: { enabled: boolean; kind: '2d' | '3d'; wake: 'classic' | 'maskell' | null };
+  warnings: string[];
+}
+
+export interface ReduceInput {
+  run: RunData;
+  setup: Setup;
+  /** Warnings from reading the setup, reported with the result. */
+  setupWarnings?: Notice[];
+  tare?: RunData;
+  /** Turns corrections off for this run whatever the setup says (`--no-corrections`). */
+  noCorrections?: boolean;
+}
+
+/** Mean of a channel at point i, or undefined when the file has no such column. */
+type Getter = (ch: Channel) => number | undefined;
+
+/** Reduce one run. Throws InputError when the run and setup cannot be reduced together. */
+export function reduce(input: ReduceInput): ReductionResult {
+  const { run, setup } = input;
+  const notices: Notice[] = [...(input.setupWarnings ?? []), ...run.warnings];
+  const axes = setup.balance.axes;
+  requireColumns(run, setup);
+  const loadChannels = axes === 'wind' ? WIND_LOADS : BODY_LOADS;
+  let tare: TareTable | undefined;
+  if (input.tare) {
+    tare = buildTare(input.tare, loadChannels);
+    notices.push(...input.tare.warnings);
+  }
+
+  const S = setup.model.area_m2;
+  const c = setup.model.chord_m;
+  const b = setup.model.span_m;
+  const gamma = setup.flow.gamma;
+  const has = (ch: Channel) => run.channels.includes(ch);
+  const hasPitch = has('pitch');
+  const idx = new Map(run.channels.map((ch, i) => [ch, i] as const));
+
+  const tunnel: TunnelPoint[] = [];
+  const rows: Omit<PointResult, 'alpha_deg' | 'q_pa' | 'v_mps' | 'mach' | 'reynolds' | 'cl' | 'cd' | 'cm' | 'cy' | 'c_roll' | 'c_yaw' | 'ld' | 'eps_solid' | 'eps_wake'>[] = [];
+  const scatter: number[] = [];
+  for (const pt of run.points) {
+    const get: Getter = (ch) => {
+      const i = idx.get(ch);
+      return i === undefined ? undefined : pt.mean[i];
+    };
+    const sd = (ch: Channel) => {
+      const i = idx.get(ch);
+      return i === undefined ? 0 : pt.std[i]!;
+    };
+    const where = `point ${pt.key} (line ${pt.line})`;
+    const alpha = get('alpha')!;
+    const p = get('p_static') ?? setup.ambient.p_pa!;
+    const T0 = get('t_total') ?? setup.ambient.t_c! + 273.15;
+    const rh = get('rh') ?? setup.ambient.rh_pct! / 100;
+    const dp = get('dp_pitot')!;
+    if (!(dp > 0) || !(p > 0) || !(T0 > 0) || !(rh >= 0)) {
+      notices.push({
+        file: run.file,
+        line: pt.line,
+        message: `${where} skipped: ${!(dp > 0) ? `pitot impact pressure ${dp.toPrecision(4)} Pa is not positive (wind off?)` : !(p > 0) ? 'static pressure is not positive' : !(T0 > 0) ? 'temperature is below absolute zero' : 'relative humidity is negative'}`,
+      });
+      continue;
+    }
+    const flow = flowState({ p, dp, T0, rh, gamma, chord: c });
+
+    // loads in the balance's axes, tares removed
+    let tareLoads: Map<Channel, number> | undefined;
+    if (tare) {
+      const t = tareAt(tare, alpha);
+      tareLoads = t.loads;
+      if (t.clamped) {
+        notices.push({
+          file: run.file,
+          line: pt.line,
+          message: `${where}: α = ${(alpha * RAD).toFixed(2)}° lies outside the tare sweep (${(tare.alpha[0]! * RAD).toFixed(2)}° to ${(tare.alpha[tare.alpha.length - 1]! * RAD).toFixed(2)}°); the nearest end value is used`,
+        });
+      }
+    }
+    const load = (ch: Channel): number | undefined => {
+      const v = get(ch);
+      return v === undefined ? undefined : v - (tareLoads?.get(ch) ?? 0);
+    };
+    let lift: number;
+    let drag: number;
+    let normal: number;
+    let axial: number;
+    let clStd: number;
+    if (axes === 'wind') {
+      lift = load('lift')!;
+      drag = load('drag')!;
+      ({ normal, axial } = windToBody(lift, drag, alpha));
+      clStd = sd('lift');
+    } else {
+      normal = load('normal')!;
+      axial = load('axial')!;
+      ({ lift, drag } = bodyToWind(normal, axial, alpha));
+      clStd = Math.hypot(sd('normal') * Math.cos(alpha), sd('axial') * Math.sin(alpha));
+    }
+    const pitchBmc = load('pitch');
+    const pitch = pitchBmc === undefined ? undefined : transferPitch(pitchBmc, normal, axial, setup.model.moment_ref_offset_m);
+    const qS = flow.q * S;
+    const side = load('side');
+    const roll = load('roll');
+    const yaw = load('yaw');
+    const u: TunnelPoint = {
+      alphaDeg: alpha * RAD,
+      cl: lift / qS,
+      cd: drag / qS,
+      cm: pitch === undefined ? Number.NaN : pitch / (qS * c),
+      cy: side === undefined ? Number.NaN : side / qS,
+      cRoll: roll === undefined ? Number.NaN : roll / (qS * b),
+      cYaw: yaw === undefined ? Number.NaN : yaw / (qS * b),
+      q: flow.q,
+      V: flow.V,
+      mach: flow.mach,
+      Re: flow.Re,
+    };
+    tunnel.push(u);
+    scatter.push(clStd / qS / Math.sqrt(pt.n));
+    rows.push({
+      point: pt.key,
+      line: pt.line,
+      samples: pt.n,
+      alpha_uncorrected_deg: u.alphaDeg,
+      q_uncorrected_pa: flow.q,
+      v_uncorrected_mps: flow.V,
+      mach_uncorrected: flow.mach,
+      reynolds_uncorrected: flow.Re,
+      rho_kgm3: flow.rho,
+      mu_pas: flow.mu,
+      p_static_pa: flow.p,
+      p_total_pa: flow.p0,
+      t_static_k: flow.T,
+      t_total_k: flow.T0,
+      rh_pct: rh * 100,
+      cl_uncorrected: u.cl,
+      cd_uncorrected: u.cd,
+      cm_uncorrected: orNull(u.cm),
+      cy_uncorrected: orNull(u.cy),
+      c_roll_uncorrected: orNull(u.cRoll),
+      c_yaw_uncorrected: orNull(u.cYaw),
+      lift_n: lift,
+      drag_n: drag,
+      pitch_ref_nm: pitch ?? null,
+      cl_scatter: scatter[scatter.length - 1]!,
+    });
+  }
+  if (tunnel.length === 0) throw new InputError({ file: run.file, message: 'no point could be reduced (see the warnings above)' });
+  if (!hasPitch) notices.push({ file: run.file, message: 'no "pitch" column: pitching-moment coefficients are not given' });
+
+  // wall corrections
+  const enabled = setup.corrections.enabled && !input.noCorrections;
+  let corrected: CorrectedPoint[] | undefined;
+  let factors: WallFactors = NO_FACTORS;
+  const kind = setup.model.kind;
+  if (enabled) {
+    if (kind === '2d') {
+      const g = {
+        chord: c,
+        height: setup.tunnel.height_m,
+        width: setup.tunnel.width_m,
+        volume: setup.model.volume_m3,
+        k1: setup.corrections.solid_blockage_k,
+      };
+      if (g.volume === null) notices.push({ field: 'model.volume_m3', message: 'not given: solid blockage is skipped (ε_solid = 0)' });
+      if (!hasPitch) notices.push({ file: run.file, message: 'without a pitching moment the 2D angle correction uses the cl term alone' });
+      corrected = tunnel.map((p) => correct2d(p, g));
+      const over = corrected.filter(exceedsValidatedBlockage).length;
+      if (over > 0) notices.push({ message: `${over} point(s) have a total blockage ε above 0.1, outside the range where the 2D corrections are validated; results are given but treat them with caution` });
+      factors = { sigma: ((Math.PI * Math.PI) / 48) * (c / g.height) ** 2, delta: null, tau1: null, tau2: null, solid_blockage_k: g.k1 };
+    } else {
+      const res = correct3d(tunnel, scatter, {
+        area: S,
+        span: b,
+        chord: c,
+        width: setup.tunnel.width_m,
+        height: setup.tunnel.height_m,
+        volume: setup.model.volume_m3,
+        k: setup.corrections.solid_blockage_k,
+        loading: setup.model.loading,
+        wake: setup.corrections.wake,
+        delta: setup.corrections.delta,
+        tau1: setup.corrections.tau1,
+        tau2: setup.corrections.tau2,
+      });
+      corrected = res.points;
+      factors = res.factors;
+      notices.push(...res.warnings.map((message) => ({ message })));
+    }
+  }
+
+  const points: PointResult[] = rows.map((r, i) => {
+    const k = corrected?.[i];
+    const cl = k ? k.cl : r.cl_uncorrected;
+    const cd = k ? k.cd : r.cd_uncorrected;
+    return {
+      ...r,
+      alpha_deg: k ? k.alphaDeg : r.alpha_uncorrected_deg,
+      q_pa: k ? k.q : r.q_uncorrected_pa,
+      v_mps: k ? k.V : r.v_uncorrected_mps,
+      mach: k ? k.mach : r.mach_uncorrected,
+      reynolds: k ? k.Re : r.reynolds_uncorrected,
+      cl,
+      cd,
+      cm: k ? orNull(k.cm) : r.cm_uncorrected,
+      cy: k ? orNull(k.cy) : r.cy_uncorrected,
+      c_roll: k ? orNull(k.cRoll) : r.c_roll_uncorrected,
+      c_yaw: k ? orNull(k.cYaw) : r.c_yaw_uncorrected,
+      ld: cd !== 0 ? cl / cd : null,
+      eps_solid: k ? k.epsSolid : null,
+      eps_wake: k ? k.epsWake : null,
+    };
+  });
+
+  // fits, on corrected values (uncorrected when corrections are off), sorted by α
+  const alphas = points.map((p) => p.alpha_deg!);
+  const order = sortedOrder(alphas);
+  if (hasHysteresis(points.map((p) => p.alpha_uncorrected_deg))) {
+    notices.push({ file: run.file, message: 'α is repeated or not monotonic in the file (a return sweep?): the fits use the points sorted by α, and hysteresis between the sweeps is not separated' });
+  }
+  let fit: FitResult = { ...EMPTY_FIT };
+  const f = fitPolar({
+    alphaDeg: order.map((i) => alphas[i]!),
+    cl: order.map((i) => points[i]!.cl!),
+    cd: order.map((i) => points[i]!.cd!),
+    cm: order.map((i) => points[i]!.cm ?? Number.NaN),
+    clScatter: order.map((i) => scatter[i]!),
+    kind,
+    aspectRatio: (b * b) / S,
+  });
+  fit = f.fit;
+  notices.push(...f.warnings.map((message) => ({ message })));
+
+  const meta = run.metadata;
+  const fileStem = run.file.replace(/^.*[\\/]/, '').replace(/\.[^.]*$/, '');
+  return {
+    run: {
+      ...meta,
+      name: meta['run'] ?? fileStem,
+      configuration: meta['configuration'] ?? null,
+      source_file: run.file.replace(/^.*[\\/]/, ''),
+      tare_file: input.tare ? input.tare.file.replace(/^.*[\\/]/, '') : null,
+      rows_read: run.rowsRead,
+      rows_skipped: run.rowsSkipped,
+    },
+    points,
+    fit,
+    factors,
+    corrections: { enabled, kind, wake: enabled && kind === '3d' ? setup.corrections.wake : null },
+    warnings: notices.map(formatNotice),
+  };
+}
+
+function orNull(x: number): number | null {
+  return Number.isFinite(x) ? x : null;
+}
+
+/** True when α goes back on itself or repeats in file order. */
+function hasHysteresis(alpha: number[]): boolean {
+  let dir = 0;
+  for (let i = 1; i < alpha.length; i++) {
+    const d = Math.sign(alpha[i]! - alpha[i - 1]!);
+    if (d === 0) return true;
+    if (dir === 0) dir = d;
+    else if (d !== dir) return true;
+  }
+  return false;
+}
+
+/** Stop with a message naming the header line when a column the setup needs is absent. */
+function requireColumns(run: RunData, setup: Setup): void {
+  const has = (ch: Channel) => run.channels.includes(ch);
+  const missing = (ch: string, why: string): never => {
+    throw new InputError({ file: run.file, line: run.headerLine, message: `missing required column "${ch}" (${why})` });
+  };
+  if (!has('alpha')) missing('alpha', 'angle of attack');
+  if (!has('dp_pitot')) missing('dp_pitot', 'pitot-static impact pressure');
+  if (setup.balance.axes === 'wind') {
+    for (const ch of ['lift', 'drag'] as const) {
+      if (!has(ch)) missing(ch, has('normal') && has('axial') ? 'the setup says balance.axes "wind", but the file has normal/axial columns: set balance.axes to "body"' : 'the setup says balance.axes "wind"');
+    }
+  } else {
+    for (const ch of ['normal', 'axial'] as const) {
+      if (!has(ch)) missing(ch, has('lift') && has('drag') ? 'the setup says balance.axes "body", but the file has lift/drag columns: set balance.axes to "wind"' : 'the setup says balance.axes "body"');
+    }
+  }
+  const ambient: [Channel, keyof Setup['ambient'], string][] = [
+    ['p_static', 'p_pa', 'static pressure'],
+    ['t_total', 't_c', 'stagnation temperature'],
+    ['rh', 'rh_pct', 'relative humidity'],
+  ];
+  for (const [ch, key, what] of ambient) {
+    if (!has(ch) && setup.ambient[key] === undefined) {
+      throw new InputError({
+        field: `ambient.${key}`,
+        file: run.file,
+        line: run.headerLine,
+        message: `the run has no "${ch}" column, so the setup must give the ${what} as ambient.${key}`,
+      });
+    }
+  }
+}

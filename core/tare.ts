@@ -1,0 +1,83 @@
+/**
+ * Weight tares from a wind-off sweep of the same model: loads interpolated linearly in geometric
+ * alpha and subtracted in the balance's own axes (common practice; Barlow, Rae & Pope 3rd ed. §7 on
+ * tares). Outside the sweep's alpha range the nearest end value is used and the caller warns.
+ */
+import type { Channel } from './channels.ts';
+import type { RunData } from './runfile.ts';
+import { InputError } from './messages.ts';
+
+export interface TareTable {
+  file: string;
+  /** Load channels the tare provides. */
+  channels: Channel[];
+  /** Alpha of each tare point, rad, ascending. */
+  alpha: Float64Array;
+  /** loads[c][i]: channel c at tare point i, SI. */
+  loads: Float64Array[];
+}
+
+export interface TareValue {
+  loads: Map<Channel, number>;
+  /** True when alpha lay outside the tare sweep and an end value was used. */
+  clamped: boolean;
+}
+
+/** Build the interpolation table from a read tare file, for the given balance load channels. */
+export function buildTare(tare: RunData, loadChannels: readonly Channel[]): TareTable {
+  const ai = tare.channels.indexOf('alpha');
+  if (ai < 0) throw new InputError({ file: tare.file, message: 'the tare file needs an "alpha" column' });
+  const present = loadChannels.filter((c) => tare.channels.includes(c));
+  if (present.length === 0) {
+    throw new InputError({ file: tare.file, message: `the tare file has none of the balance's load columns (${loadChannels.join(', ')})` });
+  }
+  const order = tare.points.map((p, i) => ({ a: p.mean[ai]!, i })).sort((x, y) => x.a - y.a);
+  // average points that share an alpha, so the table is strictly increasing
+  const alpha: number[] = [];
+  const sums: number[][] = present.map(() => []);
+  const counts: number[] = [];
+  for (const { a, i } of order) {
+    const last = alpha.length - 1;
+    const same = last >= 0 && Math.abs(alpha[last]! - a) < 1e-9;
+    if (!same) {
+      alpha.push(a);
+      counts.push(0);
+      sums.forEach((s) => s.push(0));
+    }
+    const k = alpha.length - 1;
+    counts[k]!++;
+    present.forEach((c, j) => (sums[j]![k]! += tare.points[i]!.mean[tare.channels.indexOf(c)]!));
+  }
+  return {
+    file: tare.file,
+    channels: present,
+    alpha: Float64Array.from(alpha),
+    loads: sums.map((s) => Float64Array.from(s, (v, k) => v / counts[k]!)),
+  };
+}
+
+/** Tare loads at geometric alpha (rad), linear between sweep points, nearest end value outside. */
+export function tareAt(table: TareTable, alpha: number): TareValue {
+  const a = table.alpha;
+  const n = a.length;
+  const loads = new Map<Channel, number>();
+  if (n === 1 || alpha <= a[0]! || alpha >= a[n - 1]!) {
+    const k = n === 1 || alpha <= a[0]! ? 0 : n - 1;
+    table.channels.forEach((c, j) => loads.set(c, table.loads[j]![k]!));
+    const clamped = alpha < a[0]! - 1e-12 || alpha > a[n - 1]! + 1e-12;
+    return { loads, clamped };
+  }
+  let lo = 0;
+  let hi = n - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (a[mid]! <= alpha) lo = mid;
+    else hi = mid;
+  }
+  const t = (alpha - a[lo]!) / (a[hi]! - a[lo]!);
+  table.channels.forEach((c, j) => {
+    const v = table.loads[j]!;
+    loads.set(c, v[lo]! + t * (v[hi]! - v[lo]!));
+  });
+  return { loads, clamped: false };
+}
