@@ -1,0 +1,155 @@
+import { execFileSync, spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { main } from '../../app/cli/main.ts';
+
+const ROOT = resolve(__dirname, '../..');
+const S = (p: string) => join(ROOT, 'sample-runs', p);
+
+class Sink {
+  text = '';
+  write(chunk: string) {
+    this.text += chunk;
+    return true;
+  }
+}
+
+async function run(...argv: string[]) {
+  const stdout = new Sink();
+  const stderr = new Sink();
+  const code = await main(argv, { stdout: stdout as never, stderr: stderr as never });
+  return { code, stdout: stdout.text, stderr: stderr.text };
+}
+
+function tmp(name: string, text: string | Buffer): string {
+  const dir = mkdtempSync(join(tmpdir(), 'sweepbook-cli-'));
+  const p = join(dir, name);
+  writeFileSync(p, text);
+  return p;
+}
+
+// The keys DESIGN §3.3 names; the output may carry more, never fewer.
+const POINT_KEYS = ['alpha_deg', 'alpha_uncorrected_deg', 'q_pa', 'q_uncorrected_pa', 'v_mps', 'mach', 'reynolds', 'rho_kgm3', 'mu_pas', 'cl', 'cd', 'cm', 'cl_uncorrected', 'cd_uncorrected', 'cm_uncorrected', 'eps_solid', 'eps_wake', 'samples', 'v_uncorrected_mps', 'mach_uncorrected', 'reynolds_uncorrected'];
+const FIT_KEYS = ['cl_alpha_per_deg', 'cl_alpha_stderr_per_deg', 'alpha_zero_lift_deg', 'cl_max', 'alpha_cl_max_deg', 'linear_range_deg', 'cd0', 'k_induced', 'oswald_e', 'ld_max', 'cl_at_ld_max', 'cm_alpha_per_deg'];
+const FACTOR_KEYS = ['sigma', 'delta', 'tau1', 'tau2', 'solid_blockage_k'];
+
+describe('sweepbook reduce (command line, DESIGN §3.3)', () => {
+  it('prints the contract JSON with every key, and only JSON on stdout', async () => {
+    const r = await run('reduce', S('run-101-clean.csv'), '--setup', S('setup-3d.json'), '--tare', S('windoff-tare.csv'), '--format', 'json');
+    expect(r.code).toBe(0);
+    const doc = JSON.parse(r.stdout);
+    expect(doc.run.name).toBe('101');
+    expect(doc.run.configuration).toBe('clean');
+    expect(doc.points).toHaveLength(15);
+    for (const p of doc.points) for (const k of POINT_KEYS) expect(p, k).toHaveProperty(k);
+    for (const k of FIT_KEYS) expect(doc.fit).toHaveProperty(k);
+    for (const k of FACTOR_KEYS) expect(doc.factors).toHaveProperty(k);
+    expect(doc.factors.sigma).toBeNull(); // 3D
+    expect(doc.factors.delta).toBeGreaterThan(0.1);
+    expect(Array.isArray(doc.warnings)).toBe(true);
+    expect(doc.fit.cl_alpha_per_deg).toBeGreaterThan(0.05);
+  });
+
+  it('gives the run name from the file when there is no "# run:" line, and null configuration', async () => {
+    const p = tmp('sweep-7.csv', 'alpha,dp_pitot,lift,drag\n0,500,10,1\n2,500,30,1.2\n');
+    const r = await run('reduce', p, '--setup', S('setup-3d.json'));
+    expect(r.code).toBe(0);
+    const doc = JSON.parse(r.stdout);
+    expect(doc.run.name).toBe('sweep-7');
+    expect(doc.run.configuration).toBeNull();
+    expect(doc.points[0].samples).toBe(1);
+  });
+
+  it('writes CSV with --format csv and to a file with --out', async () => {
+    const out = join(mkdtempSync(join(tmpdir(), 'sweepbook-out-')), 'points.csv');
+    const r = await run('reduce', S('run-201-section.csv'), '--setup', S('setup-2d.json'), '--format', 'csv', '--out', out);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toBe('');
+    const lines = readFileSync(out, 'utf8').trim().split('\n');
+    expect(lines[0]!.split(',').slice(0, 4)).toEqual(['point', 'samples', 'alpha_deg', 'cl']);
+    expect(lines).toHaveLength(14);
+  });
+
+  it('--no-corrections reports the measured values as the corrected ones and null factors', async () => {
+    const r = await run('reduce', S('run-101-clean.csv'), '--setup', S('setup-3d.json'), '--no-corrections');
+    const doc = JSON.parse(r.stdout);
+    expect(doc.points[3].cl).toBe(doc.points[3].cl_uncorrected);
+    expect(doc.factors).toEqual({ sigma: null, delta: null, tau1: null, tau2: null, solid_blockage_k: null });
+  });
+
+  it.each([
+    ['a missing required column', 'no-drag.csv', 'alpha,dp_pitot,lift\n1,500,10\n', ['no-drag.csv:1', 'missing required column "drag"']],
+    ['an unknown unit', 'unit.csv', '# run: 1\nalpha,dp_pitot [bar2],lift,drag\n1,500,10,1\n', ['unit.csv:2:2', 'bar2']],
+    ['an empty file', 'empty.csv', '', ['empty.csv', 'empty']],
+  ])('refuses %s with file, line and column on stderr, exit 1, no stack trace', async (_what, name, text, parts) => {
+    const r = await run('reduce', tmp(name, text), '--setup', S('setup-3d.json'));
+    expect(r.code).toBe(1);
+    expect(r.stdout).toBe('');
+    for (const p of parts) expect(r.stderr).toContain(p);
+    expect(r.stderr).not.toMatch(/\n\s+at /);
+  });
+
+  it('refuses a binary file', async () => {
+    const r = await run('reduce', tmp('x.csv', Buffer.from([0x50, 0x4b, 0x03, 0x04, 0, 0, 0, 1, 2, 3])), '--setup', S('setup-3d.json'));
+    expect(r.code).toBe(1);
+    expect(r.stderr).toContain('binary');
+  });
+
+  it('refuses a malformed setup naming the field and what was expected', async () => {
+    const bad = JSON.parse(readFileSync(S('setup-3d.json'), 'utf8'));
+    bad.model.chord_m = -0.2;
+    const r = await run('reduce', S('run-101-clean.csv'), '--setup', tmp('setup.json', JSON.stringify(bad)));
+    expect(r.code).toBe(1);
+    expect(r.stderr).toContain('model.chord_m');
+    expect(r.stderr).toContain('positive');
+  });
+
+  it('refuses an unknown setup key, naming the nearest known one', async () => {
+    const bad = JSON.parse(readFileSync(S('setup-3d.json'), 'utf8'));
+    bad.tunnel.widht_m = 1.2;
+    const r = await run('reduce', S('run-101-clean.csv'), '--setup', tmp('setup.json', JSON.stringify(bad)));
+    expect(r.code).toBe(1);
+    expect(r.stderr).toContain('tunnel.widht_m');
+    expect(r.stderr).toContain('did you mean "width_m"');
+  });
+
+  it('names the line and column of a JSON syntax error in the setup', async () => {
+    const r = await run('reduce', S('run-101-clean.csv'), '--setup', tmp('setup.json', '{\n  "model": {,\n}'));
+    expect(r.code).toBe(1);
+    expect(r.stderr).toMatch(/setup\.json:2:\d+/);
+  });
+
+  it('names a file that does not exist', async () => {
+    const r = await run('reduce', '/nonexistent/run.csv', '--setup', S('setup-3d.json'));
+    expect(r.code).toBe(1);
+    expect(r.stderr).toContain('/nonexistent/run.csv: no such file');
+  });
+
+  it('reduces the good rows of a file with bad rows and names the bad lines in warnings', async () => {
+    const p = tmp('bad-rows.csv', '# run: 9\nalpha,dp_pitot,lift,drag\n0,500,10,1\n2,oops,30,1.2\n4,500,50,1.5\n');
+    const r = await run('reduce', p, '--setup', S('setup-3d.json'), '--no-corrections');
+    expect(r.code).toBe(0);
+    const doc = JSON.parse(r.stdout);
+    expect(doc.points).toHaveLength(2);
+    expect(doc.warnings.some((w: string) => w.includes('bad-rows.csv:4:2'))).toBe(true);
+    expect(r.stderr).toContain('bad-rows.csv:4:2');
+  });
+
+  it('answers a wrong command line with usage and exit 2', async () => {
+    expect((await run('reduce', S('run-101-clean.csv'))).code).toBe(2);
+    expect((await run('frobnicate')).code).toBe(2);
+    expect((await run('reduce', 'a.csv', '--setup', 's.json', '--format', 'xml')).stderr).toContain('--format must be json or csv');
+  });
+
+  it('runs as the installed command (bin/sweepbook.js) in a real process', () => {
+    const out = execFileSync(process.execPath, [join(ROOT, 'bin', 'sweepbook.js'), 'reduce', S('run-104-clean-timehistory.csv'), '--setup', S('setup-3d.json'), '--tare', S('windoff-tare.csv')], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'] });
+    const doc = JSON.parse(out);
+    expect(doc.points).toHaveLength(15);
+    expect(doc.points[0].samples).toBe(200);
+    const bad = spawnSync(process.execPath, [join(ROOT, 'bin', 'sweepbook.js'), 'reduce', 'missing.csv', '--setup', S('setup-3d.json')], { encoding: 'utf8' });
+    expect(bad.status).toBe(1);
+    expect(bad.stderr).not.toMatch(/\n\s+at /);
+  });
+});

@@ -1,0 +1,169 @@
+import { mkdtempSync, readFileSync, statSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it, vi } from 'vitest';
+import type { MenuItemConstructorOptions } from 'electron';
+import { FileGrants } from '../../app/electron/grants.ts';
+import { registerIpc } from '../../app/electron/ipc.ts';
+import { menuTemplate } from '../../app/electron/menu.ts';
+import { CONTENT_SECURITY_POLICY, hardenContents, hardenSession, isAllowedExternal, webPreferences } from '../../app/electron/security.ts';
+
+const APP_ROOT = '/opt/sweepbook/dist/renderer';
+const appEvent = { senderFrame: { url: `file://${APP_ROOT}/index.html` } } as never;
+const foreignEvent = { senderFrame: { url: 'https://example.com/' } } as never;
+
+describe('window security settings (DESIGN §5)', () => {
+  it('isolates the page: context isolation, sandbox, no Node anywhere', () => {
+    const w = webPreferences('/x/preload.cjs');
+    expect(w).toMatchObject({ contextIsolation: true, sandbox: true, nodeIntegration: false, nodeIntegrationInWorker: false, nodeIntegrationInSubFrames: false, webSecurity: true, webviewTag: false });
+  });
+
+  it('has a Content-Security-Policy without eval or remote sources', () => {
+    expect(CONTENT_SECURITY_POLICY).not.toContain('unsafe-eval');
+    expect(CONTENT_SECURITY_POLICY).toContain("default-src 'self'");
+    expect(CONTENT_SECURITY_POLICY).toContain("object-src 'none'");
+    expect(CONTENT_SECURITY_POLICY).not.toMatch(/https?:/);
+  });
+
+  it('blocks navigation away from the app and every new window; allow-listed links go to the system browser', () => {
+    const listeners: Record<string, (e: { preventDefault(): void }, url: string) => void> = {};
+    let openHandler: (d: { url: string }) => { action: string } = () => ({ action: 'allow' });
+    const contents = {
+      on: (name: string, fn: never) => (listeners[name] = fn),
+      setWindowOpenHandler: (fn: typeof openHandler) => (openHandler = fn),
+    };
+    const opened: string[] = [];
+    hardenContents(contents as never, APP_ROOT, (u) => opened.push(u));
+    const prevent = vi.fn();
+    listeners['will-navigate']!({ preventDefault: prevent }, 'https://evil.example/');
+    expect(prevent).toHaveBeenCalledTimes(1);
+    listeners['will-navigate']!({ preventDefault: prevent }, `file://${APP_ROOT}/index.html#plots`);
+    expect(prevent).toHaveBeenCalledTimes(1);
+    expect(openHandler({ url: 'https://evil.example/' })).toEqual({ action: 'deny' });
+    expect(openHandler({ url: 'https://www.nist.gov/pml/special-publication-811' })).toEqual({ action: 'deny' });
+    expect(opened).toEqual(['https://www.nist.gov/pml/special-publication-811']);
+    expect(isAllowedExternal('http://www.nist.gov/')).toBe(false);
+  });
+
+  it('denies every permission request and cancels remote requests', () => {
+    let permission: (wc: unknown, p: string, cb: (ok: boolean) => void) => void = () => undefined;
+    let before: (d: { url: string }, cb: (r: { cancel: boolean }) => void) => void = () => undefined;
+    const session = {
+      setPermissionRequestHandler: (fn: typeof permission) => (permission = fn),
+      setPermissionCheckHandler: vi.fn(),
+      webRequest: { onHeadersReceived: vi.fn(), onBeforeRequest: (fn: typeof before) => (before = fn) },
+    };
+    hardenSession(session as never);
+    const answer = vi.fn();
+    permission(null, 'media', answer);
+    expect(answer).toHaveBeenCalledWith(false);
+    const r = vi.fn();
+    before({ url: 'https://cdn.example/x.js' }, r);
+    expect(r).toHaveBeenCalledWith({ cancel: true });
+    before({ url: 'file:///opt/sweepbook/dist/renderer/app.js' }, r);
+    expect(r).toHaveBeenLastCalledWith({ cancel: false });
+  });
+});
+
+describe('native menu', () => {
+  it('offers the campaign commands with the usual shortcuts, and sends them to the page', () => {
+    const sent: string[] = [];
+    const t = menuTemplate((c) => sent.push(c), { isMac: false, recent: [] });
+    const file = (t[0]!.submenu as MenuItemConstructorOptions[]).filter((i) => i.label);
+    const byLabel = Object.fromEntries(file.map((i) => [i.label!, i]));
+    expect(byLabel['New Campaign']!.accelerator).toBe('CmdOrCtrl+N');
+    expect(byLabel['Open Campaign…']!.accelerator).toBe('CmdOrCtrl+O');
+    expect(byLabel['Save Campaign']!.accelerator).toBe('CmdOrCtrl+S');
+    expect(byLabel['Save Campaign As…']!.accelerator).toBe('CmdOrCtrl+Shift+S');
+    expect(byLabel['Import Runs…']!.accelerator).toBe('CmdOrCtrl+I');
+    (byLabel['Save Campaign']!.click as () => void)();
+    (byLabel['Import Runs…']!.click as () => void)();
+    expect(sent).toEqual(['campaign:save', 'runs:import']);
+    expect((t[0]!.submenu as MenuItemConstructorOptions[]).some((i) => i.role === 'quit' && i.accelerator === 'CmdOrCtrl+Q')).toBe(true);
+  });
+});
+
+describe('IPC handlers', () => {
+  function setup(dialogPaths: { open?: string[]; save?: string } = {}) {
+    const dir = mkdtempSync(join(tmpdir(), 'sweepbook-ipc-'));
+    const grants = new FileGrants();
+    const handlers = registerIpc({
+      ipcMain: { handle: vi.fn() },
+      dialog: {
+        showOpenDialog: vi.fn(async () => ({ canceled: !dialogPaths.open, filePaths: dialogPaths.open ?? [] })),
+        showSaveDialog: vi.fn(async () => ({ canceled: !dialogPaths.save, filePath: dialogPaths.save })),
+      } as never,
+      window: () => undefined,
+      grants,
+      recent: { list: async () => [], add: async () => undefined },
+      appRoot: APP_ROOT,
+      sampleCampaignPath: join(dir, 'none.json'),
+      setDirty: vi.fn(),
+      print: vi.fn(),
+    });
+    const call = (channel: string, ...args: unknown[]) => handlers.get(channel)!(appEvent, ...args) as Promise<unknown>;
+    return { dir, grants, handlers, call };
+  }
+
+  it('refuses calls from any page that is not the app', () => {
+    const { handlers } = setup();
+    expect(() => handlers.get('recent:list')!(foreignEvent)).toThrow(/not the app/);
+  });
+
+  it('reads only files the user chose, and streams them in chunks', async () => {
+    const { dir, call } = setup();
+    const run = join(dir, 'run.csv');
+    writeFileSync(run, 'alpha,lift\n' + '1,2\n'.repeat(5000));
+    await expect(call('file:sha256', '00000000-0000-4000-8000-000000000000')).rejects.toThrow(/not chosen by the user/);
+    await expect(call('file:sha256', '../../etc/passwd')).rejects.toThrow();
+    const { call: call2 } = setup({ open: [run] });
+    const [chosen] = (await call2('runs:choose')) as { id: string; name: string }[];
+    expect(chosen!.name).toBe('run.csv');
+    const stream = (await call2('file:open-stream', chosen!.id, 4096)) as string;
+    let text = '';
+    let chunks = 0;
+    for (;;) {
+      const c = (await call2('file:next-chunk', stream)) as string | null;
+      if (c === null) break;
+      text += c;
+      chunks++;
+    }
+    expect(text).toBe(readFileSync(run, 'utf8'));
+    expect(chunks).toBeGreaterThan(1);
+  });
+
+  it('never writes a raw run file: a read grant cannot be saved over, and exports refuse it as a target', async () => {
+    const { dir } = setup();
+    const run = join(dir, 'run.csv');
+    writeFileSync(run, 'alpha,lift\n1,2\n');
+    const before = statSync(run).mtimeMs;
+    const h = setup({ open: [run], save: run });
+    const [chosen] = (await h.call('runs:choose')) as { id: string }[];
+    expect(() => h.grants.get(chosen!.id, 'write')).toThrow(/never written/);
+    await expect(h.call('campaign:save', '{}', { id: chosen!.id })).rejects.toThrow(/never written/);
+    await expect(h.call('export:save', 'points.csv', 'a,b\n', 'text/csv')).rejects.toThrow(/raw run file/);
+    expect(readFileSync(run, 'utf8')).toBe('alpha,lift\n1,2\n');
+    expect(statSync(run).mtimeMs).toBe(before);
+  });
+
+  it('validates arguments: wrong types are refused before anything is touched', async () => {
+    const { call } = setup();
+    await expect(call('campaign:save', 42, {})).rejects.toThrow();
+    await expect(call('campaign:save', '{}', { id: 'not-a-uuid' })).rejects.toThrow();
+    await expect(call('app:set-dirty', 'yes')).rejects.toThrow();
+    await expect(call('file:adopt-dropped', '/etc/shadow')).rejects.toThrow(/not a run file/);
+  });
+
+  it('saves a campaign atomically and keeps the previous version as a backup', async () => {
+    const { dir } = setup();
+    const target = join(dir, 'campaign.json');
+    writeFileSync(target, '{"old":true}\n');
+    const h = setup({ save: target });
+    const saved = (await h.call('campaign:save', '{"new":true}\n', { saveAs: true })) as { id: string; name: string };
+    expect(saved.name).toBe('campaign.json');
+    expect(readFileSync(target, 'utf8')).toBe('{"new":true}\n');
+    expect(readFileSync(`${target}.bak`, 'utf8')).toBe('{"old":true}\n');
+    await h.call('campaign:save', '{"newer":true}\n', { id: saved.id });
+    expect(readFileSync(target, 'utf8')).toBe('{"newer":true}\n');
+  });
+});
