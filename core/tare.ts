@@ -56,6 +56,13 @@ export function buildTare(tare: RunData, loadChannels: readonly Channel[]): Tare
   };
 }
 
+/**
+ * How far outside the sweep a point may lie before it is reported: angle-encoder noise on sweeps over
+ * the same range must not flag their end points (0.05°, common practice, about the resolution of a
+ * typical pitch encoder).
+ */
+export const ALPHA_ALLOWANCE = (0.05 * Math.PI) / 180;
+
 /** Tare loads at geometric alpha (rad), linear between sweep points, nearest end value outside. */
 export function tareAt(table: TareTable, alpha: number): TareValue {
   const a = table.alpha;
@@ -64,7 +71,7 @@ export function tareAt(table: TareTable, alpha: number): TareValue {
   if (n === 1 || alpha <= a[0]! || alpha >= a[n - 1]!) {
     const k = n === 1 || alpha <= a[0]! ? 0 : n - 1;
     table.channels.forEach((c, j) => loads.set(c, table.loads[j]![k]!));
-    const clamped = alpha < a[0]! - 1e-12 || alpha > a[n - 1]! + 1e-12;
+    const clamped = alpha < a[0]! - ALPHA_ALLOWANCE || alpha > a[n - 1]! + ALPHA_ALLOWANCE;
     return { loads, clamped };
   }
   let lo = 0;
