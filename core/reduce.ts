@@ -3,10 +3,9 @@
  * uncorrected coefficients → wall corrections → fits. Each stage lives in its own module; this one
  * only puts them in order and assembles the contract's result (DESIGN §3.3).
  */
-import { bodyToWind, transferPitch, windToBody } from './axes.ts';
 import { BODY_LOADS, WIND_LOADS, type Channel } from './channels.ts';
 import { fitPolar, EMPTY_FIT, type FitResult } from './fit.ts';
-import { flowState } from './flow.ts';
+import { measure, type MeasureGeometry, type PointInputs } from './measure.ts';
 import { InputError, formatNotice, type Notice } from './messages.ts';
 import type { RunData } from './runfile.ts';
 import type { Setup } from './setup.ts';
@@ -98,6 +97,9 @@ export function reduce(input: ReduceInput): ReductionResult {
   const gamma = setup.flow.gamma;
   const has = (ch: Channel) => run.channels.includes(ch);
   const hasPitch = has('pitch');
+  const geometry: MeasureGeometry = { area: S, chord: c, span: b, gamma, axes, offset: setup.model.moment_ref_offset_m };
+  const pointInputs: PointInputs[] = [];
+  const pointSpread: { n: number; sd: (ch: Channel) => number }[] = [];
   const idx = new Map(run.channels.map((ch, i) => [ch, i] as const));
 
   const tunnel: TunnelPoint[] = [];
@@ -126,8 +128,6 @@ export function reduce(input: ReduceInput): ReductionResult {
       });
       continue;
     }
-    const flow = flowState({ p, dp, T0, rh, gamma, chord: c });
-
     // loads in the balance's axes, tares removed
     let tareLoads: Map<Channel, number> | undefined;
     if (tare) {
@@ -141,45 +141,18 @@ export function reduce(input: ReduceInput): ReductionResult {
         });
       }
     }
-    const load = (ch: Channel): number | undefined => {
+    const load = (ch: Channel): number => {
       const v = get(ch);
-      return v === undefined ? undefined : v - (tareLoads?.get(ch) ?? 0);
+      return v === undefined ? Number.NaN : v - (tareLoads?.get(ch) ?? 0);
     };
-    let lift: number;
-    let drag: number;
-    let normal: number;
-    let axial: number;
-    let clStd: number;
-    if (axes === 'wind') {
-      lift = load('lift')!;
-      drag = load('drag')!;
-      ({ normal, axial } = windToBody(lift, drag, alpha));
-      clStd = sd('lift');
-    } else {
-      normal = load('normal')!;
-      axial = load('axial')!;
-      ({ lift, drag } = bodyToWind(normal, axial, alpha));
-      clStd = Math.hypot(sd('normal') * Math.cos(alpha), sd('axial') * Math.sin(alpha));
-    }
-    const pitchBmc = load('pitch');
-    const pitch = pitchBmc === undefined ? undefined : transferPitch(pitchBmc, normal, axial, setup.model.moment_ref_offset_m);
+    const [f1, f2] = axes === 'wind' ? (['lift', 'drag'] as const) : (['normal', 'axial'] as const);
+    const inputs: PointInputs = { alpha, dp, p, T0, rh, force1: load(f1), force2: load(f2), side: load('side'), pitch: load('pitch'), roll: load('roll'), yaw: load('yaw') };
+    const m = measure(inputs, geometry);
+    const { flow, tunnel: u } = m;
+    const clStd = axes === 'wind' ? sd('lift') : Math.hypot(sd('normal') * Math.cos(alpha), sd('axial') * Math.sin(alpha));
     const qS = flow.q * S;
-    const side = load('side');
-    const roll = load('roll');
-    const yaw = load('yaw');
-    const u: TunnelPoint = {
-      alphaDeg: alpha * RAD,
-      cl: lift / qS,
-      cd: drag / qS,
-      cm: pitch === undefined ? Number.NaN : pitch / (qS * c),
-      cy: side === undefined ? Number.NaN : side / qS,
-      cRoll: roll === undefined ? Number.NaN : roll / (qS * b),
-      cYaw: yaw === undefined ? Number.NaN : yaw / (qS * b),
-      q: flow.q,
-      V: flow.V,
-      mach: flow.mach,
-      Re: flow.Re,
-    };
+    pointInputs.push(inputs);
+    pointSpread.push({ n: pt.n, sd });
     tunnel.push(u);
     scatter.push(clStd / qS / Math.sqrt(pt.n));
     rows.push({
@@ -204,9 +177,9 @@ export function reduce(input: ReduceInput): ReductionResult {
       cy_uncorrected: orNull(u.cy),
       c_roll_uncorrected: orNull(u.cRoll),
       c_yaw_uncorrected: orNull(u.cYaw),
-      lift_n: lift,
-      drag_n: drag,
-      pitch_ref_nm: pitch ?? null,
+      lift_n: m.lift,
+      drag_n: m.drag,
+      pitch_ref_nm: orNull(m.pitchRef),
       cl_scatter: scatter[scatter.length - 1]!,
     });
   }

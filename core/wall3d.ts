@@ -51,6 +51,61 @@ export interface Correction3dResult {
   points: CorrectedPoint[];
   factors: WallFactors;
   warnings: string[];
+  /** What was fixed for the run: reused to correct perturbed points in the uncertainty propagation. */
+  context: Context3d;
+}
+
+/** Run-level quantities of the 3D corrections: the factors, the solid blockage, the wake model, the curvature slope. */
+export interface Context3d {
+  factors: Factors3d;
+  /** S/C */
+  SC: number;
+  epsSolid: number;
+  /** Maskell's attached-flow polar CD0 + k·CL², or null for the classic wake blockage. */
+  maskellPolar: { cd0: number; k: number } | null;
+  /** Lift-curve slope used by the streamline-curvature terms, per rad. */
+  slopePerRad: number;
+}
+
+/** Wake blockage of one point: classic (S/4C)·CD_u (BRP eq. 10.9) or Maskell (R&M 3400). */
+export function wakeBlockage3d(p: TunnelPoint, ctx: Pick<Context3d, 'SC' | 'maskellPolar'>): number {
+  const m = ctx.maskellPolar;
+  if (!m) return (ctx.SC / 4) * p.cd;
+  const separated = Math.max(0, p.cd - m.cd0 - m.k * p.cl * p.cl);
+  return (ctx.SC / 4) * m.cd0 + ((5 * ctx.SC) / 4) * separated;
+}
+
+/** Blockage and lift interference of one point (no curvature term yet). CL_w is the blockage-corrected CL (docs/methods.md §7). */
+function blockageAndUpwash(p: TunnelPoint, ctx: Pick<Context3d, 'SC' | 'maskellPolar' | 'epsSolid' | 'factors'>) {
+  const epsWake = wakeBlockage3d(p, ctx);
+  const eps = ctx.epsSolid + epsWake;
+  const s2 = (1 + eps) * (1 + eps);
+  const clW = p.cl / s2;
+  const dAlphaUp = ctx.factors.delta * ctx.SC * clW; // rad, Glauert R&M 1566; BRP eq. 10.47
+  return { epsWake, eps, s2, clW, alpha1: p.alphaDeg + dAlphaUp * RAD, dCdUp: ctx.factors.delta * ctx.SC * clW * clW };
+}
+
+/** The whole 3D correction of one point with the run's context (docs/methods.md §7). */
+export function correctPoint3d(p: TunnelPoint, ctx: Context3d): CorrectedPoint {
+  const { epsWake, eps, s2, clW, alpha1, dCdUp } = blockageAndUpwash(p, ctx);
+  const dAlphaSc = ctx.factors.tau2 * ctx.factors.delta * ctx.SC * clW; // rad, BRP eq. 10.60
+  const dClSc = -ctx.slopePerRad * dAlphaSc; // BRP eq. 10.61
+  const dCmSc = -0.25 * dClSc; // BRP eq. 10.62
+  return {
+    alphaDeg: alpha1 + dAlphaSc * RAD,
+    cl: clW + dClSc,
+    cd: p.cd / s2 + dCdUp,
+    cm: Number.isFinite(p.cm) ? p.cm / s2 + dCmSc : Number.NaN,
+    cy: p.cy / s2,
+    cRoll: p.cRoll / s2,
+    cYaw: p.cYaw / s2,
+    q: p.q * s2,
+    V: p.V * (1 + eps),
+    mach: p.mach * (1 + eps),
+    Re: p.Re * (1 + eps),
+    epsSolid: ctx.epsSolid,
+    epsWake,
+  };
 }
 
 /**
@@ -72,8 +127,7 @@ export function correct3d(points: TunnelPoint[], scatter: number[], g: Geometry3
   if (g.volume === null) warnings.push('model.volume_m3 is not given: solid blockage is skipped (ε_solid = 0)');
   else epsSolid = (g.k * f.tau1 * g.volume) / Math.pow(C, 1.5); // BRP eq. 10.2
 
-  // wake blockage, classic (BRP eq. 10.9) or Maskell (R&M 3400)
-  const epsWake = points.map((p) => (SC / 4) * p.cd);
+  let maskellPolar: Context3d['maskellPolar'] = null;
   if (g.wake === 'maskell') {
     const order = sortedOrder(points.map((p) => p.alphaDeg));
     const a = order.map((i) => points[i]!.alphaDeg);
@@ -82,27 +136,13 @@ export function correct3d(points: TunnelPoint[], scatter: number[], g: Geometry3
     const polar = range
       ? fitPolynomial(cl.slice(range.from, range.to).map((c) => c * c), order.slice(range.from, range.to).map((i) => points[i]!.cd), 1)
       : undefined;
-    if (!polar) {
-      warnings.push('Maskell wake blockage needs an attached-flow drag polar, and none could be fitted: the classic wake blockage is used instead');
-    } else {
-      const [cd0, k] = polar as [number, number];
-      points.forEach((p, i) => {
-        const separated = Math.max(0, p.cd - cd0 - k * p.cl * p.cl);
-        epsWake[i] = (SC / 4) * cd0 + ((5 * SC) / 4) * separated;
-      });
-    }
+    if (!polar) warnings.push('Maskell wake blockage needs an attached-flow drag polar, and none could be fitted: the classic wake blockage is used instead');
+    else maskellPolar = { cd0: polar[0]!, k: polar[1]! };
   }
 
-  // blockage and lift interference; CL_w is the blockage-corrected CL (docs/methods.md §7)
-  const first = points.map((p, i) => {
-    const eps = epsSolid + epsWake[i]!;
-    const s2 = (1 + eps) * (1 + eps);
-    const clW = p.cl / s2;
-    const dAlphaUp = f.delta * SC * clW; // rad, Glauert R&M 1566; BRP eq. 10.47
-    return { p, eps, s2, clW, alpha1: p.alphaDeg + dAlphaUp * RAD, dCdUp: f.delta * SC * clW * clW };
-  });
-
   // lift-curve slope of the blockage- and upwash-corrected data, for the curvature terms
+  const base = { factors: f, SC, epsSolid, maskellPolar };
+  const first = points.map((p) => blockageAndUpwash(p, base));
   const order = sortedOrder(first.map((x) => x.alpha1));
   const range = findLinearRange(
     order.map((i) => first[i]!.alpha1),
@@ -117,29 +157,9 @@ export function correct3d(points: TunnelPoint[], scatter: number[], g: Geometry3
     slopePerRad = helmboldSlope(ar);
     warnings.push(`no linear lift range for the streamline-curvature correction: the Helmbold slope for aspect ratio ${ar.toFixed(2)} (${(slopePerRad / RAD).toFixed(4)} per deg) is used`);
   }
-
-  let overBlocked = 0;
-  const out = first.map(({ p, eps, s2, clW, alpha1, dCdUp }, i): CorrectedPoint => {
-    if (eps > MAX_VALIDATED_EPSILON) overBlocked++;
-    const dAlphaSc = f.tau2 * f.delta * SC * clW; // rad, BRP eq. 10.60
-    const dClSc = -slopePerRad * dAlphaSc; // BRP eq. 10.61
-    const dCmSc = -0.25 * dClSc; // BRP eq. 10.62
-    return {
-      alphaDeg: alpha1 + dAlphaSc * RAD,
-      cl: clW + dClSc,
-      cd: p.cd / s2 + dCdUp,
-      cm: Number.isFinite(p.cm) ? p.cm / s2 + dCmSc : Number.NaN,
-      cy: p.cy / s2,
-      cRoll: p.cRoll / s2,
-      cYaw: p.cYaw / s2,
-      q: p.q * s2,
-      V: p.V * (1 + eps),
-      mach: p.mach * (1 + eps),
-      Re: p.Re * (1 + eps),
-      epsSolid,
-      epsWake: epsWake[i]!,
-    };
-  });
+  const context: Context3d = { ...base, slopePerRad };
+  const out = points.map((p) => correctPoint3d(p, context));
+  const overBlocked = out.filter((p) => p.epsSolid + p.epsWake > MAX_VALIDATED_EPSILON).length;
   if (overBlocked > 0) {
     warnings.push(`${overBlocked} point(s) have a total blockage ε above ${MAX_VALIDATED_EPSILON}, outside the range where these corrections are validated; results are given but treat them with caution`);
   }
@@ -147,6 +167,7 @@ export function correct3d(points: TunnelPoint[], scatter: number[], g: Geometry3
     points: out,
     factors: { sigma: null, delta: f.delta, tau1: f.tau1, tau2: f.tau2, solid_blockage_k: g.k },
     warnings,
+    context,
   };
 }
 
