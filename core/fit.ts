@@ -3,7 +3,7 @@
  * found linear range, zero-lift angle, CLmax, stall angle, drag polar, (L/D)max, Cm slope.
  * Anything that cannot be determined is null, with a warning saying why; never a made-up number.
  */
-import { fitLine, fitPolynomial, parabolaVertex, type LineFit } from './leastsquares.ts';
+import { fitLine, fitPolynomial, parabolaVertex, regressLine, type LineFit } from './leastsquares.ts';
 
 export interface FitInput {
   alphaDeg: number[];
@@ -13,6 +13,9 @@ export interface FitInput {
   cm: number[];
   /** Standard error of each point's CL from its sample scatter (0 for single samples). */
   clScatter: number[];
+  /** Standard uncertainties of CL and CD (setup `uncertainty` block): the fits are then weighted by 1/u². */
+  clU?: number[];
+  cdU?: number[];
   kind: '2d' | '3d';
   /** Aspect ratio b²/S (3D). */
   aspectRatio: number;
@@ -39,6 +42,11 @@ export interface FitResult {
   cm_alpha_per_deg: number | null;
   cm_cl_slope: number | null;
   x_ac_aft_of_ref_c: number | null;
+  alpha_zero_lift_stderr_deg: number | null;
+  cd0_stderr: number | null;
+  k_induced_stderr: number | null;
+  /** True when the lift line and the polar were weighted by the points' uncertainties. */
+  weighted: boolean;
 }
 
 export const EMPTY_FIT: FitResult = {
@@ -62,6 +70,10 @@ export const EMPTY_FIT: FitResult = {
   cm_alpha_per_deg: null,
   cm_cl_slope: null,
   x_ac_aft_of_ref_c: null,
+  alpha_zero_lift_stderr_deg: null,
+  cd0_stderr: null,
+  k_induced_stderr: null,
+  weighted: false,
 };
 
 /** Smallest tolerance on lift residuals, in CL (common practice: about the repeatability of a good balance). */
@@ -127,22 +139,35 @@ export function fitPolar(input: FitInput): { fit: FitResult; warnings: string[] 
         : `no linear lift range of at least ${MIN_LINEAR_POINTS} points was found (residual tolerance ${Math.max(MIN_LINEAR_TOLERANCE, 3 * median(input.clScatter)).toFixed(4)} in CL); lift-curve fits are not given`,
     );
   } else {
-    const { from, to, line } = range;
+    const { from, to } = range;
+    const weightsOf = (u: number[] | undefined) => (u && u.slice(from, to).every((x) => x > 0) ? u.map((x) => 1 / (x * x)) : undefined);
+    const wl = weightsOf(input.clU);
+    const wd = weightsOf(input.cdU);
+    fit.weighted = wl !== undefined;
+    const line = regressLine(a, cl, wl, from, to)!;
     fit.cl_alpha_per_deg = line.slope;
-    fit.cl_alpha_stderr_per_deg = Number.isFinite(line.slopeStderr) ? line.slopeStderr : null;
-    fit.alpha_zero_lift_deg = line.slope !== 0 ? -line.intercept / line.slope : null;
+    fit.cl_alpha_stderr_per_deg = finiteOrNull(Math.sqrt(line.varSlope));
+    if (line.slope !== 0) {
+      const a0 = -line.intercept / line.slope;
+      fit.alpha_zero_lift_deg = a0;
+      // delta method on α0 = −intercept/slope (JCGM 100:2008 eq. 13)
+      const v = (line.varIntercept + a0 * a0 * line.varSlope + 2 * a0 * line.covariance) / (line.slope * line.slope);
+      fit.alpha_zero_lift_stderr_deg = finiteOrNull(Math.sqrt(v));
+    }
     fit.linear_range_deg = [a[from]!, a[to - 1]!];
     fit.linear_range_points = to - from;
     fit.linear_tolerance_cl = range.tolerance;
 
     const clr = cl.slice(from, to);
     const cdr = cd.slice(from, to);
-    const polar = fitPolynomial(clr.map((c) => c * c), cdr, 1);
+    const polar = regressLine(clr.map((c) => c * c), cdr, wd?.slice(from, to));
     if (polar) {
-      fit.cd0 = polar[0]!;
-      fit.k_induced = polar[1]!;
+      fit.cd0 = polar.intercept;
+      fit.k_induced = polar.slope;
+      fit.cd0_stderr = finiteOrNull(Math.sqrt(polar.varIntercept));
+      fit.k_induced_stderr = finiteOrNull(Math.sqrt(polar.varSlope));
       if (input.kind === '3d') {
-        fit.oswald_e = polar[1]! > 0 ? 1 / (Math.PI * input.aspectRatio * polar[1]!) : null;
+        fit.oswald_e = polar.slope > 0 ? 1 / (Math.PI * input.aspectRatio * polar.slope) : null;
         if (fit.oswald_e === null) warnings.push('the drag polar has no positive CL² term; Oswald efficiency is not given');
       }
     }
@@ -200,6 +225,10 @@ export function fitPolar(input: FitInput): { fit: FitResult; warnings: string[] 
     }
   }
   return { fit, warnings };
+}
+
+function finiteOrNull(x: number): number | null {
+  return Number.isFinite(x) ? x : null;
 }
 
 function median(values: number[]): number {

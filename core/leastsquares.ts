@@ -115,3 +115,54 @@ export function parabolaVertex(x: [number, number, number], y: [number, number, 
   const xv = -p[1]! / (2 * p[2]!);
   return { x: xv, y: p[0]! + p[1]! * xv + p[2]! * xv * xv };
 }
+
+export interface LineRegression {
+  slope: number;
+  intercept: number;
+  varSlope: number;
+  varIntercept: number;
+  covariance: number;
+  /** Σ w·r²; with w = 1/u² its expectation is n − 2. */
+  chi2: number;
+  n: number;
+}
+
+/**
+ * Weighted least-squares line y = a + b·x with weights w (1/u² for known standard uncertainties, or all 1).
+ * Parameter covariance (Draper & Smith ch. 9; JCGM 100:2008 H.3): with unit weights it is scaled by
+ * the residual variance s² = Σr²/(n − 2); with 1/u² weights by max(1, χ²/(n − 2)) (the Birge ratio),
+ * so scatter larger than the stated uncertainties widens the standard errors rather than being hidden.
+ */
+export function regressLine(x: ArrayLike<number>, y: ArrayLike<number>, w?: ArrayLike<number>, from = 0, to = x.length): LineRegression | undefined {
+  const n = to - from;
+  if (n < 2) return undefined;
+  let sw = 0;
+  let swx = 0;
+  let swy = 0;
+  for (let i = from; i < to; i++) {
+    const wi = w ? w[i]! : 1;
+    sw += wi;
+    swx += wi * x[i]!;
+    swy += wi * y[i]!;
+  }
+  const mx = swx / sw;
+  const my = swy / sw;
+  let sxx = 0;
+  let sxy = 0;
+  for (let i = from; i < to; i++) {
+    const wi = w ? w[i]! : 1;
+    sxx += wi * (x[i]! - mx) ** 2;
+    sxy += wi * (x[i]! - mx) * (y[i]! - my);
+  }
+  if (!(sxx > 0)) return undefined;
+  const slope = sxy / sxx;
+  const intercept = my - slope * mx;
+  let chi2 = 0;
+  for (let i = from; i < to; i++) chi2 += (w ? w[i]! : 1) * (y[i]! - intercept - slope * x[i]!) ** 2;
+  const dof = n - 2;
+  const scale = dof > 0 ? (w ? Math.max(1, chi2 / dof) : chi2 / dof) : Number.NaN;
+  const varSlope = scale / sxx;
+  const varIntercept = scale * (1 / sw + (mx * mx) / sxx);
+  const covariance = (-scale * mx) / sxx;
+  return { slope, intercept, varSlope, varIntercept, covariance, chi2, n };
+}

@@ -11,7 +11,8 @@ import type { RunData } from './runfile.ts';
 import type { Setup } from './setup.ts';
 import { buildTare, tareAt, type TareTable } from './tare.ts';
 import { correct2d, exceedsValidatedBlockage } from './wall2d.ts';
-import { correct3d, sortedOrder } from './wall3d.ts';
+import { correct3d, correctPoint3d, sortedOrder } from './wall3d.ts';
+import { propagatePoint, type Correct, type PointUncertainty } from './uncertainty.ts';
 import { NO_FACTORS, RAD, type CorrectedPoint, type TunnelPoint, type WallFactors } from './walls.ts';
 
 export interface PointResult {
@@ -54,6 +55,13 @@ export interface PointResult {
   cl_scatter: number;
   eps_solid: number | null;
   eps_wake: number | null;
+  /** Standard uncertainties (k = 1) of the corrected values; null without an uncertainty block in the setup. */
+  u_q_pa: number | null;
+  u_v_mps: number | null;
+  u_alpha_deg: number | null;
+  u_cl: number | null;
+  u_cd: number | null;
+  u_cm: number | null;
 }
 
 export interface ReductionResult {
@@ -103,7 +111,7 @@ export function reduce(input: ReduceInput): ReductionResult {
   const idx = new Map(run.channels.map((ch, i) => [ch, i] as const));
 
   const tunnel: TunnelPoint[] = [];
-  const rows: Omit<PointResult, 'alpha_deg' | 'q_pa' | 'v_mps' | 'mach' | 'reynolds' | 'cl' | 'cd' | 'cm' | 'cy' | 'c_roll' | 'c_yaw' | 'ld' | 'eps_solid' | 'eps_wake'>[] = [];
+  const rows: Omit<PointResult, 'alpha_deg' | 'q_pa' | 'v_mps' | 'mach' | 'reynolds' | 'cl' | 'cd' | 'cm' | 'cy' | 'c_roll' | 'c_yaw' | 'ld' | 'eps_solid' | 'eps_wake' | keyof PointUncertainty>[] = [];
   const scatter: number[] = [];
   for (const pt of run.points) {
     const get: Getter = (ch) => {
@@ -190,6 +198,8 @@ export function reduce(input: ReduceInput): ReductionResult {
   const enabled = setup.corrections.enabled && !input.noCorrections;
   let corrected: CorrectedPoint[] | undefined;
   let factors: WallFactors = NO_FACTORS;
+  /** The correction of one point with the run's factors fixed, for the uncertainty propagation. */
+  let correctOne: Correct = (t) => t;
   const kind = setup.model.kind;
   if (enabled) {
     if (kind === '2d') {
@@ -203,6 +213,7 @@ export function reduce(input: ReduceInput): ReductionResult {
       if (g.volume === null) notices.push({ field: 'model.volume_m3', message: 'not given: solid blockage is skipped (ε_solid = 0)' });
       if (!hasPitch) notices.push({ file: run.file, message: 'without a pitching moment the 2D angle correction uses the cl term alone' });
       corrected = tunnel.map((p) => correct2d(p, g));
+      correctOne = (t) => correct2d(t, g);
       const over = corrected.filter(exceedsValidatedBlockage).length;
       if (over > 0) notices.push({ message: `${over} point(s) have a total blockage ε above 0.1, outside the range where the 2D corrections are validated; results are given but treat them with caution` });
       factors = { sigma: ((Math.PI * Math.PI) / 48) * (c / g.height) ** 2, delta: null, tau1: null, tau2: null, solid_blockage_k: g.k1 };
@@ -223,12 +234,15 @@ export function reduce(input: ReduceInput): ReductionResult {
       });
       corrected = res.points;
       factors = res.factors;
+      correctOne = (t) => correctPoint3d(t, res.context);
       notices.push(...res.warnings.map((message) => ({ message })));
     }
   }
 
+  const spec = setup.uncertainty;
   const points: PointResult[] = rows.map((r, i) => {
     const k = corrected?.[i];
+    const u: PointUncertainty | null = spec ? propagatePoint(pointInputs[i]!, geometry, spec, pointSpread[i]!, correctOne) : null;
     const cl = k ? k.cl : r.cl_uncorrected;
     const cd = k ? k.cd : r.cd_uncorrected;
     return {
@@ -247,6 +261,12 @@ export function reduce(input: ReduceInput): ReductionResult {
       ld: cd !== 0 ? cl / cd : null,
       eps_solid: k ? k.epsSolid : null,
       eps_wake: k ? k.epsWake : null,
+      u_q_pa: u?.u_q_pa ?? null,
+      u_v_mps: u?.u_v_mps ?? null,
+      u_alpha_deg: u?.u_alpha_deg ?? null,
+      u_cl: u?.u_cl ?? null,
+      u_cd: u?.u_cd ?? null,
+      u_cm: u?.u_cm ?? null,
     };
   });
 
@@ -263,6 +283,8 @@ export function reduce(input: ReduceInput): ReductionResult {
     cd: order.map((i) => points[i]!.cd!),
     cm: order.map((i) => points[i]!.cm ?? Number.NaN),
     clScatter: order.map((i) => scatter[i]!),
+    clU: spec ? order.map((i) => points[i]!.u_cl!) : undefined,
+    cdU: spec ? order.map((i) => points[i]!.u_cd!) : undefined,
     kind,
     aspectRatio: (b * b) / S,
   });
