@@ -104,3 +104,29 @@ export function isaTroposphere(H: number): { p: number; T: number; rho: number }
   const p = ISA_SEA_LEVEL.p * Math.pow(T / ISA_SEA_LEVEL.T, -G0 / (beta * R_AIR_ISO));
   return { p, T, rho: p / (R_AIR_ISO * T) };
 }
+
+/** Tropopause of ISO 2533:1975: 11 000 m geopotential, 216.65 K. */
+const H_TROPOPAUSE = 11000;
+
+/**
+ * ISO 2533:1975 standard atmosphere up to 20 000 m geopotential: the troposphere (lapse −6.5 K/km)
+ * and the isothermal layer above it, p = p11·exp(−g0(H − 11 000)/(R·T11)).
+ */
+export function isaAtmosphere(H: number): { p: number; T: number; rho: number } {
+  if (H <= H_TROPOPAUSE) return isaTroposphere(H);
+  const top = isaTroposphere(H_TROPOPAUSE);
+  const p = top.p * Math.exp((-G0 * (H - H_TROPOPAUSE)) / (R_AIR_ISO * top.T));
+  return { p, T: top.T, rho: p / (R_AIR_ISO * top.T) };
+}
+
+/**
+ * Density altitude: the ISO 2533 altitude whose standard density equals ρ. Troposphere:
+ * ρ/ρ0 = (T/T0)^(−g0/(βR) − 1) inverted for H; above 11 000 m the isothermal layer's exponential.
+ */
+export function densityAltitude(rho: number): number {
+  const beta = -0.0065;
+  const exponent = -G0 / (beta * R_AIR_ISO) - 1; // 4.2559
+  const top = isaTroposphere(H_TROPOPAUSE);
+  if (rho >= top.rho) return (ISA_SEA_LEVEL.T / beta) * (Math.pow(rho / ISA_SEA_LEVEL.rho, 1 / exponent) - 1);
+  return H_TROPOPAUSE - ((R_AIR_ISO * top.T) / G0) * Math.log(rho / top.rho);
+}

@@ -8,12 +8,16 @@ import { createReadStream } from 'node:fs';
 import { readFile } from 'node:fs/promises';
 import { parseArgs } from 'node:util';
 import { pointsCsv, readRun, readSetup, reduceRun } from '../../core/engine.ts';
-import { formatNotice, InputError, type Notice } from '../../core/messages.ts';
+import { attempt, formatNotice, InputError, type Notice } from '../../core/messages.ts';
+import { projectStallSpeed } from '../../core/projection.ts';
+import type { ReductionResult } from '../../core/reduce.ts';
 import { writeFileAtomic } from '../files/atomic.ts';
 import { VERSION } from '../version.ts';
 
 const USAGE = `usage:
   sweepbook reduce RUN.csv --setup SETUP.json [--tare WINDOFF.csv] [--format json|csv] [--out FILE] [--no-corrections]
+  sweepbook project RUN.csv --setup SETUP.json --mass-kg M --wing-area-m2 S [--pressure-altitude-m H]
+                    [--temp-c T | --isa-deviation-c D] [--rh-pct RH] [--cl-max X] [--lift-off-factor F] [--tare WINDOFF.csv]
   sweepbook --version`;
 
 class UsageError extends Error {}
@@ -31,6 +35,7 @@ export async function main(argv: string[], io = { stdout: process.stdout, stderr
       return command === undefined ? 2 : 0;
     }
     if (command === 'reduce') return await reduceCommand(rest, io, say);
+    if (command === 'project') return await projectCommand(rest, io, say);
     throw new UsageError(`unknown command "${command}"`);
   } catch (err) {
     if (err instanceof UsageError || (err as { code?: string }).code?.startsWith('ERR_PARSE_ARGS')) {
@@ -59,35 +64,103 @@ async function reduceCommand(args: string[], io: { stdout: NodeJS.WritableStream
   if (!values.setup) throw new UsageError('reduce needs --setup SETUP.json');
   const format = values.format;
   if (format !== 'json' && format !== 'csv') throw new UsageError(`--format must be json or csv, not "${format}"`);
-  const runPath = positionals[0]!;
-  const fail = (errors: Notice[]) => {
-    for (const e of errors) say(`error: ${formatNotice(e)}`);
-    return 1;
-  };
-
-  const setupText = await readText(values.setup);
-  if (typeof setupText !== 'string') return fail([setupText]);
-  const setup = readSetup(values.setup, setupText);
-  if (!setup.ok) return fail(setup.errors);
-
-  const run = await readRun(runPath, textStream(runPath));
-  if (!run.ok) return fail(run.errors);
-  let tare;
-  if (values.tare) {
-    const t = await readRun(values.tare, textStream(values.tare));
-    if (!t.ok) return fail(t.errors);
-    tare = t.value;
-  }
-  const result = reduceRun({ run: run.value, setup: setup.value, tare, noCorrections: values['no-corrections'] });
-  if (!result.ok) return fail(result.errors);
-  for (const w of result.value.warnings) say(`warning: ${w}`);
-  const text = format === 'json' ? JSON.stringify(result.value, null, 2) + '\n' : pointsCsv(result.value);
+  const result = await loadAndReduce(positionals[0]!, values.setup, values.tare, values['no-corrections'], say);
+  if (typeof result === 'number') return result;
+  for (const w of result.warnings) say(`warning: ${w}`);
+  const text = format === 'json' ? JSON.stringify(result, null, 2) + '\n' : pointsCsv(result);
   if (values.out) {
     await writeFileAtomic(values.out, text);
     say(`wrote ${values.out}`);
   } else {
     io.stdout.write(text);
   }
+  return 0;
+}
+
+function failWith(say: (l: string) => void, errors: Notice[]): number {
+  for (const e of errors) say(`error: ${formatNotice(e)}`);
+  return 1;
+}
+
+/** Read setup, run and tare, and reduce; an exit code when something cannot be read or reduced. */
+async function loadAndReduce(runPath: string, setupPath: string, tarePath: string | undefined, noCorrections: boolean, say: (l: string) => void): Promise<ReductionResult | number> {
+  const setupText = await readText(setupPath);
+  if (typeof setupText !== 'string') return failWith(say, [setupText]);
+  const setup = readSetup(setupPath, setupText);
+  if (!setup.ok) return failWith(say, setup.errors);
+  const run = await readRun(runPath, textStream(runPath));
+  if (!run.ok) return failWith(say, run.errors);
+  let tare;
+  if (tarePath) {
+    const t = await readRun(tarePath, textStream(tarePath));
+    if (!t.ok) return failWith(say, t.errors);
+    tare = t.value;
+  }
+  const result = reduceRun({ run: run.value, setup: setup.value, tare, noCorrections });
+  if (!result.ok) return failWith(say, result.errors);
+  return result.value;
+}
+
+/** `project`: full-scale stall speed from the run's CLmax (or --cl-max), with its cautions. */
+async function projectCommand(args: string[], io: { stdout: NodeJS.WritableStream }, say: (l: string) => void): Promise<number> {
+  const { values, positionals } = parseArgs({
+    args,
+    allowPositionals: true,
+    options: {
+      setup: { type: 'string' },
+      tare: { type: 'string' },
+      'mass-kg': { type: 'string' },
+      'wing-area-m2': { type: 'string' },
+      'pressure-altitude-m': { type: 'string' },
+      'temp-c': { type: 'string' },
+      'isa-deviation-c': { type: 'string' },
+      'rh-pct': { type: 'string' },
+      'cl-max': { type: 'string' },
+      'lift-off-factor': { type: 'string' },
+    },
+  });
+  if (positionals.length !== 1) throw new UsageError('project needs one run file');
+  if (!values.setup) throw new UsageError('project needs --setup SETUP.json');
+  if (values['mass-kg'] === undefined) throw new UsageError('project needs --mass-kg M');
+  if (values['wing-area-m2'] === undefined) throw new UsageError('project needs --wing-area-m2 S');
+  if (values['temp-c'] !== undefined && values['isa-deviation-c'] !== undefined) throw new UsageError('give --temp-c or --isa-deviation-c, not both');
+  const num = (name: keyof typeof values): number | undefined => {
+    const v = values[name];
+    if (v === undefined || typeof v !== 'string') return undefined;
+    const x = Number(v);
+    if (v.trim() === '' || !Number.isFinite(x)) throw new UsageError(`--${name} must be a number, not "${v}"`);
+    return x;
+  };
+  const result = await loadAndReduce(positionals[0]!, values.setup, values.tare, false, say);
+  if (typeof result === 'number') return result;
+  const given = num('cl-max');
+  const clMax = given ?? result.fit.cl_max;
+  if (clMax === null) {
+    say(`error: ${positionals[0]}: the run reached no CLmax (${result.warnings.find((w) => w.includes('CLmax')) ?? 'see its warnings'}); give one with --cl-max`);
+    return 1;
+  }
+  const atMax = result.points.reduce((best, p) => ((p.cl ?? -Infinity) > (best.cl ?? -Infinity) ? p : best), result.points[0]!);
+  const projection = attempt(() =>
+    projectStallSpeed({
+      massKg: num('mass-kg')!,
+      wingAreaM2: num('wing-area-m2')!,
+      clMax,
+      pressureAltitudeM: num('pressure-altitude-m'),
+      tempC: num('temp-c'),
+      isaDeviationC: num('isa-deviation-c'),
+      rhPct: num('rh-pct'),
+      liftOffFactor: num('lift-off-factor'),
+      modelReynolds: atMax.reynolds,
+    }),
+  );
+  if (!projection.ok) return failWith(say, projection.errors.map((e) => ({ ...e, field: e.field ? `--${e.field}` : undefined })));
+  const doc = {
+    ...projection.value,
+    cl_max_source: given !== undefined ? 'given (--cl-max)' : 'fitted from the run',
+    run: { name: result.run.name, configuration: result.run.configuration, source_file: result.run['source_file'] },
+  };
+  for (const c of doc.cautions) say(`caution: ${c}`);
+  io.stdout.write(JSON.stringify(doc, null, 2) + '\n');
   return 0;
 }
 
