@@ -7,6 +7,7 @@ import { reduce, type ReductionResult, type PointResult } from './reduce.ts';
 import { RunFileReader, type ColumnMapping, type RunData } from './runfile.ts';
 import { parseSetup, type SetupResult } from './setup.ts';
 import { toCsv, type Cell } from './csvout.ts';
+import { provenanceLines, type Provenance } from './provenance.ts';
 
 export type { ReductionResult, PointResult } from './reduce.ts';
 
@@ -54,11 +55,13 @@ export const POINT_COLUMNS: readonly (keyof PointResult)[] = [
   'v_uncorrected_mps', 'mach_uncorrected', 'reynolds_uncorrected', 'rho_kgm3', 'mu_pas', 'p_static_pa',
   'p_total_pa', 't_static_k', 't_total_k', 'rh_pct', 'cy', 'c_roll', 'c_yaw', 'cy_uncorrected',
   'c_roll_uncorrected', 'c_yaw_uncorrected', 'lift_n', 'drag_n', 'pitch_ref_nm', 'cl_scatter',
-  'eps_solid', 'eps_wake', 'line',
+  'eps_solid', 'eps_wake', 'u_q_pa', 'u_v_mps', 'u_alpha_deg', 'u_cl', 'u_cd', 'u_cm', 'line',
 ];
 
-/** The point table of a result as CSV. */
-export function pointsCsv(result: ReductionResult): string {
+/** The point table of a result as CSV, headed by `# ` provenance lines when given. */
+export function pointsCsv(result: ReductionResult, provenance?: Provenance): string {
   const rows: Cell[][] = result.points.map((p) => POINT_COLUMNS.map((k) => p[k] as Cell));
-  return toCsv(POINT_COLUMNS as string[], rows);
+  // raw comment lines (not CSV cells): what `comment='#'` readers such as pandas and our own reader skip
+  const head = provenance ? provenanceLines(provenance).map((l) => `# ${l.replace(/[\r\n]+/g, ' ')}`).join('\n') + '\n' : '';
+  return head + toCsv(POINT_COLUMNS as string[], rows);
 }

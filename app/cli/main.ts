@@ -4,12 +4,16 @@
  * Standard output carries only the document; messages go to standard error. Exit 0 on success,
  * 1 on input that cannot be reduced, 2 on a wrong command line.
  */
+import { createHash, type Hash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
+import { basename } from 'node:path';
+import { StringDecoder } from 'node:string_decoder';
 import { readFile } from 'node:fs/promises';
 import { parseArgs } from 'node:util';
 import { pointsCsv, readRun, readSetup, reduceRun } from '../../core/engine.ts';
 import { attempt, formatNotice, InputError, type Notice } from '../../core/messages.ts';
 import { projectStallSpeed } from '../../core/projection.ts';
+import { provenanceOf, reductionTime, type InputFile, type Provenance } from '../../core/provenance.ts';
 import type { ReductionResult } from '../../core/reduce.ts';
 import { writeFileAtomic } from '../files/atomic.ts';
 import { VERSION } from '../version.ts';
@@ -64,10 +68,11 @@ async function reduceCommand(args: string[], io: { stdout: NodeJS.WritableStream
   if (!values.setup) throw new UsageError('reduce needs --setup SETUP.json');
   const format = values.format;
   if (format !== 'json' && format !== 'csv') throw new UsageError(`--format must be json or csv, not "${format}"`);
-  const result = await loadAndReduce(positionals[0]!, values.setup, values.tare, values['no-corrections'], say);
-  if (typeof result === 'number') return result;
+  const loaded = await loadAndReduce(positionals[0]!, values.setup, values.tare, values['no-corrections'], say);
+  if (typeof loaded === 'number') return loaded;
+  const { result, provenance } = loaded;
   for (const w of result.warnings) say(`warning: ${w}`);
-  const text = format === 'json' ? JSON.stringify(result, null, 2) + '\n' : pointsCsv(result);
+  const text = format === 'json' ? JSON.stringify({ ...result, provenance }, null, 2) + '\n' : pointsCsv(result, provenance);
   if (values.out) {
     await writeFileAtomic(values.out, text);
     say(`wrote ${values.out}`);
@@ -83,22 +88,36 @@ function failWith(say: (l: string) => void, errors: Notice[]): number {
 }
 
 /** Read setup, run and tare, and reduce; an exit code when something cannot be read or reduced. */
-async function loadAndReduce(runPath: string, setupPath: string, tarePath: string | undefined, noCorrections: boolean, say: (l: string) => void): Promise<ReductionResult | number> {
+async function loadAndReduce(
+  runPath: string,
+  setupPath: string,
+  tarePath: string | undefined,
+  noCorrections: boolean,
+  say: (l: string) => void,
+): Promise<{ result: ReductionResult; provenance: Provenance } | number> {
   const setupText = await readText(setupPath);
   if (typeof setupText !== 'string') return failWith(say, [setupText]);
   const setup = readSetup(setupPath, setupText);
   if (!setup.ok) return failWith(say, setup.errors);
-  const run = await readRun(runPath, textStream(runPath));
+  const inputs: InputFile[] = [{ role: 'setup', name: basename(setupPath), sha256: createHash('sha256').update(setupText).digest('hex') }];
+  const read = async (path: string, role: 'run' | 'tare') => {
+    const hash = createHash('sha256');
+    const r = await readRun(path, textStream(path, hash));
+    if (r.ok) inputs.push({ role, name: basename(path), sha256: hash.digest('hex') });
+    return r;
+  };
+  const run = await read(runPath, 'run');
   if (!run.ok) return failWith(say, run.errors);
   let tare;
   if (tarePath) {
-    const t = await readRun(tarePath, textStream(tarePath));
+    const t = await read(tarePath, 'tare');
     if (!t.ok) return failWith(say, t.errors);
     tare = t.value;
   }
   const result = reduceRun({ run: run.value, setup: setup.value, tare, noCorrections });
   if (!result.ok) return failWith(say, result.errors);
-  return result.value;
+  const provenance = provenanceOf(result.value, setup.value.setup, { version: VERSION, reducedAt: reductionTime(process.env['SOURCE_DATE_EPOCH']), inputs });
+  return { result: result.value, provenance };
 }
 
 /** `project`: full-scale stall speed from the run's CLmax (or --cl-max), with its cautions. */
@@ -131,8 +150,9 @@ async function projectCommand(args: string[], io: { stdout: NodeJS.WritableStrea
     if (v.trim() === '' || !Number.isFinite(x)) throw new UsageError(`--${name} must be a number, not "${v}"`);
     return x;
   };
-  const result = await loadAndReduce(positionals[0]!, values.setup, values.tare, false, say);
-  if (typeof result === 'number') return result;
+  const loaded = await loadAndReduce(positionals[0]!, values.setup, values.tare, false, say);
+  if (typeof loaded === 'number') return loaded;
+  const { result, provenance } = loaded;
   const given = num('cl-max');
   const clMax = given ?? result.fit.cl_max;
   if (clMax === null) {
@@ -158,17 +178,28 @@ async function projectCommand(args: string[], io: { stdout: NodeJS.WritableStrea
     ...projection.value,
     cl_max_source: given !== undefined ? 'given (--cl-max)' : 'fitted from the run',
     run: { name: result.run.name, configuration: result.run.configuration, source_file: result.run['source_file'] },
+    provenance,
   };
   for (const c of doc.cautions) say(`caution: ${c}`);
   io.stdout.write(JSON.stringify(doc, null, 2) + '\n');
   return 0;
 }
 
-/** A file's text as a stream of chunks; a missing file surfaces as an error naming it. */
-async function* textStream(path: string): AsyncGenerator<string> {
-  const stream = createReadStream(path, { encoding: 'utf8', highWaterMark: 1 << 20 });
+/**
+ * A file's text as a stream of chunks, opened read-only; the bytes also feed `hash` when given, so the
+ * SHA-256 for the provenance costs no second read. A missing file surfaces as an error naming it.
+ */
+async function* textStream(path: string, hash?: Hash): AsyncGenerator<string> {
+  const stream = createReadStream(path, { flags: 'r', highWaterMark: 1 << 20 });
+  const decoder = new StringDecoder('utf8');
   try {
-    for await (const chunk of stream) yield chunk as string;
+    for await (const chunk of stream) {
+      hash?.update(chunk as Buffer);
+      const text = decoder.write(chunk as Buffer);
+      if (text.length > 0) yield text;
+    }
+    const rest = decoder.end();
+    if (rest.length > 0) yield rest;
   } catch (err) {
     throw fileError(path, err);
   }

@@ -1,4 +1,5 @@
 import { execFileSync, spawnSync } from 'node:child_process';
+import { createHash } from 'node:crypto';
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
@@ -67,9 +68,36 @@ describe('sweepbook reduce (command line, DESIGN §3.3)', () => {
     const r = await run('reduce', S('run-201-section.csv'), '--setup', S('setup-2d.json'), '--format', 'csv', '--out', out);
     expect(r.code).toBe(0);
     expect(r.stdout).toBe('');
-    const lines = readFileSync(out, 'utf8').trim().split('\n');
+    const all = readFileSync(out, 'utf8').trim().split('\n');
+    const lines = all.filter((l) => !l.startsWith('#'));
     expect(lines[0]!.split(',').slice(0, 4)).toEqual(['point', 'samples', 'alpha_deg', 'cl']);
     expect(lines).toHaveLength(14);
+    expect(all[0]).toMatch(/^# tool: sweepbook \d+\.\d+\.\d+$/);
+    expect(all.some((l) => l.startsWith('# run: run-201-section.csv sha256 '))).toBe(true);
+  });
+
+  it('is reproducible: with SOURCE_DATE_EPOCH set, two reductions give byte-identical JSON and CSV', async () => {
+    const before = process.env['SOURCE_DATE_EPOCH'];
+    process.env['SOURCE_DATE_EPOCH'] = '1764547200';
+    try {
+      const args = [S('run-104-clean-timehistory.csv'), '--setup', S('setup-3d.json'), '--tare', S('windoff-tare.csv')];
+      const a = await run('reduce', ...args);
+      const b = await run('reduce', ...args);
+      expect(a.stdout.length).toBeGreaterThan(1000);
+      expect(b.stdout).toBe(a.stdout);
+      const c = await run('reduce', ...args, '--format', 'csv');
+      const d = await run('reduce', ...args, '--format', 'csv');
+      expect(d.stdout).toBe(c.stdout);
+      const doc = JSON.parse(a.stdout);
+      expect(doc.provenance.reduced_at).toBe('2025-12-01T00:00:00.000Z');
+      const sha = createHash('sha256').update(readFileSync(S('run-104-clean-timehistory.csv'))).digest('hex');
+      expect(doc.provenance.inputs).toContainEqual({ role: 'run', name: 'run-104-clean-timehistory.csv', sha256: sha });
+      expect(doc.provenance.setup.model.chord_m).toBe(0.225);
+      expect(doc.provenance.factors.delta).toBe(doc.factors.delta);
+    } finally {
+      if (before === undefined) delete process.env['SOURCE_DATE_EPOCH'];
+      else process.env['SOURCE_DATE_EPOCH'] = before;
+    }
   });
 
   it('--no-corrections reports the measured values as the corrected ones and null factors', async () => {
