@@ -4,25 +4,12 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { main } from '../../app/cli/main.ts';
+import { runCli } from '../support/cli.ts';
 
 const ROOT = resolve(__dirname, '../..');
 const S = (p: string) => join(ROOT, 'sample-runs', p);
 
-class Sink {
-  text = '';
-  write(chunk: string) {
-    this.text += chunk;
-    return true;
-  }
-}
 
-async function run(...argv: string[]) {
-  const stdout = new Sink();
-  const stderr = new Sink();
-  const code = await main(argv, { stdout: stdout as never, stderr: stderr as never });
-  return { code, stdout: stdout.text, stderr: stderr.text };
-}
 
 function tmp(name: string, text: string | Buffer): string {
   const dir = mkdtempSync(join(tmpdir(), 'sweepbook-cli-'));
@@ -38,7 +25,7 @@ const FACTOR_KEYS = ['sigma', 'delta', 'tau1', 'tau2', 'solid_blockage_k'];
 
 describe('sweepbook reduce (command line, DESIGN §3.3)', () => {
   it('prints the contract JSON with every key, and only JSON on stdout', async () => {
-    const r = await run('reduce', S('run-101-clean.csv'), '--setup', S('setup-3d.json'), '--tare', S('windoff-tare.csv'), '--format', 'json');
+    const r = await runCli('reduce', S('run-101-clean.csv'), '--setup', S('setup-3d.json'), '--tare', S('windoff-tare.csv'), '--format', 'json');
     expect(r.code).toBe(0);
     const doc = JSON.parse(r.stdout);
     expect(doc.run.name).toBe('101');
@@ -55,7 +42,7 @@ describe('sweepbook reduce (command line, DESIGN §3.3)', () => {
 
   it('gives the run name from the file when there is no "# run:" line, and null configuration', async () => {
     const p = tmp('sweep-7.csv', 'alpha,dp_pitot,lift,drag\n0,500,10,1\n2,500,30,1.2\n');
-    const r = await run('reduce', p, '--setup', S('setup-3d.json'));
+    const r = await runCli('reduce', p, '--setup', S('setup-3d.json'));
     expect(r.code).toBe(0);
     const doc = JSON.parse(r.stdout);
     expect(doc.run.name).toBe('sweep-7');
@@ -65,7 +52,7 @@ describe('sweepbook reduce (command line, DESIGN §3.3)', () => {
 
   it('writes CSV with --format csv and to a file with --out', async () => {
     const out = join(mkdtempSync(join(tmpdir(), 'sweepbook-out-')), 'points.csv');
-    const r = await run('reduce', S('run-201-section.csv'), '--setup', S('setup-2d.json'), '--format', 'csv', '--out', out);
+    const r = await runCli('reduce', S('run-201-section.csv'), '--setup', S('setup-2d.json'), '--format', 'csv', '--out', out);
     expect(r.code).toBe(0);
     expect(r.stdout).toBe('');
     const all = readFileSync(out, 'utf8').trim().split('\n');
@@ -81,12 +68,12 @@ describe('sweepbook reduce (command line, DESIGN §3.3)', () => {
     process.env['SOURCE_DATE_EPOCH'] = '1764547200';
     try {
       const args = [S('run-104-clean-timehistory.csv'), '--setup', S('setup-3d.json'), '--tare', S('windoff-tare.csv')];
-      const a = await run('reduce', ...args);
-      const b = await run('reduce', ...args);
+      const a = await runCli('reduce', ...args);
+      const b = await runCli('reduce', ...args);
       expect(a.stdout.length).toBeGreaterThan(1000);
       expect(b.stdout).toBe(a.stdout);
-      const c = await run('reduce', ...args, '--format', 'csv');
-      const d = await run('reduce', ...args, '--format', 'csv');
+      const c = await runCli('reduce', ...args, '--format', 'csv');
+      const d = await runCli('reduce', ...args, '--format', 'csv');
       expect(d.stdout).toBe(c.stdout);
       const doc = JSON.parse(a.stdout);
       expect(doc.provenance.reduced_at).toBe('2025-12-01T00:00:00.000Z');
@@ -101,7 +88,7 @@ describe('sweepbook reduce (command line, DESIGN §3.3)', () => {
   });
 
   it('--no-corrections reports the measured values as the corrected ones and null factors', async () => {
-    const r = await run('reduce', S('run-101-clean.csv'), '--setup', S('setup-3d.json'), '--no-corrections');
+    const r = await runCli('reduce', S('run-101-clean.csv'), '--setup', S('setup-3d.json'), '--no-corrections');
     const doc = JSON.parse(r.stdout);
     expect(doc.points[3].cl).toBe(doc.points[3].cl_uncorrected);
     expect(doc.factors).toEqual({ sigma: null, delta: null, tau1: null, tau2: null, solid_blockage_k: null });
@@ -112,7 +99,7 @@ describe('sweepbook reduce (command line, DESIGN §3.3)', () => {
     ['an unknown unit', 'unit.csv', '# run: 1\nalpha,dp_pitot [bar2],lift,drag\n1,500,10,1\n', ['unit.csv:2:2', 'bar2']],
     ['an empty file', 'empty.csv', '', ['empty.csv', 'empty']],
   ])('refuses %s with file, line and column on stderr, exit 1, no stack trace', async (_what, name, text, parts) => {
-    const r = await run('reduce', tmp(name, text), '--setup', S('setup-3d.json'));
+    const r = await runCli('reduce', tmp(name, text), '--setup', S('setup-3d.json'));
     expect(r.code).toBe(1);
     expect(r.stdout).toBe('');
     for (const p of parts) expect(r.stderr).toContain(p);
@@ -120,7 +107,7 @@ describe('sweepbook reduce (command line, DESIGN §3.3)', () => {
   });
 
   it('refuses a binary file', async () => {
-    const r = await run('reduce', tmp('x.csv', Buffer.from([0x50, 0x4b, 0x03, 0x04, 0, 0, 0, 1, 2, 3])), '--setup', S('setup-3d.json'));
+    const r = await runCli('reduce', tmp('x.csv', Buffer.from([0x50, 0x4b, 0x03, 0x04, 0, 0, 0, 1, 2, 3])), '--setup', S('setup-3d.json'));
     expect(r.code).toBe(1);
     expect(r.stderr).toContain('binary');
   });
@@ -128,7 +115,7 @@ describe('sweepbook reduce (command line, DESIGN §3.3)', () => {
   it('refuses a malformed setup naming the field and what was expected', async () => {
     const bad = JSON.parse(readFileSync(S('setup-3d.json'), 'utf8'));
     bad.model.chord_m = -0.2;
-    const r = await run('reduce', S('run-101-clean.csv'), '--setup', tmp('setup.json', JSON.stringify(bad)));
+    const r = await runCli('reduce', S('run-101-clean.csv'), '--setup', tmp('setup.json', JSON.stringify(bad)));
     expect(r.code).toBe(1);
     expect(r.stderr).toContain('model.chord_m');
     expect(r.stderr).toContain('positive');
@@ -137,27 +124,27 @@ describe('sweepbook reduce (command line, DESIGN §3.3)', () => {
   it('refuses an unknown setup key, naming the nearest known one', async () => {
     const bad = JSON.parse(readFileSync(S('setup-3d.json'), 'utf8'));
     bad.tunnel.widht_m = 1.2;
-    const r = await run('reduce', S('run-101-clean.csv'), '--setup', tmp('setup.json', JSON.stringify(bad)));
+    const r = await runCli('reduce', S('run-101-clean.csv'), '--setup', tmp('setup.json', JSON.stringify(bad)));
     expect(r.code).toBe(1);
     expect(r.stderr).toContain('tunnel.widht_m');
     expect(r.stderr).toContain('did you mean "width_m"');
   });
 
   it('names the line and column of a JSON syntax error in the setup', async () => {
-    const r = await run('reduce', S('run-101-clean.csv'), '--setup', tmp('setup.json', '{\n  "model": {,\n}'));
+    const r = await runCli('reduce', S('run-101-clean.csv'), '--setup', tmp('setup.json', '{\n  "model": {,\n}'));
     expect(r.code).toBe(1);
     expect(r.stderr).toMatch(/setup\.json:2:\d+/);
   });
 
   it('names a file that does not exist', async () => {
-    const r = await run('reduce', '/nonexistent/run.csv', '--setup', S('setup-3d.json'));
+    const r = await runCli('reduce', '/nonexistent/run.csv', '--setup', S('setup-3d.json'));
     expect(r.code).toBe(1);
     expect(r.stderr).toContain('/nonexistent/run.csv: no such file');
   });
 
   it('reduces the good rows of a file with bad rows and names the bad lines in warnings', async () => {
     const p = tmp('bad-rows.csv', '# run: 9\nalpha,dp_pitot,lift,drag\n0,500,10,1\n2,oops,30,1.2\n4,500,50,1.5\n');
-    const r = await run('reduce', p, '--setup', S('setup-3d.json'), '--no-corrections');
+    const r = await runCli('reduce', p, '--setup', S('setup-3d.json'), '--no-corrections');
     expect(r.code).toBe(0);
     const doc = JSON.parse(r.stdout);
     expect(doc.points).toHaveLength(2);
@@ -166,9 +153,9 @@ describe('sweepbook reduce (command line, DESIGN §3.3)', () => {
   });
 
   it('answers a wrong command line with usage and exit 2', async () => {
-    expect((await run('reduce', S('run-101-clean.csv'))).code).toBe(2);
-    expect((await run('frobnicate')).code).toBe(2);
-    expect((await run('reduce', 'a.csv', '--setup', 's.json', '--format', 'xml')).stderr).toContain('--format must be json or csv');
+    expect((await runCli('reduce', S('run-101-clean.csv'))).code).toBe(2);
+    expect((await runCli('frobnicate')).code).toBe(2);
+    expect((await runCli('reduce', 'a.csv', '--setup', 's.json', '--format', 'xml')).stderr).toContain('--format must be json or csv');
   });
 
   it('runs as the installed command (bin/sweepbook.js) in a real process', () => {

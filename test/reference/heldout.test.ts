@@ -1,7 +1,7 @@
 import { existsSync, readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { main } from '../../app/cli/main.ts';
+import { runCli } from '../support/cli.ts';
 
 /**
  * Cases built by an independent Python implementation of the same published methods
@@ -11,24 +11,13 @@ import { main } from '../../app/cli/main.ts';
 const DIR = resolve(__dirname, '../fixtures/reference/cases');
 const index = JSON.parse(readFileSync(join(DIR, 'index.json'), 'utf8')) as Record<string, string>;
 
-class Sink {
-  text = '';
-  write(c: string) {
-    this.text += c;
-    return true;
-  }
-}
-
 async function reduceCase(name: string) {
   const dir = join(DIR, name);
   const args = JSON.parse(readFileSync(join(dir, 'args.json'), 'utf8')) as { tare: string | null; no_corrections: boolean };
   const argv = ['reduce', join(dir, 'run.csv'), '--setup', join(dir, 'setup.json'), '--format', 'json'];
   if (args.tare) argv.push('--tare', join(dir, args.tare));
   if (args.no_corrections) argv.push('--no-corrections');
-  const out = new Sink();
-  const err = new Sink();
-  const code = await main(argv, { stdout: out as never, stderr: err as never });
-  return { code, stdout: out.text, stderr: err.text };
+  return runCli(...argv);
 }
 
 type Num = number | null;

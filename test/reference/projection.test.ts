@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { densityAltitude, isaAtmosphere, moistAirDensity } from '../../core/air.ts';
 import { InputError } from '../../core/messages.ts';
 import { KNOT_MPS, projectStallSpeed } from '../../core/projection.ts';
-import { main } from '../../app/cli/main.ts';
+import { runCli } from '../support/cli.ts';
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 
@@ -75,22 +75,9 @@ describe('stall-speed projection', () => {
 
 describe('sweepbook project (command line)', () => {
   const S = (p: string) => join(resolve(__dirname, '../..'), 'sample-runs', p);
-  class Sink {
-    text = '';
-    write(c: string) {
-      this.text += c;
-      return true;
-    }
-  }
-  async function run(...argv: string[]) {
-    const out = new Sink();
-    const err = new Sink();
-    const code = await main(argv, { stdout: out as never, stderr: err as never });
-    return { code, stdout: out.text, stderr: err.text };
-  }
 
   it('prints the contract keys and the cautions, using the run fit CLmax', async () => {
-    const r = await run('project', S('run-103-flap20.csv'), '--setup', S('setup-3d.json'), '--tare', S('windoff-tare.csv'), '--mass-kg', '750', '--wing-area-m2', '12.5', '--pressure-altitude-m', '1500', '--temp-c', '30', '--rh-pct', '70');
+    const r = await runCli('project', S('run-103-flap20.csv'), '--setup', S('setup-3d.json'), '--tare', S('windoff-tare.csv'), '--mass-kg', '750', '--wing-area-m2', '12.5', '--pressure-altitude-m', '1500', '--temp-c', '30', '--rh-pct', '70');
     expect(r.code).toBe(0);
     const doc = JSON.parse(r.stdout);
     for (const k of ['rho_kgm3', 'density_altitude_m', 'cl_max', 'v_stall_mps', 'v_stall_kt', 'cautions']) expect(doc).toHaveProperty(k);
@@ -101,16 +88,16 @@ describe('sweepbook project (command line)', () => {
   });
 
   it('uses --cl-max as given', async () => {
-    const r = await run('project', S('run-101-clean.csv'), '--setup', S('setup-3d.json'), '--mass-kg', '600', '--wing-area-m2', '10', '--cl-max', '1.42');
+    const r = await runCli('project', S('run-101-clean.csv'), '--setup', S('setup-3d.json'), '--mass-kg', '600', '--wing-area-m2', '10', '--cl-max', '1.42');
     const doc = JSON.parse(r.stdout);
     expect(doc.cl_max).toBe(1.42);
     expect(doc.cl_max_source).toContain('given');
   });
 
   it('refuses missing or malformed options with usage (exit 2) and bad values naming the option (exit 1)', async () => {
-    expect((await run('project', S('run-101-clean.csv'), '--setup', S('setup-3d.json'), '--wing-area-m2', '10')).code).toBe(2);
-    expect((await run('project', S('run-101-clean.csv'), '--setup', S('setup-3d.json'), '--mass-kg', 'heavy', '--wing-area-m2', '10')).stderr).toContain('--mass-kg must be a number');
-    const neg = await run('project', S('run-101-clean.csv'), '--setup', S('setup-3d.json'), '--mass-kg=-3', '--wing-area-m2', '10');
+    expect((await runCli('project', S('run-101-clean.csv'), '--setup', S('setup-3d.json'), '--wing-area-m2', '10')).code).toBe(2);
+    expect((await runCli('project', S('run-101-clean.csv'), '--setup', S('setup-3d.json'), '--mass-kg', 'heavy', '--wing-area-m2', '10')).stderr).toContain('--mass-kg must be a number');
+    const neg = await runCli('project', S('run-101-clean.csv'), '--setup', S('setup-3d.json'), '--mass-kg=-3', '--wing-area-m2', '10');
     expect(neg.code).toBe(1);
     expect(neg.stderr).toContain('--mass-kg');
   });
