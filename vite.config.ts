@@ -11,6 +11,7 @@ export default defineConfig({
   test: {
     root: '.',
     include: ['test/**/*.test.ts'],
+    globalSetup: ['test/support/global-setup.ts'],
     environment: 'node',
     testTimeout: 30_000,
     hookTimeout: 120_000,
