@@ -224,6 +224,17 @@ export function fitPolar(input: FitInput): { fit: FitResult; warnings: string[] 
       }
     }
   }
+  // Extreme but finite inputs (CD = 5e-324, CL near 1e308) can overflow a fit's arithmetic; a value that
+  // is not a finite number cannot be determined, so it is null with a warning (fuzz finding).
+  const overflowed: string[] = [];
+  for (const key of Object.keys(fit) as (keyof FitResult)[]) {
+    const v = fit[key];
+    if ((typeof v === 'number' && !Number.isFinite(v)) || (Array.isArray(v) && !v.every(Number.isFinite))) {
+      (fit as unknown as Record<string, unknown>)[key] = null;
+      overflowed.push(key);
+    }
+  }
+  if (overflowed.length > 0) warnings.push(`${overflowed.join(', ')} could not be computed (the values overflow); not given`);
   return { fit, warnings };
 }
 

@@ -113,6 +113,15 @@ export function reduce(input: ReduceInput): ReductionResult {
   const tunnel: TunnelPoint[] = [];
   const rows: Omit<PointResult, 'alpha_deg' | 'q_pa' | 'v_mps' | 'mach' | 'reynolds' | 'cl' | 'cd' | 'cm' | 'cy' | 'c_roll' | 'c_yaw' | 'ld' | 'eps_solid' | 'eps_wake' | keyof PointUncertainty>[] = [];
   const scatter: number[] = [];
+  // The first point that could not be reduced and how many were skipped, so that a run where none
+  // reduces says why and where (its warnings are lost when the reduction stops; fuzz finding).
+  let firstSkip: Notice | undefined;
+  let skippedPoints = 0;
+  const skipPoint = (n: Notice) => {
+    notices.push(n);
+    firstSkip ??= n;
+    skippedPoints++;
+  };
   for (const pt of run.points) {
     const get: Getter = (ch) => {
       const i = idx.get(ch);
@@ -128,11 +137,12 @@ export function reduce(input: ReduceInput): ReductionResult {
     const T0 = get('t_total') ?? setup.ambient.t_c! + 273.15;
     const rh = get('rh') ?? setup.ambient.rh_pct! / 100;
     const dp = get('dp_pitot')!;
-    if (!(dp > 0) || !(p > 0) || !(T0 > 0) || !(rh >= 0)) {
-      notices.push({
+    // Number.isFinite(alpha): a point's mean overflows to ±Infinity or NaN when samples near ±1.8e308 are averaged (fuzz finding)
+    if (!(dp > 0) || !(p > 0) || !(T0 > 0) || !(rh >= 0) || !Number.isFinite(alpha)) {
+      skipPoint({
         file: run.file,
         line: pt.line,
-        message: `${where} skipped: ${!(dp > 0) ? `pitot impact pressure ${dp.toPrecision(4)} Pa is not positive (wind off?)` : !(p > 0) ? 'static pressure is not positive' : !(T0 > 0) ? 'temperature is below absolute zero' : 'relative humidity is negative'}`,
+        message: `${where} skipped: ${!Number.isFinite(alpha) ? 'the angle of attack is not a finite number' : !(dp > 0) ? `pitot impact pressure ${dp.toPrecision(4)} Pa is not positive (wind off?)` : !(p > 0) ? 'static pressure is not positive' : !(T0 > 0) ? 'temperature is below absolute zero' : 'relative humidity is negative'}`,
       });
       continue;
     }
@@ -159,6 +169,14 @@ export function reduce(input: ReduceInput): ReductionResult {
     const { flow, tunnel: u } = m;
     const clStd = axes === 'wind' ? sd('lift') : Math.hypot(sd('normal') * Math.cos(alpha), sd('axial') * Math.sin(alpha));
     const qS = flow.q * S;
+    // Readings far outside any tunnel's range (rh = 5e305 %, dp = 1e300 Pa or 1e-300 Pa, loads of 1e308 lbf, a
+    // tare of ±Infinity) give a flow state or coefficients that are not finite numbers: skip the point and
+    // say which quantity, instead of reporting NaN or Infinity (fuzz finding).
+    const broken = nonFiniteQuantity(m, clStd / qS, has);
+    if (broken) {
+      skipPoint({ file: run.file, line: pt.line, message: `${where} skipped: these readings give ${broken}; check the values and units` });
+      continue;
+    }
     pointInputs.push(inputs);
     pointSpread.push({ n: pt.n, sd });
     tunnel.push(u);
@@ -191,7 +209,14 @@ export function reduce(input: ReduceInput): ReductionResult {
       cl_scatter: scatter[scatter.length - 1]!,
     });
   }
-  if (tunnel.length === 0) throw new InputError({ file: run.file, message: 'no point could be reduced (see the warnings above)' });
+  if (tunnel.length === 0) {
+    // named by the first skipped point's line and reason, so the refusal says where (fuzz finding)
+    throw new InputError({
+      file: run.file,
+      line: firstSkip?.line ?? run.headerLine,
+      message: `no point could be reduced${firstSkip ? `: ${firstSkip.message}` : ''}${skippedPoints > 1 ? ` (and ${skippedPoints - 1} more points skipped)` : ''}`,
+    });
+  }
   if (!hasPitch) notices.push({ file: run.file, message: 'no "pitch" column: pitching-moment coefficients are not given' });
 
   // wall corrections
@@ -239,6 +264,23 @@ export function reduce(input: ReduceInput): ReductionResult {
     }
   }
 
+  // A point whose corrected values overflow (a blockage ε of 1e299 from CD = 1e300) is dropped and named,
+  // like a point whose readings are out of range (fuzz finding).
+  if (corrected) {
+    const keep = corrected.map((k, i) => {
+      const bad = nonFiniteCorrected(k, has);
+      if (bad) skipPoint({ file: run.file, line: rows[i]!.line, message: `point ${rows[i]!.point} (line ${rows[i]!.line}) skipped: the wall corrections give ${bad}; check the values and units` });
+      return !bad;
+    });
+    for (let i = keep.length - 1; i >= 0; i--) {
+      if (keep[i]) continue;
+      for (const list of [rows, tunnel, scatter, pointInputs, pointSpread, corrected] as unknown[][]) list.splice(i, 1);
+    }
+    if (rows.length === 0) {
+      throw new InputError({ file: run.file, line: firstSkip!.line, message: `no point could be reduced: ${firstSkip!.message}${skippedPoints > 1 ? ` (and ${skippedPoints - 1} more points skipped)` : ''}` });
+    }
+  }
+
   const spec = setup.uncertainty;
   const points: PointResult[] = rows.map((r, i) => {
     const k = corrected?.[i];
@@ -258,15 +300,16 @@ export function reduce(input: ReduceInput): ReductionResult {
       cy: k ? orNull(k.cy) : r.cy_uncorrected,
       c_roll: k ? orNull(k.cRoll) : r.c_roll_uncorrected,
       c_yaw: k ? orNull(k.cYaw) : r.c_yaw_uncorrected,
-      ld: cd !== 0 ? cl / cd : null,
+      ld: orNull(cl / cd), // null for cd = 0 and when the ratio overflows (cd = 5e-324; fuzz finding)
       eps_solid: k ? k.epsSolid : null,
       eps_wake: k ? k.epsWake : null,
-      u_q_pa: u?.u_q_pa ?? null,
-      u_v_mps: u?.u_v_mps ?? null,
-      u_alpha_deg: u?.u_alpha_deg ?? null,
-      u_cl: u?.u_cl ?? null,
-      u_cd: u?.u_cd ?? null,
-      u_cm: u?.u_cm ?? null,
+      // an uncertainty that overflows (model.area_m2 = 1e-300) cannot be determined: null, never Infinity (fuzz finding)
+      u_q_pa: orNull(u?.u_q_pa ?? Number.NaN),
+      u_v_mps: orNull(u?.u_v_mps ?? Number.NaN),
+      u_alpha_deg: orNull(u?.u_alpha_deg ?? Number.NaN),
+      u_cl: orNull(u?.u_cl ?? Number.NaN),
+      u_cd: orNull(u?.u_cd ?? Number.NaN),
+      u_cm: orNull(u?.u_cm ?? Number.NaN),
     };
   });
 
@@ -313,6 +356,32 @@ export function reduce(input: ReduceInput): ReductionResult {
 
 function orNull(x: number): number | null {
   return Number.isFinite(x) ? x : null;
+}
+
+/** The first corrected value that is not a finite number, described for a warning; undefined when all are. */
+function nonFiniteCorrected(k: CorrectedPoint, has: (ch: Channel) => boolean): string | undefined {
+  const always: [string, number][] = [['α', k.alphaDeg], ['CL', k.cl], ['CD', k.cd], ['q', k.q], ['V', k.V], ['Mach', k.mach], ['Re', k.Re], ['ε_solid', k.epsSolid], ['ε_wake', k.epsWake]];
+  for (const [name, v] of always) if (!Number.isFinite(v)) return `${name} = ${v}`;
+  const optional: [Channel, string, number][] = [['pitch', 'Cm', k.cm], ['side', 'CY', k.cy], ['roll', 'C_roll', k.cRoll], ['yaw', 'C_yaw', k.cYaw]];
+  for (const [ch, name, v] of optional) if (has(ch) && !Number.isFinite(v)) return `${name} = ${v}`;
+  return undefined;
+}
+
+/**
+ * The first quantity of a measured point that is not a finite number (or, for the flow state, not
+ * positive), described for a warning; undefined when all are. Moments and side force count only when
+ * measured (they are NaN without their column).
+ */
+function nonFiniteQuantity(m: ReturnType<typeof measure>, clScatter: number, has: (ch: Channel) => boolean): string | undefined {
+  const f = m.flow;
+  const positive: [string, number][] = [['q', f.q], ['ρ', f.rho], ['V', f.V], ['T', f.T], ['μ', f.mu], ['Re', f.Re]];
+  for (const [name, v] of positive) if (!(Number.isFinite(v) && v > 0)) return `${name} = ${v}`;
+  const t = m.tunnel;
+  const finite: [string, number][] = [['Mach', f.mach], ['CL', t.cl], ['CD', t.cd], ['CL scatter', clScatter], ['lift', m.lift], ['drag', m.drag]];
+  for (const [name, v] of finite) if (!Number.isFinite(v)) return `${name} = ${v}`;
+  const optional: [Channel, string, number][] = [['pitch', 'Cm', t.cm], ['side', 'CY', t.cy], ['roll', 'C_roll', t.cRoll], ['yaw', 'C_yaw', t.cYaw]];
+  for (const [ch, name, v] of optional) if (has(ch) && !Number.isFinite(v)) return `${name} = ${v}`;
+  return undefined;
 }
 
 /** True when α goes back on itself or repeats in file order. */

@@ -7,15 +7,26 @@ import { InputError, type Notice } from './messages.ts';
 
 const positive = (what: string) => z.number({ error: `expected a number (${what})` }).finite().positive({ error: `expected a positive number (${what})` });
 const finite = (what: string) => z.number({ error: `expected a number (${what})` }).finite();
+/**
+ * Geometry within a sanity range (common sense, no published source): no wind-tunnel model or test section
+ * is smaller than 0.1 mm or larger than 1 km, so lengths lie in [1e-4, 1e3] m, areas in [1e-8, 1e6] m² and
+ * volumes in [1e-12, 1e9] m³. A mistyped exponent (1e-300, 1e300) then gets a message naming the field
+ * instead of overflowing coefficients and uncertainties downstream (fuzz finding).
+ */
+const geometry = (what: string, unit: 'm' | 'm²' | 'm³') => {
+  const [lo, hi] = unit === 'm' ? [1e-4, 1e3] : unit === 'm²' ? [1e-8, 1e6] : [1e-12, 1e9];
+  const error = `expected ${lo} to ${hi} ${unit} (${what})`;
+  return positive(`${what}, ${unit}`).min(lo, { error }).max(hi, { error });
+};
 const optionalFactor = (what: string) => z.number({ error: `expected a number or null (${what})` }).finite().nullable().optional();
 
 const modelSchema = z.strictObject({
   kind: z.enum(['2d', '3d'], { error: 'expected "2d" (a wing spanning the tunnel) or "3d"' }),
   name: z.string().optional(),
-  area_m2: positive('reference area, m²').optional(),
-  chord_m: positive('reference chord, m'),
-  span_m: positive('span, m').optional(),
-  volume_m3: positive('model volume, m³').nullable().optional(),
+  area_m2: geometry('reference area', 'm²').optional(),
+  chord_m: geometry('reference chord', 'm'),
+  span_m: geometry('span', 'm').optional(),
+  volume_m3: geometry('model volume', 'm³').nullable().optional(),
   moment_ref_offset_m: z
     .strictObject({ x: finite('metres toward the nose'), z: finite('metres up') })
     .optional(),
@@ -25,8 +36,8 @@ const modelSchema = z.strictObject({
 const tunnelSchema = z.strictObject({
   name: z.string().optional(),
   section: z.literal('closed-rectangular', { error: 'expected "closed-rectangular" (the only section supported so far)' }),
-  width_m: positive('test-section width, m'),
-  height_m: positive('test-section height, m'),
+  width_m: geometry('test-section width', 'm'),
+  height_m: geometry('test-section height', 'm'),
 });
 
 const uncertaintySchema = z.strictObject({
@@ -111,10 +122,13 @@ export interface SetupResult {
 /** Parse and validate setup JSON text. Throws InputError naming the file and the field. */
 export function parseSetup(file: string, text: string): SetupResult {
   let json: unknown;
+  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
   try {
-    json = JSON.parse(text.charCodeAt(0) === 0xfeff ? text.slice(1) : text);
+    json = JSON.parse(body);
   } catch (err) {
-    const { line, column } = jsonErrorPlace(text, err);
+    // Located by our own scan of the text after the BOM: V8 names no position for some errors
+    // ("Unexpected end of JSON input", "Unexpected token 'x', ... is not valid JSON"), found by the fuzz tests.
+    const { line, column } = jsonErrorPlace(body, err);
     throw new InputError({ file, line, column, message: `not valid JSON (${(err as Error).message})` });
   }
   return validateSetup(file, json);
@@ -125,7 +139,7 @@ export function validateSetup(file: string, json: unknown): SetupResult {
   const parsed = setupSchema.safeParse(json);
   if (!parsed.success) {
     const issue = parsed.error.issues[0]!;
-    throw new InputError({ file, field: fieldPath(issue.path) || '(top level)', message: describeIssue(issue) });
+    throw new InputError({ file, field: fieldPath(issue.path) || '(top level)', message: describeIssue(issue, json) });
   }
   const s = parsed.data;
   const warnings: Notice[] = [];
@@ -208,15 +222,39 @@ function unwrap(schema: z.ZodType): z.ZodType {
   return s;
 }
 
-function describeIssue(issue: z.core.$ZodIssue): string {
+function describeIssue(issue: z.core.$ZodIssue, json: unknown): string {
   if (issue.code === 'unrecognized_keys') {
     const key = issue.keys[0]!;
     const near = nearest(key, knownKeys(issue.path));
     const where = fieldPath([...issue.path, key]);
     return `unknown key "${where}"${near ? `; did you mean "${near}"?` : ''}`;
   }
-  if (issue.code === 'invalid_type' && issue.input === undefined) return `missing; ${issue.message}`;
+  // zod 4 leaves `issue.input` out of its issues, so every wrong-typed value was called "missing"
+  // (fuzz finding: "chord_m": "0.2" read as missing); look the value up in the parsed JSON instead
+  if (issue.code === 'invalid_type') {
+    const found = valueAt(json, issue.path);
+    return found.present ? `${issue.message}, not ${describeValue(found.value)}` : `missing; ${issue.message}`;
+  }
   return issue.message;
+}
+
+/** The value at a path of the parsed JSON, if there is one (own properties only). */
+function valueAt(json: unknown, path: ReadonlyArray<PropertyKey>): { present: boolean; value?: unknown } {
+  let v = json;
+  for (const p of path) {
+    if (v === null || typeof v !== 'object' || !Object.prototype.hasOwnProperty.call(v, p)) return { present: false };
+    v = (v as Record<PropertyKey, unknown>)[p];
+  }
+  return { present: v !== undefined, value: v };
+}
+
+/** A short description of a JSON value for a message: `the text "0.2"`, `null`, `a list`. */
+function describeValue(v: unknown): string {
+  if (typeof v === 'string') return `the text ${JSON.stringify(v.length > 24 ? `${v.slice(0, 24)}…` : v)}`;
+  if (v === null) return 'null';
+  if (Array.isArray(v)) return 'a list';
+  if (typeof v === 'object') return 'an object';
+  return String(v);
 }
 
 /** The known key closest to `key` by edit distance, if it is close enough to be a likely typo. */
@@ -248,13 +286,119 @@ function editDistance(a: string, b: string): number {
   return prev[b.length]!;
 }
 
-/** Line and column of a JSON.parse error, from V8's "at position N" when it gives one. */
-function jsonErrorPlace(text: string, err: unknown): { line?: number; column?: number } {
-  const m = /position (\d+)/.exec(String((err as Error)?.message));
-  if (!m) return {};
-  const pos = Number(m[1]);
+/** Line and column (1-based) of a JSON syntax error: where {@link jsonErrorOffset} stops, else V8's "at position N". */
+function jsonErrorPlace(text: string, err: unknown): { line: number; column: number } {
+  let pos = jsonErrorOffset(text);
+  if (pos === undefined) {
+    const m = /position (\d+)/.exec(String((err as Error)?.message));
+    pos = m ? Math.min(Number(m[1]), text.length) : 0;
+  }
   const before = text.slice(0, pos);
   const line = before.split('\n').length;
   const column = pos - before.lastIndexOf('\n');
   return { line, column };
+}
+
+/**
+ * Offset of the first character at which `text` stops being JSON (RFC 8259 grammar), or undefined when
+ * it is valid. A loop with an explicit stack, so deeply nested junk cannot overflow the call stack.
+ */
+export function jsonErrorOffset(text: string): number | undefined {
+  const n = text.length;
+  let i = 0;
+  const stack: number[] = []; // 123 "{" or 91 "["
+  const ws = () => {
+    while (i < n) {
+      const c = text.charCodeAt(i);
+      if (c !== 32 && c !== 9 && c !== 10 && c !== 13) break;
+      i++;
+    }
+  };
+  const digits = () => {
+    const from = i;
+    while (i < n && text.charCodeAt(i) >= 48 && text.charCodeAt(i) <= 57) i++;
+    return i > from;
+  };
+  /** Scan a string starting at its opening quote; false leaves i at the offending character. */
+  const string = (): boolean => {
+    i++;
+    while (i < n) {
+      const c = text.charCodeAt(i);
+      if (c === 34) {
+        i++;
+        return true;
+      }
+      if (c < 32) return false;
+      if (c === 92) {
+        const e = text[i + 1];
+        if (e === 'u') {
+          if (!/^[0-9a-fA-F]{4}$/.test(text.slice(i + 2, i + 6))) return (i += 2), false;
+          i += 6;
+        } else if (e !== undefined && '"\\/bfnrt'.includes(e)) i += 2;
+        else return (i += 1), false;
+      } else i++;
+    }
+    return false;
+  };
+  const number = (): boolean => {
+    if (text[i] === '-') i++;
+    if (text[i] === '0') i++;
+    else if (!digits()) return false;
+    if (text[i] === '.') {
+      i++;
+      if (!digits()) return false;
+    }
+    if (text[i] === 'e' || text[i] === 'E') {
+      i++;
+      if (text[i] === '+' || text[i] === '-') i++;
+      if (!digits()) return false;
+    }
+    return true;
+  };
+  let state: 'value' | 'key' | 'after' = 'value';
+  for (;;) {
+    ws();
+    if (state === 'value') {
+      const c = text[i];
+      if (c === '{' || c === '[') {
+        stack.push(c.charCodeAt(0));
+        i++;
+        ws();
+        if (text[i] === (c === '{' ? '}' : ']')) {
+          stack.pop();
+          i++;
+          state = 'after';
+        } else state = c === '{' ? 'key' : 'value';
+      } else if (c === '"') {
+        if (!string()) return i;
+        state = 'after';
+      } else if (c === '-' || (c !== undefined && c >= '0' && c <= '9')) {
+        if (!number()) return i;
+        state = 'after';
+      } else {
+        const word = ['true', 'false', 'null'].find((w) => w[0] === c);
+        if (!word) return i;
+        for (let k = 0; k < word.length; k++, i++) if (text[i] !== word[k]) return i;
+        state = 'after';
+      }
+    } else if (state === 'key') {
+      if (text[i] !== '"' || !string()) return i;
+      ws();
+      if (text[i] !== ':') return i;
+      i++;
+      state = 'value';
+    } else {
+      const top = stack[stack.length - 1];
+      if (top === undefined) return i < n ? i : undefined;
+      const c = text[i];
+      if (c === ',') {
+        i++;
+        state = top === 123 ? 'key' : 'value';
+        if (top === 123) ws();
+      } else if (c === (top === 123 ? '}' : ']')) {
+        stack.pop();
+        i++;
+      } else return i;
+    }
+  }
 }

@@ -26,10 +26,11 @@ export interface TareValue {
 /** Build the interpolation table from a read tare file, for the given balance load channels. */
 export function buildTare(tare: RunData, loadChannels: readonly Channel[]): TareTable {
   const ai = tare.channels.indexOf('alpha');
-  if (ai < 0) throw new InputError({ file: tare.file, message: 'the tare file needs an "alpha" column' });
+  // both refusals name the tare's header line, where the missing column belongs (fuzz finding: they named no line)
+  if (ai < 0) throw new InputError({ file: tare.file, line: tare.headerLine, message: 'the tare file needs an "alpha" column' });
   const present = loadChannels.filter((c) => tare.channels.includes(c));
   if (present.length === 0) {
-    throw new InputError({ file: tare.file, message: `the tare file has none of the balance's load columns (${loadChannels.join(', ')})` });
+    throw new InputError({ file: tare.file, line: tare.headerLine, message: `the tare file has none of the balance's load columns (${loadChannels.join(', ')})` });
   }
   const order = tare.points.map((p, i) => ({ a: p.mean[ai]!, i })).sort((x, y) => x.a - y.a);
   // average points that share an alpha, so the table is strictly increasing

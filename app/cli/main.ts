@@ -6,9 +6,9 @@
  */
 import { createHash, type Hash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
-import { basename } from 'node:path';
+import { basename, resolve } from 'node:path';
 import { StringDecoder } from 'node:string_decoder';
-import { readFile } from 'node:fs/promises';
+import { readFile, stat } from 'node:fs/promises';
 import { parseArgs } from 'node:util';
 import { pointsCsv, readRun, readSetup, reduceRun } from '../../core/engine.ts';
 import { attempt, formatNotice, InputError, type Notice } from '../../core/messages.ts';
@@ -68,6 +68,14 @@ async function reduceCommand(args: string[], io: { stdout: NodeJS.WritableStream
   if (!values.setup) throw new UsageError('reduce needs --setup SETUP.json');
   const format = values.format;
   if (format !== 'json' && format !== 'csv') throw new UsageError(`--format must be json or csv, not "${format}"`);
+  // Raw files are never written (DESIGN §5): `--out RUN.csv` would have replaced the run with its own table.
+  if (values.out) {
+    for (const input of [positionals[0]!, values.setup, values.tare]) {
+      if (input !== undefined && (await sameFile(values.out, input))) {
+        throw new UsageError(`--out ${values.out} is one of the input files; raw run and setup files are never overwritten, choose another name`);
+      }
+    }
+  }
   const loaded = await loadAndReduce(positionals[0]!, values.setup, values.tare, values['no-corrections'], say);
   if (typeof loaded === 'number') return loaded;
   const { result, provenance } = loaded;
@@ -202,6 +210,17 @@ async function* textStream(path: string, hash?: Hash): AsyncGenerator<string> {
     if (rest.length > 0) yield rest;
   } catch (err) {
     throw fileError(path, err);
+  }
+}
+
+/** Same file: the same path, or another name (hard or symbolic link) for the same file. */
+async function sameFile(a: string, b: string): Promise<boolean> {
+  if (resolve(a) === resolve(b)) return true;
+  try {
+    const [x, y] = await Promise.all([stat(a), stat(b)]);
+    return x.ino !== 0 && x.dev === y.dev && x.ino === y.ino;
+  } catch {
+    return false; // one of them does not exist yet: not the same file
   }
 }
 
