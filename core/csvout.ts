@@ -18,7 +18,8 @@ export function csvCell(value: Cell): string {
   if (typeof value === 'number') return Number.isFinite(value) ? String(value) : '';
   if (typeof value === 'boolean') return value ? 'true' : 'false';
   const text = escapeFormula(value);
-  return /[",\n\r]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
+  // a leading # is quoted so comment-aware readers (pandas comment='#', our own reader) keep the row
+  return /[",\n\r]/.test(text) || text.startsWith('#') ? `"${text.replace(/"/g, '""')}"` : text;
 }
 
 export function csvLine(cells: readonly Cell[]): string {

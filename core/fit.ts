@@ -95,6 +95,7 @@ export interface LinearRange {
 export function findLinearRange(alpha: number[], cl: number[], scatter: number[]): LinearRange | undefined {
   const n = alpha.length;
   if (n < MIN_LINEAR_POINTS) return undefined;
+  if (n > MAX_SEARCH_POINTS) return findLinearRangeDecimated(alpha, cl, scatter);
   const tolerance = Math.max(MIN_LINEAR_TOLERANCE, 3 * median(scatter));
   let best = 0;
   let bestMean = Infinity;
@@ -123,6 +124,27 @@ export function findLinearRange(alpha: number[], cl: number[], scatter: number[]
   }
   if (to - from < MIN_LINEAR_POINTS) return undefined;
   return { from, to, line, tolerance };
+}
+
+/**
+ * The growth rule costs O(n²); above this many points (a continuous sweep, or samples without a point
+ * column) the range is searched on every k-th point and then applied to all points in its α span.
+ */
+export const MAX_SEARCH_POINTS = 2000;
+
+function findLinearRangeDecimated(alpha: number[], cl: number[], scatter: number[]): LinearRange | undefined {
+  const n = alpha.length;
+  const step = Math.ceil(n / MAX_SEARCH_POINTS);
+  const pick = <T>(v: T[]) => v.filter((_, i) => i % step === 0);
+  const sub = findLinearRange(pick(alpha), pick(cl), pick(scatter));
+  if (!sub) return undefined;
+  const lo = alpha[sub.from * step]!;
+  const hi = alpha[(sub.to - 1) * step]!;
+  let from = sub.from * step;
+  while (from > 0 && alpha[from - 1]! >= lo) from--;
+  let to = (sub.to - 1) * step + 1;
+  while (to < n && alpha[to]! <= hi) to++;
+  return { from, to, line: fitLine(alpha, cl, from, to), tolerance: sub.tolerance };
 }
 
 /** All fits of one run; points must be sorted by α. */

@@ -83,6 +83,9 @@ export interface ReduceInput {
   noCorrections?: boolean;
 }
 
+/** Upper Mach number of "low-speed" testing, where incompressible wall corrections hold (common practice). */
+export const LOW_SPEED_MACH = 0.3;
+
 /** Mean of a channel at point i, or undefined when the file has no such column. */
 type Getter = (ch: Channel) => number | undefined;
 
@@ -172,6 +175,11 @@ export function reduce(input: ReduceInput): ReductionResult {
     // Readings far outside any tunnel's range (rh = 5e305 %, dp = 1e300 Pa or 1e-300 Pa, loads of 1e308 lbf, a
     // tare of ±Infinity) give a flow state or coefficients that are not finite numbers: skip the point and
     // say which quantity, instead of reporting NaN or Infinity (fuzz finding).
+    if (flow.mach >= 1) {
+      // the subsonic pitot relation has no meaning here; usually a unit slip (kPa read as Pa)
+      skipPoint({ file: run.file, line: pt.line, message: `${where} skipped: the pitot readings give Mach ${flow.mach.toFixed(2)}, and the subsonic pitot relation does not hold at Mach 1 and above; check the unit of dp_pitot` });
+      continue;
+    }
     const broken = nonFiniteQuantity(m, clStd / qS, has);
     if (broken) {
       skipPoint({ file: run.file, line: pt.line, message: `${where} skipped: these readings give ${broken}; check the values and units` });
@@ -218,6 +226,10 @@ export function reduce(input: ReduceInput): ReductionResult {
     });
   }
   if (!hasPitch) notices.push({ file: run.file, message: 'no "pitch" column: pitching-moment coefficients are not given' });
+  const maxMach = Math.max(...tunnel.map((t) => t.mach));
+  if (maxMach > LOW_SPEED_MACH) {
+    notices.push({ file: run.file, message: `Mach number up to ${maxMach.toFixed(2)}: above about ${LOW_SPEED_MACH} compressibility matters, and the wall corrections used here are the incompressible ones` });
+  }
 
   // wall corrections
   const enabled = setup.corrections.enabled && !input.noCorrections;

@@ -109,3 +109,16 @@ describe('lift-curve fits', () => {
     expect(noisy.to - noisy.from).toBe(7);
   });
 });
+
+describe('linear range on very many points', () => {
+  it('finds the range of a 20,000-point continuous sweep (searched on every k-th point) with the slope of the data', () => {
+    const n = 20000;
+    const a = Array.from({ length: n }, (_, i) => -6 + (22 * i) / n);
+    const cl = a.map((x) => 0.07 * (x + 2) - (x > 10 ? 0.01 * (x - 10) ** 2 : 0));
+    const range = findLinearRange(a, cl, a.map(() => 0))!;
+    expect(range.line.slope).toBeCloseTo(0.07, 6);
+    expect(a[range.from]).toBe(-6);
+    expect(a[range.to - 1]!).toBeGreaterThan(10);
+    expect(a[range.to - 1]!).toBeLessThan(12);
+  });
+});

@@ -32,3 +32,9 @@ describe('CSV export cells', () => {
     expect(toCsv(['configuration', 'cl'], [['=cmd|x', 0.5], ['clean', -0.1]])).toBe("configuration,cl\n'=cmd|x,0.5\nclean,-0.1\n");
   });
 });
+
+describe('CSV export of labels starting with #', () => {
+  it('quotes them so comment-aware readers keep the row', () => {
+    expect(csvCell('#3')).toBe('"#3"');
+  });
+});

@@ -107,3 +107,14 @@ describe('round trip: known coefficients → readings → reduction', () => {
     expect(w[0]).toContain('rt.csv:3');
   });
 });
+
+describe('speed range', () => {
+  it('skips a point whose readings give Mach 1 or more (a unit slip), naming it, and warns above Mach 0.3', () => {
+    const s = setup('wind');
+    const text = '# run: fast\nalpha,dp_pitot [kPa],p_static [kPa],t_total,rh,lift,drag\n0,8,98,20,50,100,5\n2,9,98,20,50,300,6\n4,120,98,20,50,500,7\n';
+    const r = reduce({ run: readRunText('fast.csv', text), setup: s.setup });
+    expect(r.points).toHaveLength(2);
+    expect(r.warnings.join('\n')).toMatch(/fast\.csv:5: point 5 \(line 5\) skipped: the pitot readings give Mach 1\.\d\d/);
+    expect(r.warnings.join('\n')).toMatch(/Mach number up to 0\.3\d/);
+  });
+});
