@@ -116,7 +116,7 @@ describe('linear range on very many points', () => {
     const a = Array.from({ length: n }, (_, i) => -6 + (22 * i) / n);
     const cl = a.map((x) => 0.07 * (x + 2) - (x > 10 ? 0.01 * (x - 10) ** 2 : 0));
     const range = findLinearRange(a, cl, a.map(() => 0))!;
-    expect(range.line.slope).toBeCloseTo(0.07, 6);
+    expect(Math.abs(range.line.slope / 0.07 - 1)).toBeLessThan(2e-3); // the range ends where the bend exceeds the 0.01 tolerance
     expect(a[range.from]).toBe(-6);
     expect(a[range.to - 1]!).toBeGreaterThan(10);
     expect(a[range.to - 1]!).toBeLessThan(12);
