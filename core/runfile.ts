@@ -1,9 +1,15 @@
 /**
  * Streaming reader for run files (data contract v1, DESIGN §3.1).
  *
- * Text arrives in chunks of any size (`push`), complete lines are handed to papaparse block by
- * block, and each row is folded straight into its point's running statistics, so memory grows with
- * the number of points, never with the number of samples. Values are converted to SI as they are read.
+ * Text arrives in chunks of any size (`push`), complete lines are read block by block, and each row
+ * is folded straight into its point's running statistics, so memory grows with the number of points,
+ * never with the number of samples. Values are converted to SI as they are read.
+ *
+ * papaparse is the CSV parser of record: it reads the header and every block that holds a quote.
+ * A block without quotes (nearly every block of an acquisition system's file) can only split at line
+ * breaks and delimiters, and is read by a loop that converts each number where it lies in the text,
+ * with no string or array per row; see `plainBlock`. Both paths give the same rows, values and messages
+ * (test/unit/streaming.test.ts), and `npm run bench` shows what the second one is worth.
  */
 import Papa from 'papaparse';
 import { CHANNELS, POINT_COLUMN, defaultConversion, isChannel, type Channel } from './channels.ts';
@@ -93,6 +99,13 @@ export class RunFileReader {
   private skipped = 0;
   private read = 0;
   private values: Float64Array = new Float64Array(0);
+  // quote-free fast path: what each field of a line is for, and the bound columns' unit factors
+  private fieldSlot: Int32Array = new Int32Array(0);
+  private scale: Float64Array = new Float64Array(0);
+  private offset: Float64Array = new Float64Array(0);
+  // the last point key, and the text it was trimmed from, so a run of samples of one point costs no new string
+  private lastKeyRaw: string | undefined;
+  private lastKey = '';
 
   constructor(file: string, options: { limits?: Partial<ReaderLimits>; mapping?: ColumnMapping } = {}) {
     this.file = file;
@@ -107,7 +120,40 @@ export class RunFileReader {
       if (chunk.charCodeAt(0) === 0xfeff) chunk = chunk.slice(1);
       this.rejectBinary(chunk);
     }
-    let text = this.carry + chunk;
+    if (chunk.length === 0) return;
+    // Common case, no quotes anywhere: read the chunk where it lies. Only the line it completes is
+    // joined to the carried text, so the big chunk is never copied into a concatenation.
+    if (chunk.indexOf('"') < 0 && this.carry.indexOf('"') < 0) {
+      let from = 0;
+      if (this.carry.length > 0) {
+        const nl = firstLineBreak(chunk);
+        if (nl < 0) {
+          this.carry += chunk;
+          if (this.carry.length > this.limits.maxLineChars) this.tooLong();
+          return;
+        }
+        if (nl === chunk.length - 1 && chunk.charCodeAt(nl) === 13) {
+          // a CR ending the chunk may be half of a CRLF: wait for the next chunk
+          this.carry += chunk;
+          if (this.carry.length > this.limits.maxLineChars) this.tooLong();
+          return;
+        }
+        from = nl + (chunk.charCodeAt(nl) === 13 && chunk.charCodeAt(nl + 1) === 10 ? 2 : 1);
+        const head = this.carry + chunk.slice(0, from);
+        this.carry = '';
+        this.consume(head, 0, head.length, false);
+      }
+      const lastNl = lastLineBreak(chunk);
+      if (lastNl < from) {
+        this.carry = chunk.slice(from);
+      } else {
+        this.consume(chunk, from, lastNl + 1, true);
+        this.carry = lastNl + 1 < chunk.length ? chunk.slice(lastNl + 1) : '';
+      }
+      if (this.carry.length > this.limits.maxLineChars) this.tooLong();
+      return;
+    }
+    const text = this.carry + chunk;
     const lastNl = lastLineBreak(text);
     if (lastNl < 0) {
       this.carry = text;
@@ -115,18 +161,17 @@ export class RunFileReader {
       return;
     }
     this.carry = text.slice(lastNl + 1);
-    text = text.slice(0, lastNl + 1);
+    this.consume(text, 0, lastNl + 1, false);
     if (this.carry.length > this.limits.maxLineChars) this.tooLong();
-    this.consume(text);
   }
 
   /** End of file: read what is left and return the points. Throws InputError on a file that cannot be reduced. */
   finish(): RunData {
     if (!this.started) this.fail({ message: 'the file is empty' });
     if (this.carry.length > 0) {
-      const rest = this.carry;
+      const rest = this.carry + '\n';
       this.carry = '';
-      this.consume(rest + '\n');
+      this.consume(rest, 0, rest.length, false);
     }
     if (this.phase === 'preamble') this.fail({ message: 'no header line found (the file is empty or holds only comments)' });
     const acc = this.accumulator();
@@ -175,18 +220,27 @@ export class RunFileReader {
     }
   }
 
-  private consume(text: string): void {
-    if (text.indexOf('\r') >= 0) text = text.replace(/\r\n?/g, '\n');
-    let pos = 0;
-    while (this.phase === 'preamble' && pos < text.length) {
-      const nl = text.indexOf('\n', pos);
-      const end = nl < 0 ? text.length : nl;
+  /**
+   * Complete lines text[from, to) (`to` just past a line break): preamble lines one by one, then the
+   * data. `direct`: text is a chunk as the source gave it, worth the quote-free loop; joined pieces
+   * (a carried line and its end, the file's last line) are split line by line instead, which keeps
+   * the loop's code specialised to one kind of string.
+   */
+  private consume(text: string, from: number, to: number, direct: boolean): void {
+    let pos = from;
+    while (this.phase === 'preamble' && pos < to) {
+      let end = pos;
+      for (let c = text.charCodeAt(end); c !== 10 && c !== 13; c = text.charCodeAt(++end));
       const raw = text.slice(pos, end);
-      pos = end + 1;
+      pos = end + (text.charCodeAt(end) === 13 && text.charCodeAt(end + 1) === 10 ? 2 : 1);
       this.line++;
       this.preambleLine(raw);
     }
-    if (this.phase === 'data' && pos < text.length) this.dataBlock(pos === 0 ? text : text.slice(pos));
+    if (this.phase !== 'data' || pos >= to) return;
+    const quote = text.indexOf('"', pos);
+    if (quote >= 0 && quote < to) this.quotedBlock(text.slice(pos, to));
+    else if (direct) this.plainBlock(text, pos, to);
+    else this.splitLines(text, pos, to);
   }
 
   private preambleLine(raw: string): void {
@@ -253,6 +307,11 @@ export class RunFileReader {
     this.bound = bound;
     this.channels = bound.map((b) => b.channel);
     this.values = new Float64Array(bound.length);
+    this.fieldSlot = new Int32Array(cells.length).fill(UNUSED_FIELD);
+    if (this.pointIndex >= 0) this.fieldSlot[this.pointIndex] = POINT_FIELD;
+    for (const b of bound) this.fieldSlot[b.index] = b.slot;
+    this.scale = Float64Array.from(bound, (b) => b.conv.scale);
+    this.offset = Float64Array.from(bound, (b) => b.conv.offset);
     this.acc = new PointAccumulator(this.channels.length);
     this.phase = 'data';
   }
@@ -262,57 +321,176 @@ export class RunFileReader {
     return this.acc;
   }
 
-  private dataBlock(text: string): void {
-    const hasQuotes = text.indexOf('"') >= 0;
-    const parsed = Papa.parse<string[]>(text, {
-      delimiter: this.delimiter,
-      newline: '\n',
-      fastMode: !hasQuotes,
-      skipEmptyLines: false,
-    });
+  /** A block holding quotes: papaparse, the CSV parser of record, splits it (quoted fields may hold delimiters and line breaks). */
+  private quotedBlock(text: string): void {
+    if (text.indexOf('\r') >= 0) text = text.replace(/\r\n?/g, '\n');
+    const parsed = Papa.parse<string[]>(text, { delimiter: this.delimiter, newline: '\n', skipEmptyLines: false });
     const rows = parsed.data;
     // papaparse returns one trailing empty row for the final newline
     const count = rows.length > 0 && text.endsWith('\n') && isBlankRow(rows[rows.length - 1]!) ? rows.length - 1 : rows.length;
-    const acc = this.accumulator();
-    const bound = this.bound;
-    const values = this.values;
-    const decimalComma = this.decimalComma;
-    const pointIndex = this.pointIndex;
     for (let r = 0; r < count; r++) {
       const row = rows[r]!;
       const lineNo = ++this.line;
-      if (hasQuotes) this.line += countQuotedBreaks(row);
-      if (row.length === 1 && row[0]!.trim() === '') continue;
-      const first = row[0]!;
-      if (first.length > 0 && first.charCodeAt(0) === 35 /* # */) continue;
-      if (row.length < this.headerWidth) {
-        this.skip(lineNo, undefined, `${row.length} of ${this.headerWidth} fields (a truncated or malformed row)`);
-        continue;
-      }
-      let ok = true;
-      for (let b = 0; b < bound.length; b++) {
-        const col = bound[b]!;
-        const cell = row[col.index]!;
-        const v = parseCell(cell, decimalComma);
-        if (!Number.isFinite(v)) {
-          this.skip(lineNo, col.index + 1, `"${clip(cell)}" in column "${col.channel}" is not a finite number`);
-          ok = false;
-          break;
+      this.line += countQuotedBreaks(row);
+      this.takeRow(row, lineNo);
+    }
+  }
+
+  /**
+   * A block without quotes, text[from, to): every line is split at the delimiter and its numbers are
+   * converted where they lie, with no string made per cell or row. This is the same split papaparse
+   * makes of quote-free text (fast mode: lines at line breaks, fields at the delimiter). Any line that
+   * is not a plain row of numbers (too few or many fields, a comment, a cell that is not a finite
+   * number) is cut out and goes through `takeRow`, the one place that decides what a row means.
+   */
+  private plainBlock(text: string, from: number, to: number): void {
+    const width = this.headerWidth;
+    const slots = this.fieldSlot;
+    const values = this.values;
+    const scale = this.scale;
+    const offset = this.offset;
+    const delim = this.delimiter.charCodeAt(0);
+    const decimalComma = this.decimalComma;
+    const acc = this.accumulator();
+    const hasPoint = this.pointIndex >= 0;
+    const maxPoints = this.limits.maxPoints;
+    let pos = from;
+    while (pos < to) {
+      const lineStart = pos;
+      const lineNo = ++this.line;
+      let plain = width > 1 && text.charCodeAt(pos) !== 35; /* # */
+      let field = 0;
+      let keyStart = -1;
+      let keyEnd = -1;
+      let c = text.charCodeAt(pos);
+      while (plain) {
+        const slot = field < width ? slots[field]! : UNUSED_FIELD;
+        const start = pos;
+        if (slot >= 0) {
+          // a number where it lies: [+-]digits[.digits], at most 15 digits in all, is exactly
+          // mantissa / 10^decimals, one correctly rounded division of two exact doubles, so the same
+          // double as Number(cell) (Clinger, PLDI 1990, the "fast path"); any other cell is converted
+          // from its text by parseCell, as on the papaparse path
+          c = text.charCodeAt(pos);
+          let negative = false;
+          if (c === 45 || c === 43) {
+            negative = c === 45;
+            c = text.charCodeAt(++pos);
+          }
+          const digitsStart = pos;
+          let mantissa = 0;
+          while (c >= 48 && c <= 57) {
+            mantissa = mantissa * 10 + (c - 48);
+            c = text.charCodeAt(++pos);
+          }
+          let digits = pos - digitsStart;
+          let decimals = 0;
+          if (c === 46 || (c === 44 && decimalComma)) {
+            const fractionStart = ++pos;
+            c = text.charCodeAt(pos);
+            while (c >= 48 && c <= 57) {
+              mantissa = mantissa * 10 + (c - 48);
+              c = text.charCodeAt(++pos);
+            }
+            decimals = pos - fractionStart;
+            digits += decimals;
+          }
+          let v: number;
+          if (digits > 0 && digits <= 15 && (c === delim || c === 10 || c === 13)) {
+            v = decimals === 0 ? mantissa : mantissa / POW10[decimals]!;
+            if (negative) v = -v;
+          } else {
+            while (c !== delim && c !== 10 && c !== 13) c = text.charCodeAt(++pos);
+            v = parseCell(text.slice(start, pos), decimalComma);
+            if (!Number.isFinite(v)) {
+              plain = false;
+              break;
+            }
+          }
+          values[slot] = v * scale[slot]! + offset[slot]!;
+        } else {
+          c = text.charCodeAt(pos);
+          while (c !== delim && c !== 10 && c !== 13) c = text.charCodeAt(++pos);
+          if (slot === POINT_FIELD) {
+            keyStart = start;
+            keyEnd = pos;
+          } else if (field >= width && pos > start) {
+            plain = false; // a filled cell beyond the header's columns
+            break;
+          }
         }
-        values[b] = v * col.conv.scale + col.conv.offset;
+        field++;
+        if (c !== delim) break;
+        pos++;
       }
-      if (!ok) continue;
-      if (row.length > this.headerWidth && !extraCellsEmpty(row, this.headerWidth)) {
-        this.skip(lineNo, this.headerWidth + 1, `${row.length} fields where the header has ${this.headerWidth}`);
+      if (field < width) plain = false;
+      // find the line's end (already there unless the line left the plain path early)
+      while (c !== 10 && c !== 13) c = text.charCodeAt(++pos);
+      const lineEnd = pos;
+      pos += c === 13 && text.charCodeAt(pos + 1) === 10 ? 2 : 1;
+      if (!plain) {
+        this.takeRow(text.slice(lineStart, lineEnd).split(this.delimiter), lineNo);
         continue;
       }
-      const key = pointIndex >= 0 ? row[pointIndex]!.trim() : String(lineNo);
+      let key: string;
+      if (!hasPoint) key = String(lineNo);
+      else if (this.lastKeyRaw !== undefined && sameText(text, keyStart, keyEnd, this.lastKeyRaw)) key = this.lastKey;
+      else {
+        this.lastKeyRaw = text.slice(keyStart, keyEnd);
+        key = this.lastKey = this.lastKeyRaw.trim();
+      }
       acc.add(key, lineNo, values);
-      if (acc.size > this.limits.maxPoints) {
-        this.fail({ line: lineNo, message: `more than ${this.limits.maxPoints} distinct points; is the "point" column a sample counter?` });
+      if (acc.size > maxPoints) {
+        this.fail({ line: lineNo, message: `more than ${maxPoints} distinct points; is the "point" column a sample counter?` });
       }
       this.read++;
     }
+  }
+
+  /** Quote-free lines split one by one, as papaparse's fast mode splits them (for a few joined lines). */
+  private splitLines(text: string, from: number, to: number): void {
+    let pos = from;
+    while (pos < to) {
+      let end = pos;
+      for (let c = text.charCodeAt(end); c !== 10 && c !== 13; c = text.charCodeAt(++end));
+      const lineNo = ++this.line;
+      this.takeRow(text.slice(pos, end).split(this.delimiter), lineNo);
+      pos = end + (text.charCodeAt(end) === 13 && text.charCodeAt(end + 1) === 10 ? 2 : 1);
+    }
+  }
+
+  /** One row, split into cells: skipped with a warning, or folded into its point. */
+  private takeRow(row: string[], lineNo: number): void {
+    if (row.length === 1 && row[0]!.trim() === '') return;
+    const first = row[0]!;
+    if (first.length > 0 && first.charCodeAt(0) === 35 /* # */) return;
+    if (row.length < this.headerWidth) {
+      this.skip(lineNo, undefined, `${row.length} of ${this.headerWidth} fields (a truncated or malformed row)`);
+      return;
+    }
+    const bound = this.bound;
+    const values = this.values;
+    for (let b = 0; b < bound.length; b++) {
+      const col = bound[b]!;
+      const cell = row[col.index]!;
+      const v = parseCell(cell, this.decimalComma);
+      if (!Number.isFinite(v)) {
+        this.skip(lineNo, col.index + 1, `"${clip(cell)}" in column "${col.channel}" is not a finite number`);
+        return;
+      }
+      values[b] = v * col.conv.scale + col.conv.offset;
+    }
+    if (row.length > this.headerWidth && !extraCellsEmpty(row, this.headerWidth)) {
+      this.skip(lineNo, this.headerWidth + 1, `${row.length} fields where the header has ${this.headerWidth}`);
+      return;
+    }
+    const acc = this.accumulator();
+    const key = this.pointIndex >= 0 ? row[this.pointIndex]!.trim() : String(lineNo);
+    acc.add(key, lineNo, values);
+    if (acc.size > this.limits.maxPoints) {
+      this.fail({ line: lineNo, message: `more than ${this.limits.maxPoints} distinct points; is the "point" column a sample counter?` });
+    }
+    this.read++;
   }
 
   private skip(line: number, column: number | undefined, why: string): void {
@@ -321,6 +499,38 @@ export class RunFileReader {
       this.warnings.push({ file: this.file, line, column, message: `row skipped: ${why}` });
     }
   }
+}
+
+/** Field roles in the quote-free path besides a channel's slot (≥ 0). */
+const UNUSED_FIELD = -1;
+const POINT_FIELD = -2;
+
+/** Exact powers of ten 10^0 … 10^15 (each one a double without rounding). */
+const POW10 = Float64Array.from({ length: 16 }, (_, i) => Number(`1e${i}`));
+
+/** True when text[start, end) is exactly `s`. */
+function sameText(text: string, start: number, end: number, s: string): boolean {
+  if (end - start !== s.length) return false;
+  for (let i = 0; i < s.length; i++) if (text.charCodeAt(start + i) !== s.charCodeAt(i)) return false;
+  return true;
+}
+
+/** Index of the first CR or LF, or −1. */
+function firstLineBreak(text: string): number {
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 10 || c === 13) return i;
+  }
+  return -1;
+}
+
+/** Index of the last CR or LF at or before `from`, or −1 (a backward scan: the break is usually a line's length from the end). */
+function lastBreakFrom(text: string, from: number): number {
+  for (let i = from; i >= 0; i--) {
+    const c = text.charCodeAt(i);
+    if (c === 10 || c === 13) return i;
+  }
+  return -1;
 }
 
 /** Number from a cell; empty cells, NaN and ±Infinity come back as NaN. */
@@ -355,16 +565,16 @@ export function detectDelimiter(headerLine: string): string {
 
 /** Index of the last line break that is not inside a quoted field, or −1. */
 function lastLineBreak(text: string): number {
-  let nl = Math.max(text.lastIndexOf('\n'), text.lastIndexOf('\r'));
+  let nl = lastBreakFrom(text, text.length - 1);
   // a CR at the very end may be the first half of a CRLF split between chunks: keep it for later
-  if (nl === text.length - 1 && text.charCodeAt(nl) === 13) nl = Math.max(text.lastIndexOf('\n', nl - 1), text.lastIndexOf('\r', nl - 1));
+  if (nl === text.length - 1 && text.charCodeAt(nl) === 13) nl = lastBreakFrom(text, nl - 1);
   if (nl < 0 || text.indexOf('"') < 0) return nl;
   // quoted fields may hold line breaks: step back until the quotes before the break balance
   while (nl >= 0) {
     let quotes = 0;
     for (let i = 0; i < nl; i++) if (text.charCodeAt(i) === 34) quotes++;
     if (quotes % 2 === 0) return nl;
-    nl = Math.max(text.lastIndexOf('\n', nl - 1), text.lastIndexOf('\r', nl - 1));
+    nl = lastBreakFrom(text, nl - 1);
   }
   return -1;
 }
