@@ -1,0 +1,8 @@
+/** Types for what the bundler provides to the renderer. */
+declare module '*.vue' {
+  import type { DefineComponent } from 'vue';
+  const component: DefineComponent<object, object, unknown>;
+  export default component;
+}
+
+declare module '*.css';

@@ -1,0 +1,247 @@
+/**
+ * The browser host (DESIGN §1): the same interface as the Electron preload, built from what a web page
+ * has — file inputs, dropped files, downloads, fetch for the bundled sample and local storage for the
+ * recent list. Files are held in memory as Blobs under opaque ids; nothing here ever sees a path.
+ */
+import type { ChosenFile, OpenedCampaign, SweepbookHost } from '../../../core/host.ts';
+import type { HostExtras, OpenedRun } from './hostAccess.ts';
+
+const RECENT_KEY = 'sweepbook.recentCampaigns';
+const RECENT_MAX = 8;
+const SAMPLE_FOLDER = 'sample-runs/';
+const SAMPLE_CAMPAIGN = 'sweepbook-campaign.json';
+export const RUN_FILE_TYPES = '.csv,.tsv,.txt,.dat,.json,text/csv,text/plain,application/json';
+
+interface RecentEntry {
+  id: string;
+  name: string;
+  text: string;
+  savedAt: string;
+}
+
+/** Names of the files a campaign refers to (runs and tares), read without validating the campaign. */
+export function filesNamedBy(campaignText: string): string[] {
+  let json: unknown;
+  try {
+    json = JSON.parse(campaignText);
+  } catch {
+    return [];
+  }
+  const c = json as { runs?: { file?: unknown; tare?: unknown }[]; tares?: { file?: unknown }[] };
+  const names = new Set<string>();
+  for (const r of Array.isArray(c.runs) ? c.runs : []) {
+    if (typeof r?.file === 'string') names.add(r.file);
+    if (typeof r?.tare === 'string') names.add(r.tare);
+  }
+  for (const t of Array.isArray(c.tares) ? c.tares : []) if (typeof t?.file === 'string') names.add(t.file);
+  return [...names];
+}
+
+export function baseName(path: string): string {
+  return path.replace(/^.*[\\/]/, '');
+}
+
+export function hex(bytes: ArrayBuffer): string {
+  return Array.from(new Uint8Array(bytes), (b) => b.toString(16).padStart(2, '0')).join('');
+}
+
+export function createBrowserHost(win: Window): SweepbookHost & HostExtras {
+  const doc = win.document;
+  const files = new Map<string, { name: string; blob: Blob }>();
+  let counter = 0;
+  let dirty = false;
+
+  const keep = (name: string, blob: Blob): ChosenFile => {
+    const id = `b${++counter}`;
+    files.set(id, { name, blob });
+    return { id, name, size: blob.size };
+  };
+  const blobOf = (id: string): Blob => {
+    const f = files.get(id);
+    if (!f) throw new Error(`no file with id "${id}" was chosen in this window`);
+    return f.blob;
+  };
+
+  win.addEventListener('beforeunload', (e) => {
+    if (!dirty) return;
+    e.preventDefault();
+    // older engines need returnValue set to ask before closing
+    e.returnValue = '';
+  });
+
+  /** Open the browser's file chooser; resolves with nothing when the user cancels. */
+  function chooseFiles(accept: string, multiple: boolean): Promise<File[]> {
+    return new Promise((resolve) => {
+      const input = doc.createElement('input');
+      input.type = 'file';
+      input.accept = accept;
+      input.multiple = multiple;
+      input.hidden = true;
+      const done = (list: File[]) => {
+        input.remove();
+        resolve(list);
+      };
+      input.addEventListener('change', () => done(Array.from(input.files ?? [])));
+      input.addEventListener('cancel', () => done([]));
+      doc.body.appendChild(input);
+      input.click();
+    });
+  }
+
+  function download(name: string, blob: Blob): void {
+    const url = URL.createObjectURL(blob);
+    const a = doc.createElement('a');
+    a.href = url;
+    a.download = name;
+    a.hidden = true;
+    doc.body.appendChild(a);
+    a.click();
+    a.remove();
+    // give the download a moment to start before the URL goes away
+    win.setTimeout(() => URL.revokeObjectURL(url), 60_000);
+  }
+
+  function readRecent(): RecentEntry[] {
+    try {
+      const list = JSON.parse(win.localStorage.getItem(RECENT_KEY) ?? '[]') as RecentEntry[];
+      return Array.isArray(list) ? list : [];
+    } catch {
+      return [];
+    }
+  }
+
+  function remember(entry: RecentEntry): void {
+    const list = [entry, ...readRecent().filter((e) => e.id !== entry.id && e.name !== entry.name)].slice(0, RECENT_MAX);
+    try {
+      win.localStorage.setItem(RECENT_KEY, JSON.stringify(list));
+    } catch {
+      // storage full or disabled: the recent list is a convenience, the save itself has happened
+    }
+  }
+
+  async function sha256(id: string): Promise<string> {
+    const subtle = win.crypto?.subtle;
+    if (!subtle) throw new Error('SHA-256 needs a secure context: open the page as http://127.0.0.1 or http://localhost');
+    return hex(await subtle.digest('SHA-256', await blobOf(id).arrayBuffer()));
+  }
+
+  /** Campaign text plus the run files chosen with it, matched by file name. */
+  async function resolveCampaign(id: string, name: string, text: string, available: Map<string, ChosenFile>): Promise<OpenedCampaign> {
+    const runs: OpenedRun[] = [];
+    for (const file of filesNamedBy(text)) {
+      const chosen = available.get(baseName(file));
+      runs.push({ file, id: chosen?.id ?? null, sha256: chosen ? await sha256(chosen.id) : null, size: chosen?.size });
+    }
+    return { id, name, text, runs };
+  }
+
+  const host: SweepbookHost & HostExtras = {
+    kind: 'browser',
+
+    async chooseRunFiles() {
+      return (await chooseFiles(RUN_FILE_TYPES, true)).map((f) => keep(f.name, f));
+    },
+
+    async acceptDroppedFiles(list) {
+      return list.map((f) => keep(f.name, f));
+    },
+
+    async readChunks(id, onChunk, chunkBytes = 1 << 20) {
+      const blob = blobOf(id);
+      const decoder = new TextDecoder('utf-8');
+      for (let at = 0; at < blob.size; at += chunkBytes) {
+        const bytes = await blob.slice(at, Math.min(blob.size, at + chunkBytes)).arrayBuffer();
+        // stream: true keeps a multi-byte character split across chunks for the next one
+        const text = decoder.decode(bytes, { stream: true });
+        // the callback may return a promise (the engine's back-pressure); waiting on it is harmless otherwise
+        if (text.length > 0) await (onChunk(text) as unknown);
+      }
+      const rest = decoder.decode();
+      if (rest.length > 0) await (onChunk(rest) as unknown);
+    },
+
+    sha256,
+
+    async openSampleCampaign() {
+      const base = new URL(SAMPLE_FOLDER, doc.baseURI);
+      const res = await win.fetch(new URL(SAMPLE_CAMPAIGN, base));
+      if (!res.ok) throw new Error(`the sample campaign could not be loaded (${res.status} ${res.statusText})`);
+      const text = await res.text();
+      const available = new Map<string, ChosenFile>();
+      for (const file of filesNamedBy(text)) {
+        const r = await win.fetch(new URL(file, base));
+        if (r.ok) available.set(baseName(file), keep(baseName(file), await r.blob()));
+      }
+      return resolveCampaign('sample', SAMPLE_CAMPAIGN, text, available);
+    },
+
+    async openCampaign() {
+      const list = await chooseFiles(RUN_FILE_TYPES, true);
+      if (list.length === 0) return null;
+      const jsons = list.filter((f) => /\.json$/i.test(f.name));
+      let campaignFile: File | undefined;
+      let text = '';
+      for (const f of jsons) {
+        const t = await f.text();
+        if (/"format"\s*:\s*"sweepbook-campaign"/.test(t)) {
+          campaignFile = f;
+          text = t;
+          break;
+        }
+      }
+      if (!campaignFile) {
+        // let the campaign parser explain what is wrong with the one JSON file given
+        if (jsons.length === 1) return { id: keep(jsons[0]!.name, jsons[0]!).id, name: jsons[0]!.name, text: await jsons[0]!.text(), runs: [] };
+        throw new Error('choose the campaign file (.json) together with its run files; none of the chosen files is a Sweepbook campaign');
+      }
+      const available = new Map<string, ChosenFile>();
+      for (const f of list) if (f !== campaignFile) available.set(f.name, keep(f.name, f));
+      const id = keep(campaignFile.name, campaignFile).id;
+      remember({ id: campaignFile.name, name: campaignFile.name, text, savedAt: new Date().toISOString() });
+      return resolveCampaign(id, campaignFile.name, text, available);
+    },
+
+    async saveCampaign(text, options) {
+      const known = options.id ? files.get(options.id)?.name : undefined;
+      const name = (options.saveAs ? options.suggestedName : known ?? options.suggestedName) ?? 'campaign.json';
+      const blob = new Blob([text], { type: 'application/json' });
+      // a page cannot write back to the file it opened: every save is a download under the campaign's name
+      const id = options.id && !options.saveAs ? options.id : keep(name, blob).id;
+      files.set(id, { name, blob });
+      download(name, blob);
+      remember({ id: name, name, text, savedAt: new Date().toISOString() });
+      return { id, name };
+    },
+
+    async saveExport(suggestedName, data, mime) {
+      const part: BlobPart = typeof data === 'string' ? data : new Uint8Array(data);
+      download(suggestedName, new Blob([part], { type: mime }));
+      return true;
+    },
+
+    async recentCampaigns() {
+      return readRecent().map(({ id, name }) => ({ id, name }));
+    },
+
+    async openRecentCampaign(id) {
+      const entry = readRecent().find((e) => e.id === id);
+      if (!entry) return null;
+      // a web page keeps no access to files between visits: the runs have to be chosen again
+      return resolveCampaign(keep(entry.name, new Blob([entry.text])).id, entry.name, entry.text, new Map());
+    },
+
+    onMenuCommand() {
+      // a web page has no native menu; the toolbar and keyboard shortcuts issue the commands
+      return () => undefined;
+    },
+
+    setDirty(value) {
+      dirty = value;
+    },
+
+    async print() {
+      win.print();
+    },
+  };
+  return host;
+}

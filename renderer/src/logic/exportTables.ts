@@ -1,0 +1,85 @@
+/**
+ * Export contents: the point table and the fit summary as CSV text and as sheet rows. Numbers stay full
+ * precision; the point columns are the engine's (core/engine.ts POINT_COLUMNS), so an export equals the
+ * command line's output for the same run and setup.
+ */
+import { csvLine, toCsv, type Cell } from '../../../core/csvout.ts';
+import { POINT_COLUMNS, pointsCsv } from '../../../core/engine.ts';
+import type { FitResult } from '../../../core/fit.ts';
+import type { ReductionResult } from '../../../core/reduce.ts';
+import { CAUTION, provenanceLines, type Provenance } from './provenance.ts';
+
+/** Comment lines ("# key: value"), each one CSV cell so commas or formula characters inside stay harmless. */
+export function provenanceCsv(p: Provenance): string {
+  return [...provenanceLines(p), CAUTION].map((l) => csvLine([`# ${l}`])).join('\n') + '\n';
+}
+
+/**
+ * The point table of one run: the export's own lines, then exactly what the command line writes for the
+ * same run (core's provenance lines and the table).
+ */
+export function pointsCsvExport(p: Provenance, result: ReductionResult): string {
+  const record = p.runs[0]?.record;
+  const own = provenanceCsv({ ...p, runs: [] });
+  return own + pointsCsv(result, record);
+}
+
+export interface FitSource {
+  name: string;
+  configuration: string | null;
+  file: string;
+  result: ReductionResult;
+  asMeasured: ReductionResult;
+}
+
+/** Fit columns; the linear range pair becomes two columns. */
+export function fitHeader(fit: FitResult): string[] {
+  const cols: string[] = [];
+  for (const k of Object.keys(fit)) {
+    if (k === 'linear_range_deg') cols.push('linear_range_from_deg', 'linear_range_to_deg');
+    else cols.push(k);
+  }
+  return cols;
+}
+
+function fitCells(fit: FitResult): Cell[] {
+  const cells: Cell[] = [];
+  for (const [k, v] of Object.entries(fit)) {
+    if (k === 'linear_range_deg') {
+      const r = v as [number, number] | null;
+      cells.push(r ? r[0] : null, r ? r[1] : null);
+    } else cells.push(v as Cell);
+  }
+  return cells;
+}
+
+/** Rows of the fit summary: one per run and basis (corrected, then as measured when corrections were on). */
+export function fitRows(sources: readonly FitSource[]): { header: string[]; rows: Cell[][] } {
+  const first = sources[0]?.result.fit;
+  const header = ['run', 'configuration', 'file', 'basis', ...(first ? fitHeader(first) : [])];
+  const rows: Cell[][] = [];
+  for (const s of sources) {
+    const on = s.result.corrections.enabled;
+    rows.push([s.name, s.configuration, s.file, on ? 'corrected' : 'as measured (corrections off)', ...fitCells(s.result.fit)]);
+    if (on) rows.push([s.name, s.configuration, s.file, 'as measured', ...fitCells(s.asMeasured.fit)]);
+  }
+  return { header, rows };
+}
+
+export function fitsCsvExport(p: Provenance, sources: readonly FitSource[]): string {
+  const { header, rows } = fitRows(sources);
+  return provenanceCsv(p) + toCsv(header, rows);
+}
+
+/** Point table rows for a sheet: header then one row per point, nulls as empty cells. */
+export function pointRows(result: ReductionResult): { header: string[]; rows: Cell[][] } {
+  return {
+    header: [...POINT_COLUMNS] as string[],
+    rows: result.points.map((pt) => POINT_COLUMNS.map((k) => pt[k] as Cell)),
+  };
+}
+
+/** A file name part from a run name: letters, digits, dot, dash and underscore only. */
+export function safeName(text: string): string {
+  return text.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-+|-+$/g, '') || 'run';
+}

@@ -1,0 +1,41 @@
+/**
+ * The workbook export: a provenance sheet, the fit summary, and one sheet of points per run. Written
+ * with write-excel-file; text is always written as text (never as a formula), numbers as numbers.
+ */
+import writeXlsxFile, { type Sheet, type SheetData } from 'write-excel-file/browser';
+import type { Cell } from '../../../core/csvout.ts';
+import { fitRows, pointRows, type FitSource } from './exportTables.ts';
+import { CAUTION, provenanceLines, type Provenance } from './provenance.ts';
+
+function sheetRows(header: string[], rows: Cell[][]): SheetData {
+  const bold = header.map((h) => ({ value: h, fontWeight: 'bold' as const }));
+  return [bold, ...rows.map((r) => r.map((c) => (c === undefined || (typeof c === 'number' && !Number.isFinite(c)) ? null : c)))];
+}
+
+/** Sheet names: at most 31 characters, none of : \ / ? * [ ], unique. */
+export function sheetName(text: string, used: Set<string>): string {
+  const base = text.replace(/[:\\/?*[\]]/g, '-').slice(0, 28) || 'Sheet';
+  let name = base;
+  for (let i = 2; used.has(name.toLowerCase()); i++) name = `${base.slice(0, 27)}~${i}`;
+  used.add(name.toLowerCase());
+  return name;
+}
+
+export function workbookSheets(p: Provenance, sources: readonly FitSource[]): Sheet<Blob>[] {
+  const used = new Set<string>();
+  const sheets: Sheet<Blob>[] = [];
+  const fits = fitRows(sources);
+  sheets.push({ sheet: sheetName('Fit summary', used), data: sheetRows(fits.header, fits.rows) });
+  for (const s of sources) {
+    const pts = pointRows(s.result);
+    sheets.push({ sheet: sheetName(`Points ${s.name}`, used), data: sheetRows(pts.header, pts.rows) });
+  }
+  const prov = [...provenanceLines(p), CAUTION].map((l) => [l]);
+  sheets.push({ sheet: sheetName('Provenance', used), data: sheetRows(['provenance'], prov), columns: [{ width: 120 }] });
+  return sheets;
+}
+
+export async function workbookBytes(p: Provenance, sources: readonly FitSource[]): Promise<Uint8Array> {
+  const blob = await writeXlsxFile(workbookSheets(p, sources)).toBlob();
+  return new Uint8Array(await blob.arrayBuffer());
+}

@@ -1,0 +1,149 @@
+/**
+ * Campaign files: new, open (reporting every missing or changed file by name), the bundled sample,
+ * recent campaigns, save and save-as through the host. Unsaved changes are asked about first.
+ */
+import { emptyCampaign, parseCampaign, serializeCampaign, type Campaign } from '../../../core/campaign.ts';
+import type { OpenedCampaign } from '../../../core/host.ts';
+import type { Host, OpenedRun } from '../host/hostAccess.ts';
+import { newEntry, type CampaignState } from './campaignState.ts';
+import type { RunLoader } from './runLoader.ts';
+
+export function createCampaignFiles(base: CampaignState, host: Host, loader: RunLoader, ask: (question: string) => Promise<boolean>) {
+  const { state, dirty, say, problem } = base;
+  const { enqueue, checkHash, loadRun } = loader;
+
+  async function confirmDiscard(): Promise<boolean> {
+    return !dirty.value || ask('The campaign has unsaved changes. Discard them?');
+  }
+
+  function reset(campaign: Campaign, savedText: string): void {
+    loader.reset();
+    state.campaign = campaign;
+    state.savedText = savedText;
+    state.entries = {};
+    state.tares = {};
+    state.banners = [];
+    state.mappingFor = null;
+    state.currentRun = null;
+    state.editingSetup = Object.keys(campaign.setups)[0] ?? null;
+  }
+
+  async function newCampaign(): Promise<void> {
+    if (!(await confirmDiscard())) return;
+    const c = emptyCampaign();
+    reset(c, serializeCampaign(c));
+    state.campaignId = null;
+    state.campaignFile = null;
+  }
+
+  /** Take over an opened campaign: report every missing or changed file by name, then read the rest. */
+  async function adopt(opened: OpenedCampaign, options: { keepId: boolean }): Promise<boolean> {
+    let campaign: Campaign;
+    try {
+      campaign = parseCampaign(opened.name, opened.text);
+    } catch (err) {
+      say('error', `${problem(err)}${opened.backupAvailable ? ' A backup of the campaign exists beside it.' : ''} Nothing was changed.`);
+      return false;
+    }
+    reset(campaign, serializeCampaign(campaign));
+    state.campaignId = options.keepId ? opened.id : null;
+    state.campaignFile = opened.name;
+    const found = new Map<string, OpenedRun>(opened.runs.map((r) => [r.file, r as OpenedRun]));
+    const missing: string[] = [];
+    for (const run of campaign.runs) {
+      const f = found.get(run.file);
+      const e = newEntry(run.file, f?.id ?? null, f?.size ?? null);
+      if (f?.id && f.sha256) {
+        e.sha256 = f.sha256;
+        e.hashNote = checkHash(run.file, run.sha256, f.sha256);
+      }
+      state.entries[run.file] = e;
+      if (!f?.id) missing.push(run.file);
+    }
+    const tareFiles = new Set<string>([...(campaign.tares ?? []).map((t) => t.file), ...campaign.runs.map((r) => r.tare).filter((t): t is string => !!t)]);
+    for (const file of tareFiles) {
+      const f = found.get(file);
+      state.tares[file] = { file, fileId: f?.id ?? null, sha256: null, hashNote: null, status: f?.id ? 'reading' : 'missing', errors: [] };
+      if (!f?.id) missing.push(`${file} (tare)`);
+    }
+    if (missing.length > 0) {
+      say('warning', `Not found beside the campaign: ${missing.join(', ')}. ${missing.length === 1 ? 'It stays' : 'They stay'} in the campaign; use Locate… or import the file with the same name.`);
+    }
+    state.currentRun = campaign.runs[0]?.file ?? null;
+    for (const run of campaign.runs) if (state.entries[run.file]!.fileId) enqueue(() => loadRun(run.file));
+    await loader.settled();
+    return true;
+  }
+
+  async function openSample(): Promise<void> {
+    if (!(await confirmDiscard())) return;
+    try {
+      // the bundled sample is never saved over: the first save asks where
+      await adopt(await host.openSampleCampaign(), { keepId: false });
+    } catch (err) {
+      say('error', `The sample campaign could not be opened: ${problem(err)}`);
+    }
+  }
+
+  async function openCampaign(): Promise<void> {
+    if (!(await confirmDiscard())) return;
+    try {
+      const opened = await host.openCampaign();
+      if (opened) await adopt(opened, { keepId: true });
+    } catch (err) {
+      say('error', problem(err));
+    }
+    await refreshRecent();
+  }
+
+  async function openRecent(id: string): Promise<void> {
+    if (!host.openRecentCampaign || !(await confirmDiscard())) return;
+    try {
+      const opened = await host.openRecentCampaign(id);
+      if (opened) await adopt(opened, { keepId: true });
+    } catch (err) {
+      say('error', problem(err));
+    }
+  }
+
+  async function refreshRecent(): Promise<void> {
+    try {
+      state.recent = await host.recentCampaigns();
+    } catch {
+      state.recent = [];
+    }
+  }
+
+  /** Problems that keep the campaign from being saved in a form it can be opened from again. */
+  function saveProblems(): string[] {
+    const out: string[] = [];
+    for (const r of state.campaign.runs) {
+      if (!state.campaign.setups[r.setup]) out.push(`${r.file} names setup "${r.setup}", which has not been applied yet`);
+    }
+    return out;
+  }
+
+  async function save(saveAs = false): Promise<boolean> {
+    const problems = saveProblems();
+    if (problems.length > 0) {
+      say('error', `Not saved: ${problems.join('; ')}.`);
+      return false;
+    }
+    const text = serializeCampaign(state.campaign);
+    const suggestedName = state.campaignFile ?? `${state.campaign.name.replace(/[^A-Za-z0-9._ -]+/g, '-').trim() || 'campaign'}.json`;
+    try {
+      const saved = await host.saveCampaign(text, { id: state.campaignId ?? undefined, saveAs: saveAs || state.campaignId === null, suggestedName });
+      if (!saved) return false;
+      state.campaignId = saved.id;
+      state.campaignFile = saved.name;
+      state.savedText = text;
+      await refreshRecent();
+      return true;
+    } catch (err) {
+      say('error', `Not saved: ${problem(err)}`);
+      return false;
+    }
+  }
+
+  return { newCampaign, openSample, openCampaign, openRecent, refreshRecent, save };
+}

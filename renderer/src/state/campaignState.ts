@@ -1,0 +1,167 @@
+/**
+ * The state of the campaign being worked on, and what every part of it needs to look things up: the
+ * campaign itself, what is known about each run and tare file, messages for the user, the view choices.
+ */
+import { computed, reactive, watch, type ComputedRef } from 'vue';
+import { emptyCampaign, serializeCampaign, type Campaign, type CampaignRun } from '../../../core/campaign.ts';
+import { formatNotice, InputError } from '../../../core/messages.ts';
+import type { ReductionResult } from '../../../core/reduce.ts';
+import type { Host } from '../host/hostAccess.ts';
+import { baseName } from '../host/browserHost.ts';
+import { configurationOrder, styleFor, type SeriesStyle } from '../logic/palette.ts';
+import type { ChannelStats, HeaderInfo } from '../worker/protocol.ts';
+
+export type RunStatus = 'missing' | 'queued' | 'reading' | 'reducing' | 'ready' | 'failed' | 'needs-mapping' | 'needs-setup';
+export type Basis = 'corrected' | 'measured';
+
+export interface RunEntry {
+  file: string;
+  fileId: string | null;
+  size: number | null;
+  status: RunStatus;
+  /** 0..1 while reading when the size is known. */
+  progress: number | null;
+  charsRead: number;
+  /** SHA-256 of the file as found now. */
+  sha256: string | null;
+  /** Set when the file differs from the one the campaign recorded. */
+  hashNote: string | null;
+  errors: string[];
+  header: HeaderInfo | null;
+  stats: ChannelStats | null;
+  result: ReductionResult | null;
+  asMeasured: ReductionResult | null;
+  reducedAt: string | null;
+  generation: number;
+  /** Added in this session: takes its hash and configuration from the file once reduced. */
+  imported: boolean;
+}
+
+export interface TareEntry {
+  file: string;
+  fileId: string | null;
+  sha256: string | null;
+  hashNote: string | null;
+  status: 'missing' | 'reading' | 'ready' | 'failed';
+  errors: string[];
+}
+
+export interface Banner {
+  id: number;
+  kind: 'error' | 'warning' | 'info';
+  text: string;
+}
+
+export interface WorkbenchState {
+  campaign: Campaign;
+  /** Host handle of the campaign file; null until saved (or for the bundled sample). */
+  campaignId: string | null;
+  campaignFile: string | null;
+  savedText: string;
+  entries: Record<string, RunEntry>;
+  tares: Record<string, TareEntry>;
+  banners: Banner[];
+  basis: Basis;
+  currentRun: string | null;
+  mappingFor: string | null;
+  recent: { id: string; name: string }[];
+  /** Setup the editor shows; may name a setup not yet in the campaign (a new one being written). */
+  editingSetup: string | null;
+  /** The view shown beside the run list. */
+  view: ViewId;
+}
+
+export type ViewId = 'plots' | 'delta' | 'fits' | 'detail' | 'samples' | 'setup';
+
+export const RUN_KEY = (file: string) => `run:${file}`;
+export const TARE_KEY = (file: string) => `tare:${file}`;
+
+export function newEntry(file: string, fileId: string | null, size: number | null): RunEntry {
+  return {
+    file,
+    fileId,
+    size,
+    status: fileId ? 'queued' : 'missing',
+    progress: null,
+    charsRead: 0,
+    sha256: null,
+    hashNote: null,
+    errors: fileId ? [] : [`${file}: file not found beside the campaign; the run stays in the campaign (Locate… points to it)`],
+    header: null,
+    stats: null,
+    result: null,
+    asMeasured: null,
+    reducedAt: null,
+    generation: 0,
+    imported: false,
+  };
+}
+
+export function createCampaignState(host: Host) {
+  const state = reactive<WorkbenchState>({
+    campaign: emptyCampaign(),
+    campaignId: null,
+    campaignFile: null,
+    savedText: serializeCampaign(emptyCampaign()),
+    entries: {},
+    tares: {},
+    banners: [],
+    basis: 'corrected',
+    currentRun: null,
+    mappingFor: null,
+    recent: [],
+    editingSetup: null,
+    view: 'plots',
+  });
+  let bannerId = 0;
+
+  const dirty: ComputedRef<boolean> = computed(() => serializeCampaign(state.campaign) !== state.savedText);
+  watch(dirty, (d) => host.setDirty(d), { immediate: true });
+
+  // ---- messages -----------------------------------------------------------------------------------
+
+  function say(kind: Banner['kind'], text: string): void {
+    state.banners.push({ id: ++bannerId, kind, text });
+  }
+  function dismiss(id: number): void {
+    const i = state.banners.findIndex((b) => b.id === id);
+    if (i >= 0) state.banners.splice(i, 1);
+  }
+  function problem(err: unknown): string {
+    if (err instanceof InputError) return formatNotice(err.notice);
+    return err instanceof Error ? err.message : String(err);
+  }
+
+  // ---- lookups ------------------------------------------------------------------------------------
+
+  function runOf(file: string): CampaignRun | undefined {
+    return state.campaign.runs.find((r) => r.file === file);
+  }
+  function displayName(file: string): string {
+    const e = state.entries[file];
+    return e?.result?.run.name ?? baseName(file).replace(/\.[^.]*$/, '');
+  }
+  function configurationOf(file: string): string | null {
+    const r = runOf(file);
+    return r?.configuration ?? state.entries[file]?.result?.run.configuration ?? null;
+  }
+  /** The result for the chosen basis: corrected, or the same run reduced with corrections off. */
+  function resultOf(file: string, basis: Basis = state.basis): ReductionResult | null {
+    const e = state.entries[file];
+    if (!e || e.status !== 'ready') return null;
+    return basis === 'corrected' ? e.result : e.asMeasured;
+  }
+  const configurations = computed(() => configurationOrder(state.campaign.runs.map((r) => configurationOf(r.file))));
+  function styleOf(file: string): SeriesStyle {
+    const index = state.campaign.runs.findIndex((r) => r.file === file);
+    const run = state.campaign.runs[index];
+    return styleFor(run?.style ?? Math.max(0, index), Math.max(0, configurations.value.indexOf(configurationOf(file) ?? '')));
+  }
+  /** Runs shown in plots: ticked and reduced, in campaign order. */
+  const shownRuns = computed(() => state.campaign.runs.filter((r) => r.visible !== false && state.entries[r.file]?.status === 'ready').map((r) => r.file));
+  const readyRuns = computed(() => state.campaign.runs.filter((r) => state.entries[r.file]?.status === 'ready').map((r) => r.file));
+
+  return { state, dirty, say, dismiss, problem, runOf, displayName, configurationOf, resultOf, configurations, styleOf, shownRuns, readyRuns };
+}
+
+export type CampaignState = ReturnType<typeof createCampaignState>;

@@ -1,0 +1,45 @@
+/**
+ * Provenance of reduced runs in core's form (core/provenance.ts), as the command line writes it. The
+ * setup lives in the campaign rather than in a file of its own: it is named by campaign and key and
+ * hashed as canonical JSON.
+ */
+import { canonical, provenanceOf, type InputFile } from '../../../core/provenance.ts';
+import { validateSetup } from '../../../core/setup.ts';
+import { baseName } from '../host/browserHost.ts';
+import { sha256Text } from '../logic/hashText.ts';
+import { TOOL_VERSION, type Provenance, type RunProvenance } from '../logic/provenance.ts';
+import type { Basis, CampaignState } from './campaignState.ts';
+
+export function createProvenance(base: CampaignState) {
+  const { state, runOf, resultOf, configurationOf } = base;
+
+  /**
+   * Provenance of reduced runs, in core's form (as the command line writes it). The setup lives in the
+   * campaign rather than in a file of its own: it is named by campaign and key, hashed as canonical JSON.
+   */
+  async function provenance(files: readonly string[], basis: Basis = state.basis): Promise<Provenance> {
+    const runs: RunProvenance[] = [];
+    for (const file of files) {
+      const run = runOf(file);
+      const e = state.entries[file];
+      const result = resultOf(file, basis);
+      const setupInput = run ? state.campaign.setups[run.setup] : undefined;
+      if (!run || !e || !result || !setupInput) continue;
+      const setup = validateSetup(run.setup, setupInput).setup;
+      const inputs: InputFile[] = [
+        { role: 'setup', name: `${state.campaignFile ?? state.campaign.name}: setups["${run.setup}"]`, sha256: (await sha256Text(JSON.stringify(canonical(setupInput)))) ?? 'unavailable' },
+        { role: 'run', name: baseName(file), sha256: e.sha256 ?? 'unavailable' },
+      ];
+      if (run.tare) inputs.push({ role: 'tare', name: baseName(run.tare), sha256: state.tares[run.tare]?.sha256 ?? 'unavailable' });
+      runs.push({
+        name: result.run.name,
+        configuration: configurationOf(file),
+        file,
+        record: provenanceOf(result, setup, { version: TOOL_VERSION, reducedAt: e.reducedAt ?? 'unknown', inputs }),
+      });
+    }
+    return { exportedAt: new Date().toISOString(), campaign: state.campaign.name, runs };
+  }
+
+  return provenance;
+}

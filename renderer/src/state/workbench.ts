@@ -1,0 +1,65 @@
+/**
+ * The campaign being worked on and everything known about its runs, put together from its parts
+ * (campaignState, runLoader, campaignFiles, runEdits, runProvenance). Components read the state and
+ * call these actions; files go through the host, parsing and reduction through the worker.
+ */
+import type { MenuCommand } from '../../../core/host.ts';
+import type { EngineClient } from '../engine/engineClient.ts';
+import type { Host } from '../host/hostAccess.ts';
+import { createCampaignFiles } from './campaignFiles.ts';
+import { createCampaignState } from './campaignState.ts';
+import { createRunEdits } from './runEdits.ts';
+import { createRunLoader } from './runLoader.ts';
+import { createProvenance } from './runProvenance.ts';
+
+export type { Banner, Basis, RunEntry, RunStatus, TareEntry, ViewId, WorkbenchState } from './campaignState.ts';
+export { RUN_KEY, TARE_KEY } from './campaignState.ts';
+
+export interface WorkbenchOptions {
+  /** Ask the user a yes/no question (window.confirm in the app). */
+  ask?: (question: string) => Promise<boolean>;
+}
+
+export function createWorkbench(host: Host, engine: EngineClient, options: WorkbenchOptions = {}) {
+  const ask = options.ask ?? (async () => true);
+  const base = createCampaignState(host);
+  const loader = createRunLoader(base, host, engine);
+  const files = createCampaignFiles(base, host, loader, ask);
+  const edits = createRunEdits(base, host, engine, loader, ask);
+  const provenance = createProvenance(base);
+
+  function handleMenu(command: MenuCommand, exports: Partial<Record<MenuCommand, () => unknown>>): void {
+    const actions: Partial<Record<MenuCommand, () => unknown>> = {
+      'campaign:new': files.newCampaign,
+      'campaign:open': files.openCampaign,
+      'campaign:save': () => files.save(false),
+      'campaign:save-as': () => files.save(true),
+      'runs:import': edits.importRuns,
+      ...exports,
+    };
+    void actions[command]?.();
+  }
+
+  return {
+    state: base.state,
+    dirty: base.dirty,
+    shownRuns: base.shownRuns,
+    readyRuns: base.readyRuns,
+    configurations: base.configurations,
+    runOf: base.runOf,
+    displayName: base.displayName,
+    configurationOf: base.configurationOf,
+    resultOf: base.resultOf,
+    styleOf: base.styleOf,
+    say: base.say,
+    dismiss: base.dismiss,
+    ...files,
+    ...edits,
+    provenance,
+    handleMenu,
+    /** Resolves when every queued read and reduction has finished (tests, exports). */
+    settled: loader.settled,
+  };
+}
+
+export type Workbench = ReturnType<typeof createWorkbench>;

@@ -1,0 +1,47 @@
+/**
+ * Messages between the user interface and the reduction worker. Runs are read once (streamed in
+ * chunks) and kept in the worker by key; reductions are asked for separately, so a setup edit or a
+ * tare change re-reduces without reading the file again.
+ */
+import type { ColumnMapping } from '../../../core/runfile.ts';
+import type { Notice } from '../../../core/messages.ts';
+import type { ReductionResult } from '../../../core/reduce.ts';
+
+/** The header line of a run file as found before reading, for the column-mapping step. */
+export interface HeaderInfo {
+  /** Physical 1-based line of the header. */
+  line: number;
+  text: string;
+  signature: string;
+  delimiter: string;
+  cells: { name: string; unit: string | null }[];
+  /** A few data rows after the header, split into cells, as a preview. */
+  preview: string[][];
+}
+
+/** Per-point sample statistics of every channel read (SI units), for the sample-scatter view. */
+export interface ChannelStats {
+  channels: string[];
+  points: { key: string; line: number; n: number; mean: number[]; std: number[] }[];
+}
+
+export type ToWorker =
+  | { type: 'begin'; id: number; key: string; file: string; mapping: ColumnMapping | null; mappings: Record<string, ColumnMapping> }
+  | { type: 'chunk'; id: number; text: string }
+  | { type: 'end'; id: number }
+  | { type: 'reduce'; id: number; key: string; setupName: string; setup: unknown; tareKey: string | null }
+  | { type: 'forget'; key: string };
+
+export type ReadReply =
+  | { ok: true; header: HeaderInfo; stats: ChannelStats; rows: number; mappingUsed: ColumnMapping | null }
+  | { ok: false; errors: Notice[]; header: HeaderInfo | null };
+
+export type ReduceReply =
+  | { ok: true; result: ReductionResult; asMeasured: ReductionResult; reducedAt: string }
+  | { ok: false; errors: Notice[] };
+
+export type FromWorker =
+  | { type: 'ack'; id: number; chars: number }
+  | { type: 'read'; id: number; reply: ReadReply }
+  | { type: 'reduced'; id: number; reply: ReduceReply }
+  | { type: 'crash'; id: number; message: string };
