@@ -106,6 +106,11 @@ export class RunFileReader {
   // the last point key, and the text it was trimmed from, so a run of samples of one point costs no new string
   private lastKeyRaw: string | undefined;
   private lastKey = '';
+  // a quoted record still open at the end of a line: its lines so far and where it started
+  private pending: { lines: string[]; line: number } | undefined;
+  // the file's first characters, probed for binary content however the chunks arrive
+  private probe = '';
+  private probed = false;
 
   constructor(file: string, options: { limits?: Partial<ReaderLimits>; mapping?: ColumnMapping } = {}) {
     this.file = file;
@@ -118,12 +123,12 @@ export class RunFileReader {
     if (!this.started) {
       this.started = true;
       if (chunk.charCodeAt(0) === 0xfeff) chunk = chunk.slice(1);
-      this.rejectBinary(chunk);
     }
+    if (!this.probed) this.probeBinary(chunk);
     if (chunk.length === 0) return;
     // Common case, no quotes anywhere: read the chunk where it lies. Only the line it completes is
     // joined to the carried text, so the big chunk is never copied into a concatenation.
-    if (chunk.indexOf('"') < 0 && this.carry.indexOf('"') < 0) {
+    if (this.pending === undefined && chunk.indexOf('"') < 0 && this.carry.indexOf('"') < 0) {
       let from = 0;
       if (this.carry.length > 0) {
         const nl = firstLineBreak(chunk);
@@ -167,13 +172,15 @@ export class RunFileReader {
 
   /** End of file: read what is left and return the points. Throws InputError on a file that cannot be reduced. */
   finish(): RunData {
-    if (!this.started) this.fail({ message: 'the file is empty' });
+    if (!this.started) this.fail({ line: 1, message: 'the file is empty' });
+    if (!this.probed) this.judgeProbe();
     if (this.carry.length > 0) {
       const rest = this.carry + '\n';
       this.carry = '';
       this.consume(rest, 0, rest.length, false);
     }
-    if (this.phase === 'preamble') this.fail({ message: 'no header line found (the file is empty or holds only comments)' });
+    if (this.pending) this.unclosedQuote();
+    if (this.phase === 'preamble') this.fail({ line: Math.max(1, this.line), message: 'no header line found (the file is empty or holds only comments)' });
     const acc = this.accumulator();
     const points = acc.result();
     if (this.skipped > this.limits.maxRowWarnings) {
@@ -207,12 +214,24 @@ export class RunFileReader {
     this.fail({ line: this.line + 1, message: `a line is longer than ${this.limits.maxLineChars} characters; this is not a run file` });
   }
 
-  private rejectBinary(chunk: string): void {
-    const probe = chunk.slice(0, 4096);
+  /** Collect the file's first 4096 characters, whatever the chunking, and judge them once complete. */
+  private probeBinary(chunk: string): void {
+    this.probe += chunk.slice(0, PROBE_CHARS - this.probe.length);
+    const nul = this.probe.indexOf('\u0000');
+    if (nul >= 0) {
+      this.fail({ line: lineOfOffset(this.probe, nul), message: 'the file holds binary data (NUL bytes), not CSV text' });
+    }
+    if (this.probe.length >= PROBE_CHARS) this.judgeProbe();
+  }
+
+  /** Many control or replacement characters in the first characters: not UTF-8 text. */
+  private judgeProbe(): void {
+    this.probed = true;
+    const probe = this.probe;
+    this.probe = '';
     let bad = 0;
     for (let i = 0; i < probe.length; i++) {
       const c = probe.charCodeAt(i);
-      if (c === 0) this.fail({ line: 1, message: 'the file holds binary data (NUL bytes), not CSV text' });
       if (c === 0xfffd || (c < 32 && c !== 9 && c !== 10 && c !== 13)) bad++;
     }
     if (bad > 8 && bad > probe.length / 100) {
@@ -238,7 +257,7 @@ export class RunFileReader {
     }
     if (this.phase !== 'data' || pos >= to) return;
     const quote = text.indexOf('"', pos);
-    if (quote >= 0 && quote < to) this.quotedBlock(text.slice(pos, to));
+    if (this.pending !== undefined || (quote >= 0 && quote < to)) this.quotedBlock(text.slice(pos, to));
     else if (direct) this.plainBlock(text, pos, to);
     else this.splitLines(text, pos, to);
   }
@@ -321,19 +340,64 @@ export class RunFileReader {
     return this.acc;
   }
 
-  /** A block holding quotes: papaparse, the CSV parser of record, splits it (quoted fields may hold delimiters and line breaks). */
+  /**
+   * Complete lines holding quotes, one record at a time. A line whose quotes do not balance opens a
+   * record that may span lines (a quoted field holding a line break); it is closed by the line that
+   * balances it, or, after MAX_RECORD_LINES lines, reported as an unclosed quote and skipped, and the
+   * lines after it are read afresh. So a stray quote costs one row, never the rest of the file, and
+   * the work stays linear. papaparse, the CSV parser of record, splits each record.
+   */
   private quotedBlock(text: string): void {
     if (text.indexOf('\r') >= 0) text = text.replace(/\r\n?/g, '\n');
-    const parsed = Papa.parse<string[]>(text, { delimiter: this.delimiter, newline: '\n', skipEmptyLines: false });
-    const rows = parsed.data;
-    // papaparse returns one trailing empty row for the final newline
-    const count = rows.length > 0 && text.endsWith('\n') && isBlankRow(rows[rows.length - 1]!) ? rows.length - 1 : rows.length;
-    for (let r = 0; r < count; r++) {
-      const row = rows[r]!;
-      const lineNo = ++this.line;
-      this.line += countQuotedBreaks(row);
-      this.takeRow(row, lineNo);
+    let pos = 0;
+    const end = text.endsWith('\n') ? text.length - 1 : text.length;
+    while (pos <= end) {
+      let nl = text.indexOf('\n', pos);
+      if (nl < 0 || nl > end) nl = end;
+      this.quotedLine(text.slice(pos, nl));
+      pos = nl + 1;
     }
+  }
+
+  private quotedLine(line: string): void {
+    const lineNo = ++this.line;
+    const odd = quoteCount(line) % 2 === 1;
+    const open = this.pending;
+    if (open) {
+      open.lines.push(line);
+      if (odd) {
+        this.pending = undefined;
+        this.record(open.lines.join('\n'), open.line);
+      } else if (open.lines.length >= MAX_RECORD_LINES) {
+        this.unclosedQuote();
+      }
+      return;
+    }
+    if (odd) this.pending = { lines: [line], line: lineNo };
+    else this.record(line, lineNo);
+  }
+
+  /** Skip the line that opened a record never closed, and read the lines it had swallowed afresh. */
+  private unclosedQuote(): void {
+    const open = this.pending!;
+    this.pending = undefined;
+    const first = open.lines[0]!;
+    this.skip(open.line, fieldOfOffset(first, first.indexOf('"'), this.delimiter), 'a quote opens here and is never closed');
+    this.line = open.line;
+    for (const rest of open.lines.slice(1)) this.quotedLine(rest);
+  }
+
+  /** One record (a line, or lines joined by a quoted line break) starting at line lineNo. */
+  private record(text: string, lineNo: number): void {
+    if (text.trim() === '') return; // a blank line, as on the quote-free path
+    const parsed = Papa.parse<string[]>(text, { delimiter: this.delimiter, newline: '\n', skipEmptyLines: false });
+    const bad = parsed.errors.find((e) => e.type === 'Quotes');
+    if (bad || parsed.data.length !== 1) {
+      const at = text.indexOf('"');
+      this.skip(lineNo, fieldOfOffset(text, at, this.delimiter), 'malformed quotes (a quoted field must be followed by a delimiter or the end of the line)');
+      return;
+    }
+    this.takeRow(parsed.data[0]!, lineNo);
   }
 
   /**
@@ -563,35 +627,47 @@ export function detectDelimiter(headerLine: string): string {
   return best;
 }
 
-/** Index of the last line break that is not inside a quoted field, or −1. */
+/** Index of the last line break, or −1 (quoted line breaks are joined again line by line in quotedLine). */
 function lastLineBreak(text: string): number {
   let nl = lastBreakFrom(text, text.length - 1);
   // a CR at the very end may be the first half of a CRLF split between chunks: keep it for later
   if (nl === text.length - 1 && text.charCodeAt(nl) === 13) nl = lastBreakFrom(text, nl - 1);
-  if (nl < 0 || text.indexOf('"') < 0) return nl;
-  // quoted fields may hold line breaks: step back until the quotes before the break balance
-  while (nl >= 0) {
-    let quotes = 0;
-    for (let i = 0; i < nl; i++) if (text.charCodeAt(i) === 34) quotes++;
-    if (quotes % 2 === 0) return nl;
-    nl = lastBreakFrom(text, nl - 1);
-  }
-  return -1;
+  return nl;
 }
 
-function isBlankRow(row: string[]): boolean {
-  return row.length === 1 && row[0] === '';
+/** Characters probed for binary content at the start of a file. */
+const PROBE_CHARS = 4096;
+/** Lines a quoted record may span before its opening quote is taken for a stray one. */
+const MAX_RECORD_LINES = 64;
+
+function quoteCount(line: string): number {
+  let n = 0;
+  for (let i = line.indexOf('"'); i >= 0; i = line.indexOf('"', i + 1)) n++;
+  return n;
+}
+
+/** 1-based line of a character offset. */
+function lineOfOffset(text: string, offset: number): number {
+  let line = 1;
+  for (let i = 0; i < offset; i++) if (text.charCodeAt(i) === 10 || (text.charCodeAt(i) === 13 && text.charCodeAt(i + 1) !== 10)) line++;
+  return line;
+}
+
+/** 1-based field of a character offset in a line (delimiters before it, outside quotes, plus one). */
+function fieldOfOffset(line: string, offset: number, delimiter: string): number {
+  let field = 1;
+  let quoted = false;
+  for (let i = 0; i < Math.max(0, offset); i++) {
+    const c = line[i];
+    if (c === '"') quoted = !quoted;
+    else if (!quoted && c === delimiter) field++;
+  }
+  return field;
 }
 
 function extraCellsEmpty(row: string[], from: number): boolean {
   for (let i = from; i < row.length; i++) if (row[i]!.trim() !== '') return false;
   return true;
-}
-
-function countQuotedBreaks(row: string[]): number {
-  let n = 0;
-  for (const cell of row) for (let i = 0; i < cell.length; i++) if (cell.charCodeAt(i) === 10) n++;
-  return n;
 }
 
 function clip(cell: string): string {
