@@ -133,3 +133,40 @@ describe('run-file reader', () => {
     expect(() => r.push('alpha,lift\n' + '1'.repeat(2000))).toThrow(/longer than 1000 characters/);
   });
 });
+
+describe('run-file reader: quotes', () => {
+  const chunked = (text: string, size: number) => {
+    const r = new RunFileReader('q.csv');
+    for (let i = 0; i < text.length; i += size) r.push(text.slice(i, i + size));
+    return r.finish();
+  };
+
+  it('skips a row with a malformed quote, naming line and column, and keeps the rows after it however the text is cut', () => {
+    const text = 'alpha,dp_pitot,lift,drag\n"1"x,500,10,1\n2,500,11,1\n3,500,12,1\n4,500,13,1\n';
+    for (const size of [text.length, 40, 7, 1]) {
+      const run = chunked(text, size);
+      expect(run.points.map((p) => p.line)).toEqual([3, 4, 5]);
+      expect(run.warnings[0]).toMatchObject({ line: 2, column: 1 });
+      expect(run.warnings[0]!.message).toContain('malformed quotes');
+    }
+  });
+
+  it('skips the row of a quote that never closes and reads the rows after it, in linear time', () => {
+    const rows = Array.from({ length: 5000 }, (_, i) => `${i},500,10,1`);
+    const text = `alpha,dp_pitot,lift,drag\n1,"500,10,1\n${rows.join('\n')}\n`;
+    const run = chunked(text, 4096);
+    expect(run.points).toHaveLength(5000);
+    expect(run.warnings[0]).toMatchObject({ line: 2, column: 2, message: 'row skipped: a quote opens here and is never closed' });
+  });
+
+  it('reads a quoted field holding a line break as one row, counting its lines', () => {
+    const run = readRunText('m.csv', 'alpha,dp_pitot,lift,note\n1,500,10,"two\nlines"\n2,500,11,x\n');
+    expect(run.points.map((p) => p.line)).toEqual([2, 4]);
+  });
+
+  it('finds binary content in the first characters however they are chunked', () => {
+    const text = 'alpha,dp_pitot,lift,drag\n1,500,10,1\n\u0000';
+    expect(() => chunked(text, text.length)).toThrow(/q\.csv:3: the file holds binary data/);
+    expect(() => chunked(text, 25)).toThrow(/q\.csv:3: the file holds binary data/);
+  });
+});
