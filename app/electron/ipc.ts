@@ -2,7 +2,7 @@
  * IPC handlers of the main process: every argument validated, every sender checked to be the app's
  * own page, every file access limited to paths the user chose (FileGrants).
  */
-import { readFile } from 'node:fs/promises';
+import { readFile, stat } from 'node:fs/promises';
 import { dirname, extname, join, resolve } from 'node:path';
 import type { BrowserWindow, Dialog, IpcMain, IpcMainInvokeEvent } from 'electron';
 import { z } from 'zod';
@@ -24,7 +24,7 @@ export interface IpcDeps {
   print: () => Promise<void>;
 }
 
-const RUN_EXTENSIONS = ['.csv', '.txt', '.tsv', '.dat'];
+const RUN_EXTENSIONS = ['.csv', '.txt', '.tsv', '.dat', '.json'];
 
 const schemas = {
   id: z.string().uuid(),
@@ -59,7 +59,14 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
 
   on('runs:choose', async () => {
     const win = deps.window();
-    const opts = { title: 'Import run files', properties: ['openFile', 'multiSelections'] as ('openFile' | 'multiSelections')[], filters: [{ name: 'Run files', extensions: ['csv', 'txt', 'tsv', 'dat'] }] };
+    const opts = {
+      title: 'Import run files',
+      properties: ['openFile', 'multiSelections'] as ('openFile' | 'multiSelections')[],
+      filters: [
+        { name: 'Run files', extensions: ['csv', 'txt', 'tsv', 'dat'] },
+        { name: 'Setup files', extensions: ['json'] },
+      ],
+    };
     const r = win ? await deps.dialog.showOpenDialog(win, opts) : await deps.dialog.showOpenDialog(opts);
     return r.canceled ? [] : r.filePaths.map(chosen);
   });
@@ -111,9 +118,9 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
 
   on('file:sha256', async (id) => sha256File(deps.grants.get(schemas.id.parse(id), 'read').path));
 
-  const openCampaignAt = async (path: string): Promise<OpenedCampaign> => {
+  const openCampaignAt = async (path: string, from: string = path): Promise<OpenedCampaign> => {
     const g = deps.grants.grant(path, 'write');
-    const text = await readFile(g.path, 'utf8');
+    const text = await readFile(from, 'utf8');
     const runs: OpenedCampaign['runs'] = [];
     let names: string[] = [];
     try {
@@ -126,7 +133,7 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
       const p = resolve(dirname(g.path), file);
       try {
         const sha = await sha256File(p);
-        runs.push({ file, id: chosen(p).id, sha256: sha });
+        runs.push({ file, id: chosen(p).id, sha256: sha, size: (await stat(p)).size } as OpenedCampaign['runs'][number]);
       } catch {
         runs.push({ file, id: null, sha256: null });
       }
@@ -160,6 +167,12 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
     const p = schemas.droppedPath.parse(path);
     if (!(await deps.recent.list()).includes(p)) throw new Error('refused: not a recent campaign');
     return openCampaignAt(p);
+  });
+
+  // the previous version kept beside a campaign: opened in its place after the user agreed; saving writes the campaign file
+  on('campaign:open-backup', async (id) => {
+    const g = deps.grants.get(schemas.id.parse(id), 'write');
+    return openCampaignAt(g.path, `${g.path}.bak`);
   });
 
   on('campaign:save', async (...args) => {

@@ -3,9 +3,13 @@
  * nothing else. Each method is one validated IPC call; no Node or Electron object reaches the page.
  */
 import { contextBridge, ipcRenderer, webUtils } from 'electron';
-import type { ChosenFile, MenuCommand, SweepbookHost } from '../../core/host.ts';
+import type { ChosenFile, MenuCommand, OpenedCampaign, SweepbookHost } from '../../core/host.ts';
 
-const host: SweepbookHost & { adoptDroppedFile(file: File): Promise<ChosenFile> } = {
+const host: SweepbookHost & {
+  adoptDroppedFile(file: File): Promise<ChosenFile>;
+  openRecentCampaign(id: string): Promise<OpenedCampaign | null>;
+  openCampaignBackup(id: string): Promise<OpenedCampaign>;
+} = {
   kind: 'electron',
   chooseRunFiles: () => ipcRenderer.invoke('runs:choose'),
   readChunks: async (id, onChunk, chunkBytes) => {
@@ -13,7 +17,8 @@ const host: SweepbookHost & { adoptDroppedFile(file: File): Promise<ChosenFile> 
     for (;;) {
       const chunk: string | null = await ipcRenderer.invoke('file:next-chunk', stream);
       if (chunk === null) return;
-      onChunk(chunk);
+      // a renderer that returns a promise gets back-pressure: the next chunk waits for it
+      await (onChunk(chunk) as unknown);
     }
   },
   sha256: (id) => ipcRenderer.invoke('file:sha256', id),
@@ -30,6 +35,8 @@ const host: SweepbookHost & { adoptDroppedFile(file: File): Promise<ChosenFile> 
   setDirty: (dirty) => void ipcRenderer.invoke('app:set-dirty', dirty),
   print: () => ipcRenderer.invoke('app:print'),
   adoptDroppedFile: (file) => ipcRenderer.invoke('file:adopt-dropped', webUtils.getPathForFile(file)),
+  openRecentCampaign: (id) => ipcRenderer.invoke('campaign:open-recent', id),
+  openCampaignBackup: (id) => ipcRenderer.invoke('campaign:open-backup', id),
 };
 
 contextBridge.exposeInMainWorld('sweepbook', host);

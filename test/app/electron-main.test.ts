@@ -154,6 +154,22 @@ describe('IPC handlers', () => {
     await expect(call('file:adopt-dropped', '/etc/shadow')).rejects.toThrow(/not a run file/);
   });
 
+  it('opens the backup of a campaign the user opened, and only recent campaigns from the recent list', async () => {
+    const { dir } = setup();
+    const target = join(dir, 'c.json');
+    writeFileSync(target, '{"v":2,"runs":[]}');
+    writeFileSync(`${target}.bak`, '{"v":1,"runs":[]}');
+    const h = setup({ open: [target] });
+    const opened = (await h.call('campaign:open')) as { id: string; text: string; backupAvailable: boolean };
+    expect(opened.text).toBe('{"v":2,"runs":[]}');
+    expect(opened.backupAvailable).toBe(true);
+    const backup = (await h.call('campaign:open-backup', opened.id)) as { text: string; id: string };
+    expect(backup.text).toBe('{"v":1,"runs":[]}');
+    expect(backup.id).toBe(opened.id); // saving writes the campaign file, not the backup
+    await expect(h.call('campaign:open-backup', '00000000-0000-4000-8000-000000000000')).rejects.toThrow(/not chosen/);
+    await expect(h.call('campaign:open-recent', target)).rejects.toThrow(/not a recent campaign/);
+  });
+
   it('saves a campaign atomically and keeps the previous version as a backup', async () => {
     const { dir } = setup();
     const target = join(dir, 'campaign.json');
