@@ -18,7 +18,6 @@ export interface IpcDeps {
   window: () => BrowserWindow | undefined;
   grants: FileGrants;
   recent: RecentList;
-  appRoot: string;
   sampleCampaignPath: string;
   setDirty: (dirty: boolean) => void;
   print: () => Promise<void>;
@@ -46,7 +45,7 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
   const on = (channel: string, fn: (...args: unknown[]) => unknown) => {
     const handler: Handler = (event, ...args) => {
       const url = event.senderFrame?.url ?? '';
-      if (!isAppUrl(url, deps.appRoot)) throw new Error(`refused: IPC from a page that is not the app (${url || 'unknown'})`);
+      if (!isAppUrl(url)) throw new Error(`refused: IPC from a page that is not the app (${url || 'unknown'})`);
       return fn(...args);
     };
     handlers.set(channel, handler);

@@ -3,12 +3,14 @@
  * menu, dialogs and file access behind validated IPC (ipc.ts). Bundled to dist/electron/main.cjs by
  * electron.config.ts.
  */
-import { app, BrowserWindow, dialog, ipcMain, Menu, shell } from 'electron';
+import { app, BrowserWindow, dialog, ipcMain, Menu, net, protocol, shell } from 'electron';
 import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
 import type { MenuCommand } from '../../core/host.ts';
 import { FileGrants } from './grants.ts';
 import { registerIpc, SAMPLE_CAMPAIGN_FILE } from './ipc.ts';
 import { menuTemplate } from './menu.ts';
+import { APP_ORIGIN, APP_SCHEME, resolveAppUrl } from './protocol.ts';
 import { recentList } from './recent.ts';
 import { hardenContents, hardenSession, isAllowedExternal, webPreferences } from './security.ts';
 
@@ -46,7 +48,7 @@ async function createWindow() {
     backgroundColor: '#f7f7f4',
     webPreferences: webPreferences(join(__dirname, 'preload.cjs')),
   });
-  hardenContents(win.webContents, RENDERER_ROOT, (url) => {
+  hardenContents(win.webContents, (url) => {
     if (isAllowedExternal(url)) void shell.openExternal(url);
   });
   registerIpc({
@@ -55,7 +57,6 @@ async function createWindow() {
     window: () => win,
     grants,
     recent,
-    appRoot: RENDERER_ROOT,
     sampleCampaignPath: join(APP_ROOT, SAMPLE_CAMPAIGN_FILE),
     setDirty: (d) => {
       dirty = d;
@@ -79,9 +80,23 @@ async function createWindow() {
     if (choice !== 0) event.preventDefault();
   });
   win.once('ready-to-show', () => win?.show());
-  await win.loadFile(join(RENDERER_ROOT, 'index.html'));
+  await win.loadURL(`${APP_ORIGIN}/index.html`);
 }
 
+/** Serve the renderer build on app://sweepbook/ (see protocol.ts). */
+function serveAppScheme() {
+  protocol.handle(APP_SCHEME, async (request) => {
+    const file = resolveAppUrl(request.url, RENDERER_ROOT);
+    if (!file) return new Response('not found', { status: 404 });
+    const res = await net.fetch(pathToFileURL(file.path).toString());
+    return new Response(res.body, { status: res.status, headers: { 'content-type': file.type } });
+  });
+}
+
+protocol.registerSchemesAsPrivileged([{ scheme: APP_SCHEME, privileges: { standard: true, secure: true, supportFetchAPI: true } }]);
 app.enableSandbox();
-app.whenReady().then(createWindow);
+app.whenReady().then(() => {
+  serveAppScheme();
+  return createWindow();
+});
 app.on('window-all-closed', () => app.quit());

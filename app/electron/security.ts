@@ -5,6 +5,7 @@
  * allow-list and only through the system browser.
  */
 import type { BrowserWindowConstructorOptions, Session, WebContents } from 'electron';
+import { APP_HOST, APP_ORIGIN, APP_SCHEME } from './protocol.ts';
 
 export function webPreferences(preloadPath: string): NonNullable<BrowserWindowConstructorOptions['webPreferences']> {
   return {
@@ -50,14 +51,11 @@ export function isAllowedExternal(url: string): boolean {
   }
 }
 
-/** True for the app's own pages (loaded from the packaged renderer folder). */
-export function isAppUrl(url: string, appRoot: string): boolean {
+/** True for the app's own pages (served by the app:// scheme from the renderer build). */
+export function isAppUrl(url: string): boolean {
   try {
     const u = new URL(url);
-    if (u.protocol !== 'file:') return false;
-    const path = decodeURIComponent(u.pathname);
-    const root = appRoot.replace(/\\/g, '/');
-    return path.startsWith(root.startsWith('/') ? root : `/${root}`);
+    return u.protocol === `${APP_SCHEME}:` && u.host === APP_HOST;
   } catch {
     return false;
   }
@@ -72,18 +70,18 @@ export function hardenSession(session: Session): void {
   });
   // nothing remote is ever loaded
   session.webRequest.onBeforeRequest((details, callback) => {
-    const ok = /^(file|devtools|blob|data):/.test(details.url);
+    const ok = details.url.startsWith(`${APP_ORIGIN}/`) || /^(devtools|blob|data):/.test(details.url);
     callback({ cancel: !ok });
   });
 }
 
 /** Block navigation away from the app and new windows; allow-listed links go to the system browser. */
-export function hardenContents(contents: WebContents, appRoot: string, openExternal: (url: string) => void): void {
+export function hardenContents(contents: WebContents, openExternal: (url: string) => void): void {
   contents.on('will-navigate', (event, url) => {
-    if (!isAppUrl(url, appRoot)) event.preventDefault();
+    if (!isAppUrl(url)) event.preventDefault();
   });
   contents.on('will-redirect', (event, url) => {
-    if (!isAppUrl(url, appRoot)) event.preventDefault();
+    if (!isAppUrl(url)) event.preventDefault();
   });
   contents.on('will-attach-webview', (event) => event.preventDefault());
   contents.setWindowOpenHandler(({ url }) => {

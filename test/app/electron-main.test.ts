@@ -6,10 +6,11 @@ import type { MenuItemConstructorOptions } from 'electron';
 import { FileGrants } from '../../app/electron/grants.ts';
 import { registerIpc } from '../../app/electron/ipc.ts';
 import { menuTemplate } from '../../app/electron/menu.ts';
+import { resolveAppUrl } from '../../app/electron/protocol.ts';
 import { CONTENT_SECURITY_POLICY, hardenContents, hardenSession, isAllowedExternal, webPreferences } from '../../app/electron/security.ts';
 
 const APP_ROOT = '/opt/sweepbook/dist/renderer';
-const appEvent = { senderFrame: { url: `file://${APP_ROOT}/index.html` } } as never;
+const appEvent = { senderFrame: { url: 'app://sweepbook/index.html' } } as never;
 const foreignEvent = { senderFrame: { url: 'https://example.com/' } } as never;
 
 describe('window security settings (DESIGN §5)', () => {
@@ -33,12 +34,16 @@ describe('window security settings (DESIGN §5)', () => {
       setWindowOpenHandler: (fn: typeof openHandler) => (openHandler = fn),
     };
     const opened: string[] = [];
-    hardenContents(contents as never, APP_ROOT, (u) => opened.push(u));
+    hardenContents(contents as never, (u) => opened.push(u));
     const prevent = vi.fn();
     listeners['will-navigate']!({ preventDefault: prevent }, 'https://evil.example/');
     expect(prevent).toHaveBeenCalledTimes(1);
-    listeners['will-navigate']!({ preventDefault: prevent }, `file://${APP_ROOT}/index.html#plots`);
+    listeners['will-navigate']!({ preventDefault: prevent }, 'app://sweepbook/index.html#plots');
     expect(prevent).toHaveBeenCalledTimes(1);
+    listeners['will-navigate']!({ preventDefault: prevent }, `file://${APP_ROOT}/index.html`);
+    expect(prevent).toHaveBeenCalledTimes(2);
+    listeners['will-navigate']!({ preventDefault: prevent }, 'app://sweepbook.evil/index.html');
+    expect(prevent).toHaveBeenCalledTimes(3);
     expect(openHandler({ url: 'https://evil.example/' })).toEqual({ action: 'deny' });
     expect(openHandler({ url: 'https://www.nist.gov/pml/special-publication-811' })).toEqual({ action: 'deny' });
     expect(opened).toEqual(['https://www.nist.gov/pml/special-publication-811']);
@@ -60,8 +65,21 @@ describe('window security settings (DESIGN §5)', () => {
     const r = vi.fn();
     before({ url: 'https://cdn.example/x.js' }, r);
     expect(r).toHaveBeenCalledWith({ cancel: true });
-    before({ url: 'file:///opt/sweepbook/dist/renderer/app.js' }, r);
+    before({ url: 'app://sweepbook/assets/index.js' }, r);
     expect(r).toHaveBeenLastCalledWith({ cancel: false });
+    before({ url: 'file:///etc/passwd' }, r);
+    expect(r).toHaveBeenLastCalledWith({ cancel: true });
+  });
+});
+
+describe('app:// scheme', () => {
+  it('maps app://sweepbook/ paths into the renderer folder and refuses escapes and other hosts', () => {
+    expect(resolveAppUrl('app://sweepbook/', APP_ROOT)).toEqual({ path: `${APP_ROOT}/index.html`, type: 'text/html; charset=utf-8' });
+    expect(resolveAppUrl('app://sweepbook/assets/x.js', APP_ROOT)?.type).toContain('javascript');
+    expect(resolveAppUrl('app://sweepbook/..%2F..%2Fpackage.json', APP_ROOT)).toBeUndefined();
+    expect(resolveAppUrl('app://sweepbook/%00', APP_ROOT)).toBeUndefined();
+    expect(resolveAppUrl('app://other/index.html', APP_ROOT)).toBeUndefined();
+    expect(resolveAppUrl('file:///opt/sweepbook/dist/renderer/index.html', APP_ROOT)).toBeUndefined();
   });
 });
 
@@ -96,7 +114,6 @@ describe('IPC handlers', () => {
       window: () => undefined,
       grants,
       recent: { list: async () => [], add: async () => undefined },
-      appRoot: APP_ROOT,
       sampleCampaignPath: join(dir, 'none.json'),
       setDirty: vi.fn(),
       print: vi.fn(),
