@@ -3,7 +3,7 @@
  * menu, dialogs and file access behind validated IPC (ipc.ts). Bundled to dist/electron/main.cjs by
  * electron.config.ts.
  */
-import { app, BrowserWindow, dialog, ipcMain, Menu, net, protocol, shell } from 'electron';
+import { app, BrowserWindow, dialog, ipcMain, Menu, net, protocol, session, shell } from 'electron';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import type { MenuCommand } from '../../core/host.ts';
@@ -37,7 +37,7 @@ async function buildMenu(recent: ReturnType<typeof recentList>) {
 async function createWindow() {
   const grants = new FileGrants();
   const recent = recentList(join(app.getPath('userData'), 'recent-campaigns.json'));
-  hardenSession((await import('electron')).session.defaultSession);
+  hardenSession(session.defaultSession);
   win = new BrowserWindow({
     width: 1400,
     height: 900,
