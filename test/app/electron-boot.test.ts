@@ -10,7 +10,7 @@ import { buildElectron, electronBuild } from '../../electron.config.ts';
 describe('main process boot (electron mocked)', () => {
   it('opens one window with isolation, sandbox and no Node, on app://sweepbook, with the menu set', async () => {
     await buildElectron();
-    const calls: Record<string, unknown[]> = {};
+    const calls: Record<string, unknown[][]> = {};
     const record = (name: string) => (...args: unknown[]) => {
       (calls[name] ??= []).push(args);
     };
