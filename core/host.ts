@@ -17,8 +17,11 @@ export interface OpenedCampaign {
   id: string;
   name: string;
   text: string;
-  /** Run files the campaign names, resolved by the host relative to the campaign (id null when missing). */
-  runs: { file: string; id: string | null; sha256: string | null }[];
+  /**
+   * Run files the campaign names, resolved by the host relative to the campaign (id null when missing);
+   * `size` in bytes where the host knows it (optional: it only drives the reading progress bar).
+   */
+  runs: { file: string; id: string | null; sha256: string | null; size?: number }[];
   /** Set when the campaign could not be read and a backup exists. */
   backupAvailable?: boolean;
 }
@@ -59,4 +62,12 @@ export interface SweepbookHost {
   setDirty(dirty: boolean): void;
   /** Print the current view (Electron: to PDF via the print dialog; browser: window.print()). */
   print(): Promise<void>;
+  /** Optional: reopen a campaign from the recent list (an id from recentCampaigns()); null when it is gone or cancelled. */
+  openRecentCampaign?(id: string): Promise<OpenedCampaign | null>;
+  /**
+   * Optional: the backup kept beside a campaign that could not be read (`backupAvailable`), opened in its
+   * place: same id and name as the campaign, so saving writes the campaign file. Asked for only after the
+   * user agreed.
+   */
+  openCampaignBackup?(campaignId: string): Promise<OpenedCampaign | null>;
 }

@@ -14,9 +14,10 @@ import PlotsView from '../../renderer/src/components/PlotsView.vue';
 import PointTable from '../../renderer/src/components/PointTable.vue';
 import RunsPanel from '../../renderer/src/components/RunsPanel.vue';
 import SetupEditor from '../../renderer/src/components/SetupEditor.vue';
+import { ERROR_BAR_NOTE } from '../../renderer/src/logic/errorBars.ts';
 import { APP } from '../../renderer/src/state/context.ts';
 import { charts } from './chartMock.ts';
-import { appContext, openedSample, sample } from './support.ts';
+import { appContext, openedSample, sample, TEST_UNCERTAINTY } from './support.ts';
 
 vi.mock('chart.js', async () => (await import('./chartMock.ts')).default);
 
@@ -101,7 +102,7 @@ describe('plots', () => {
     const w = mountIn(DeltaView, ctx);
     await w.find('select').setValue('run-101-clean.csv');
     expect(ctx.wb.state.campaign.baseline).toBe('run-101-clean.csv');
-    const rows = w.findAll('tbody tr');
+    const rows = w.findAll('.delta-table tbody tr');
     const r103 = ctx.wb.state.entries['run-103-flap20.csv']!.result!;
     const base = ctx.wb.state.entries['run-101-clean.csv']!.result!.points.map((p) => p.alpha_deg!);
     const inside = r103.points.filter((p) => p.alpha_deg! >= Math.min(...base) && p.alpha_deg! <= Math.max(...base));
@@ -111,6 +112,96 @@ describe('plots', () => {
     const dcl = charts.find((c) => c.data.datasets[0]?.label === '103 · flap 20')!;
     // flaps add lift at a given α: the differences at low α are all positive
     expect(dcl.data.datasets[0]!.data.slice(0, 5).every((p) => p.y > 0.3)).toBe(true);
+  });
+});
+
+describe('uncertainties in the plots and the comparison', () => {
+  async function withUncertainty() {
+    const ctx = await sampleContext();
+    await ctx.wb.applySetup('KM-7 wing', { ...ctx.wb.state.campaign.setups['KM-7 wing'], uncertainty: TEST_UNCERTAINTY });
+    for (const f of ['run-102-flap10.csv', 'run-104-clean-timehistory.csv', 'run-201-section.csv']) ctx.wb.setVisible(f, false);
+    return ctx;
+  }
+  const toggle = (w: ReturnType<typeof mountIn>) => w.find('.error-bar-toggle input');
+
+  it('offers error bars only when a shown run has uncertainties', async () => {
+    const ctx = await sampleContext();
+    const w = mountIn(PlotsView, ctx);
+    await nextTick();
+    expect(toggle(w).attributes('disabled')).toBeDefined();
+    expect(w.find('.error-bar-toggle').attributes('title')).toMatch(/No run shown carries uncertainties/);
+    expect(charts.every((c) => (c.options['plugins'] as { errorBars: { show: boolean } }).errorBars.show === false)).toBe(true);
+  });
+
+  it('draws each point\'s standard uncertainties as error bars, and hides them with the toggle', async () => {
+    const ctx = await withUncertainty();
+    const w = mountIn(PlotsView, ctx);
+    await nextTick();
+    expect(toggle(w).attributes('disabled')).toBeUndefined();
+    expect(w.find('.error-bar-toggle').attributes('title')).toMatch(/k = 1/);
+    const shown = () => charts.map((c) => (c.options['plugins'] as { errorBars: { show: boolean } }).errorBars.show);
+    expect(shown()).toEqual([true, true, true, true]);
+    const p = ctx.wb.state.entries['run-101-clean.csv']!.result!.points[2]!;
+    expect(charts[0]!.data.datasets[0]!.data[2]).toEqual({ x: p.alpha_deg, y: p.cl, xu: p.u_alpha_deg, yu: p.u_cl });
+    expect(charts[1]!.data.datasets[0]!.data[2]).toEqual({ x: p.cd, y: p.cl, xu: p.u_cd, yu: p.u_cl });
+    await toggle(w).setValue(false);
+    expect(ctx.wb.state.errorBars).toBe(false);
+    expect(shown()).toEqual([false, false, false, false]);
+    expect(w.findAll('.plot-panel').map((f) => f.attributes('data-error-bars'))).toEqual(['off', 'off', 'off', 'off']);
+  });
+
+  it('shows each difference against the baseline with u(Δ), in the table and as error bars', async () => {
+    const ctx = await withUncertainty();
+    const w = mountIn(DeltaView, ctx);
+    await w.find('select').setValue('run-101-clean.csv');
+    const head = w.findAll('.delta-table thead th').map((h) => h.text());
+    expect(head).toEqual(['Run', 'α [deg]', 'ΔCL [–]', 'u(ΔCL) [–]', 'ΔCD [–]', 'u(ΔCD) [–]', 'ΔCm [–]', 'u(ΔCm) [–]']);
+    // the first difference by hand: the baseline's u(CL) interpolated linearly at the run's α, combined
+    // with the run's: u(Δ) = √(u_run² + u_base²) (JCGM 100:2008 eq. 10, independent runs)
+    const run = ctx.wb.state.entries['run-103-flap20.csv']!.result!.points;
+    const base = [...ctx.wb.state.entries['run-101-clean.csv']!.result!.points].sort((a, b) => a.alpha_deg! - b.alpha_deg!);
+    const first = [...run].sort((a, b) => a.alpha_deg! - b.alpha_deg!).find((p) => p.alpha_deg! >= base[0]!.alpha_deg!)!;
+    const hi = base.findIndex((p) => p.alpha_deg! >= first.alpha_deg!);
+    const [b0, b1] = [base[hi - 1]!, base[hi]!];
+    const t = (first.alpha_deg! - b0.alpha_deg!) / (b1.alpha_deg! - b0.alpha_deg!);
+    const uBase = b0.u_cl! + t * (b1.u_cl! - b0.u_cl!);
+    const cells = w.findAll('.delta-table tbody tr')[0]!.findAll('td');
+    expect(cells[1]!.text()).toBe(first.alpha_deg!.toFixed(2));
+    expect(cells[3]!.text()).toBe(`± ${Math.hypot(first.u_cl!, uBase).toFixed(4)}`);
+    const dcl = charts.find((c) => c.data.datasets[0]?.label === '103 · flap 20' && (c.options['scales'] as Record<string, { title: { text: string } }>)['y']!.title.text === 'ΔCL [–]')!;
+    expect(dcl.data.datasets[0]!.data[0]!).toMatchObject({ x: first.alpha_deg, yu: Math.hypot(first.u_cl!, uBase) });
+    expect((dcl.options['plugins'] as { errorBars: { show: boolean } }).errorBars.show).toBe(true);
+    // the fitted characteristics against the baseline's, with the fits' standard errors combined
+    const f103 = ctx.wb.state.entries['run-103-flap20.csv']!.result!.fit;
+    const f101 = ctx.wb.state.entries['run-101-clean.csv']!.result!.fit;
+    const slope = w.find('tr[data-fit-delta="cl_alpha_per_deg"]').findAll('td');
+    expect(slope[2]!.text()).toBe((f103.cl_alpha_per_deg! - f101.cl_alpha_per_deg!).toFixed(5));
+    expect(slope[3]!.text()).toBe(`± ${Math.hypot(f103.cl_alpha_stderr_per_deg!, f101.cl_alpha_stderr_per_deg!).toFixed(5)}`);
+    expect(w.find('tr[data-fit-delta="cl_max"]').findAll('td')[3]!.text()).toMatch(/^— no standard error from the fit; u\(CL\) at the highest points/);
+  });
+
+  it('exports a plot with its error bars and a footer line saying what they are', async () => {
+    const ctx = await withUncertainty();
+    charts.length = 0;
+    await ctx.exports.exportPlotPng('ld-alpha');
+    const image = charts.at(-1)!;
+    const plugins = image.options['plugins'] as { errorBars: { show: boolean }; paperFooter: { lines: string[] } };
+    expect(plugins.errorBars.show).toBe(true);
+    expect(plugins.paperFooter.lines.at(-1)).toBe(ERROR_BAR_NOTE);
+    expect(ctx.host.exported.at(-1)!.name).toMatch(/-ld-alpha\.png$/);
+    // switched off in the window, off in the image too
+    ctx.wb.state.errorBars = false;
+    await ctx.exports.exportPlotPng('ld-alpha');
+    const plain = charts.at(-1)!.options['plugins'] as { errorBars: { show: boolean }; paperFooter: { lines: string[] } };
+    expect(plain.errorBars.show).toBe(false);
+    expect(plain.paperFooter.lines).not.toContain(ERROR_BAR_NOTE);
+  });
+
+  it('leaves the u(Δ) columns out when the runs carry no uncertainties', async () => {
+    const ctx = await sampleContext();
+    const w = mountIn(DeltaView, ctx);
+    await w.find('select').setValue('run-101-clean.csv');
+    expect(w.findAll('.delta-table thead th').map((h) => h.text())).toEqual(['Run', 'α [deg]', 'ΔCL [–]', 'ΔCD [–]', 'ΔCm [–]']);
   });
 });
 

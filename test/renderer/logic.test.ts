@@ -93,7 +93,7 @@ describe('differences against a baseline', () => {
 
   it('merges repeated angles of a return sweep before interpolating', () => {
     const c = curveOf([pt(0, 0.1), pt(2, 0.3), pt(2, 0.5), pt(0, 0.3)], (p) => p.cl);
-    expect(c).toEqual({ alpha: [0, 2], value: [0.2, 0.4] });
+    expect(c).toEqual({ alpha: [0, 2], value: [0.2, 0.4], u: [null, null] });
     expect(interpolate(c, 1)).toBeCloseTo(0.3, 12);
     expect(interpolate(c, 2.5)).toBeNull();
   });

@@ -18,6 +18,9 @@ import type { FromWorker, ToWorker } from '../../renderer/src/worker/protocol.ts
 export const ROOT = resolve(__dirname, '../..');
 export const SAMPLES = join(ROOT, 'sample-runs');
 
+/** Instrument standard uncertainties (k = 1) for the tests: invented, of the order a small tunnel's instruments have. */
+export const TEST_UNCERTAINTY = { dp_pitot_pa: 1.5, p_static_pa: 20, t_total_c: 0.2, rh_pct: 2, force_n: 0.3, moment_nm: 0.02, alpha_deg: 0.05, area_rel: 0.002, chord_rel: 0.002 };
+
 export function sample(name: string): string {
   return readFileSync(join(SAMPLES, name), 'utf8');
 }

@@ -44,6 +44,41 @@ describe('workbench', () => {
     expect(ctx.wb.state.campaign.runs).toEqual([]);
   });
 
+  it('offers the backup of a campaign it cannot read, where the host can open it, and opens it unsaved', async () => {
+    const questions: string[] = [];
+    const ctx = appContext(fakeHost(), async (q) => {
+      questions.push(q);
+      return true;
+    });
+    const good = await openedSample(ctx.host);
+    const asked: string[] = [];
+    ctx.host.openCampaignBackup = async (id) => {
+      asked.push(id);
+      return { ...good, id: 'c9', name: 'broken.json', backupAvailable: true };
+    };
+    ctx.host.nextCampaign = { id: 'c9', name: 'broken.json', text: '{"format":"sweepbook-campaign"', runs: [], backupAvailable: true };
+    await ctx.wb.openCampaign();
+    expect(questions.length).toBe(1);
+    expect(questions[0]).toMatch(/^broken\.json: .*\n\nThe previous version of the campaign is kept beside it as a backup\. Open the backup instead\?/s);
+    expect(asked).toEqual(['c9']);
+    expect(ctx.wb.state.campaign.runs.length).toBe(5);
+    expect(ctx.wb.state.entries['run-101-clean.csv']!.status).toBe('ready');
+    // saving goes to the campaign file (the backup came with its id), and is still to be done
+    expect(ctx.wb.state.campaignId).toBe('c9');
+    expect(ctx.wb.dirty.value).toBe(true);
+    expect(ctx.wb.state.banners.at(-1)!.text).toMatch(/^broken\.json could not be read \(.*\); its backup was opened instead\. Save to make it the campaign again\.$/);
+
+    // declined: nothing changes, and the message still says a backup exists
+    const declined = appContext(fakeHost(), async () => false);
+    declined.host.openCampaignBackup = async () => {
+      throw new Error('not to be called');
+    };
+    declined.host.nextCampaign = { id: 'c9', name: 'broken.json', text: '{', runs: [], backupAvailable: true };
+    await declined.wb.openCampaign();
+    expect(declined.wb.state.banners[0]!.text).toMatch(/A backup of the campaign exists beside it\. Nothing was changed\.$/);
+    expect(declined.wb.state.campaign.runs).toEqual([]);
+  });
+
   it('tracks unsaved changes and tells the host', async () => {
     const ctx = appContext();
     ctx.host.nextCampaign = await openedSample(ctx.host);

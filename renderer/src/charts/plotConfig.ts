@@ -1,5 +1,6 @@
 /** Chart.js configurations for the plots: overlaid runs, titled axes with units, read-out on hover. */
 import type { ChartConfiguration, ChartDataset, TooltipItem } from 'chart.js';
+import type { PlotPoint } from '../logic/errorBars.ts';
 import type { SeriesStyle } from '../logic/palette.ts';
 import type { Range } from '../logic/zoom.ts';
 import { FOOTER_LINE_PX } from './plugins.ts';
@@ -7,7 +8,8 @@ import { FOOTER_LINE_PX } from './plugins.ts';
 export interface Series {
   label: string;
   style: SeriesStyle;
-  points: { x: number; y: number }[];
+  /** Points with their standard uncertainties where known (drawn as error bars when they are shown). */
+  points: PlotPoint[];
   /** Draw the points joined in order (true) or as markers only. */
   joined?: boolean;
 }
@@ -43,8 +45,23 @@ export function dataset(s: Series): ChartDataset<'scatter'> {
   };
 }
 
-/** On screen the legend is the panel's own (HTML); an exported image draws it on the canvas. */
-export function plotConfig(axes: AxesSpec, series: readonly Series[], limits: Limits = {}, footer: string[] = [], canvasLegend = footer.length > 0): ChartConfiguration<'scatter'> {
+/** "0.5123 ± 0.0031" for a read-out, the uncertainty only where the point has one. */
+export function readOut(value: number, u: number | undefined, decimals: number): string {
+  return u === undefined ? value.toFixed(decimals) : `${value.toFixed(decimals)} ± ${u.toFixed(decimals)}`;
+}
+
+/**
+ * On screen the legend is the panel's own (HTML); an exported image draws it on the canvas. With
+ * `errorBars` the points' standard uncertainties are drawn (plugins.ts).
+ */
+export function plotConfig(
+  axes: AxesSpec,
+  series: readonly Series[],
+  limits: Limits = {},
+  footer: string[] = [],
+  canvasLegend = footer.length > 0,
+  errorBars = false,
+): ChartConfiguration<'scatter'> {
   return {
     type: 'scatter',
     data: { datasets: series.map(dataset) },
@@ -62,11 +79,14 @@ export function plotConfig(axes: AxesSpec, series: readonly Series[], limits: Li
         legend: { display: canvasLegend, position: 'bottom', labels: { usePointStyle: true, boxHeight: 7, padding: 14 } },
         tooltip: {
           callbacks: {
-            label: (item: TooltipItem<'scatter'>) =>
-              `${item.dataset.label}: ${axes.xName} = ${item.parsed.x!.toFixed(axes.xDecimals)}, ${axes.yName} = ${item.parsed.y!.toFixed(axes.yDecimals)}`,
+            label: (item: TooltipItem<'scatter'>) => {
+              const raw = item.raw as PlotPoint;
+              return `${item.dataset.label}: ${axes.xName} = ${readOut(item.parsed.x!, raw.xu, axes.xDecimals)}, ${axes.yName} = ${readOut(item.parsed.y!, raw.yu, axes.yDecimals)}`;
+            },
           },
         },
         paperFooter: footer.length ? { lines: footer } : undefined,
+        errorBars: { show: errorBars },
       },
     },
   };

@@ -1,41 +1,55 @@
 /**
- * Differences against a baseline run. The baseline curve is interpolated linearly in α at each angle of
- * the compared run that lies inside the baseline's α range; angles outside it get no difference (no
- * extrapolation). Points of the baseline at equal α are averaged first so the interpolation is defined.
+ * Differences against a baseline run, each with its standard uncertainty. The baseline curve is
+ * interpolated linearly in α at each angle of the compared run that lies inside the baseline's α range;
+ * angles outside it get no difference (no extrapolation). Points of the baseline at equal α are averaged
+ * first so the interpolation is defined.
  */
-import type { PointResult } from '../../../core/reduce.ts';
+import type { FitResult } from '../../../core/fit.ts';
+import type { PointResult, ReductionResult } from '../../../core/reduce.ts';
 
 export interface Curve {
   alpha: number[];
   value: number[];
+  /** Standard uncertainty of each value (k = 1); null where a point carries none. */
+  u: (number | null)[];
 }
 
-/** A coefficient against α, sorted by α, equal angles merged by their mean; nulls dropped. */
-export function curveOf(points: readonly PointResult[], pick: (p: PointResult) => number | null): Curve {
-  const pairs = points
-    .map((p) => [p.alpha_deg, pick(p)] as const)
-    .filter((xy): xy is readonly [number, number] => xy[0] !== null && xy[1] !== null && Number.isFinite(xy[0]) && Number.isFinite(xy[1]))
-    .sort((a, b) => a[0] - b[0]);
+/**
+ * A coefficient against α, sorted by α, equal angles merged by their mean; nulls dropped. The merged
+ * value's uncertainty is the root-mean-square of the repeats' (not divided by √m: most of a point's
+ * uncertainty is the instruments', which repeats share), null if any repeat has none.
+ */
+export function curveOf(points: readonly PointResult[], pick: (p: PointResult) => number | null, pickU: (p: PointResult) => number | null = () => null): Curve {
+  const rows = points
+    .map((p) => ({ a: p.alpha_deg, v: pick(p), u: pickU(p) }))
+    .filter((r): r is { a: number; v: number; u: number | null } => r.a !== null && r.v !== null && Number.isFinite(r.a) && Number.isFinite(r.v))
+    .sort((x, y) => x.a - y.a);
   const alpha: number[] = [];
   const value: number[] = [];
+  const u: (number | null)[] = [];
   let i = 0;
-  while (i < pairs.length) {
+  while (i < rows.length) {
     let j = i;
     let sum = 0;
-    while (j < pairs.length && pairs[j]![0] === pairs[i]![0]) sum += pairs[j++]![1];
-    alpha.push(pairs[i]![0]);
+    let sumU2: number | null = 0;
+    while (j < rows.length && rows[j]!.a === rows[i]!.a) {
+      const r = rows[j++]!;
+      sum += r.v;
+      sumU2 = sumU2 !== null && r.u !== null && Number.isFinite(r.u) ? sumU2 + r.u * r.u : null;
+    }
+    alpha.push(rows[i]!.a);
     value.push(sum / (j - i));
+    u.push(sumU2 === null ? null : Math.sqrt(sumU2 / (j - i)));
     i = j;
   }
-  return { alpha, value };
+  return { alpha, value, u };
 }
 
-/** Linear interpolation y(x) on a curve sorted by α; null outside its range. */
-export function interpolate(curve: Curve, x: number): number | null {
-  const a = curve.alpha;
+/** The neighbours of x on a sorted α list and the fraction of the way between them; null outside. */
+function bracket(a: readonly number[], x: number): { lo: number; hi: number; t: number } | null {
   const n = a.length;
   if (n === 0 || x < a[0]! || x > a[n - 1]!) return null;
-  if (n === 1) return curve.value[0]!;
+  if (n === 1) return { lo: 0, hi: 0, t: 0 };
   let lo = 0;
   let hi = n - 1;
   while (hi - lo > 1) {
@@ -43,8 +57,39 @@ export function interpolate(curve: Curve, x: number): number | null {
     if (a[mid]! <= x) lo = mid;
     else hi = mid;
   }
-  const t = (x - a[lo]!) / (a[hi]! - a[lo]!);
-  return curve.value[lo]! + t * (curve.value[hi]! - curve.value[lo]!);
+  return { lo, hi, t: (x - a[lo]!) / (a[hi]! - a[lo]!) };
+}
+
+/** Linear interpolation y(x) on a curve sorted by α; null outside its range. */
+export function interpolate(curve: Curve, x: number): number | null {
+  const b = bracket(curve.alpha, x);
+  if (!b) return null;
+  return curve.value[b.lo]! + b.t * (curve.value[b.hi]! - curve.value[b.lo]!);
+}
+
+/**
+ * The uncertainty of the interpolated value, interpolated linearly like the value:
+ * u(x) = (1 − t)·u_lo + t·u_hi. That is the propagation for fully correlated neighbours, never less than
+ * the uncorrelated √((1 − t)²u_lo² + t²u_hi²): the conservative choice, since the neighbours share the
+ * instruments. Null outside the range or where a neighbour has none.
+ */
+export function interpolateUncertainty(curve: Curve, x: number): number | null {
+  const b = bracket(curve.alpha, x);
+  if (!b) return null;
+  const lo = curve.u[b.lo] ?? null;
+  const hi = curve.u[b.hi] ?? null;
+  if (lo === null || hi === null) return null;
+  return (1 - b.t) * lo + b.t * hi;
+}
+
+/**
+ * Standard uncertainty of a difference of two independent quantities, y = a − b: by the GUM law of
+ * propagation (JCGM 100:2008 eq. 10) with sensitivities +1 and −1, u(y) = √(u(a)² + u(b)²). Null when
+ * either is unknown.
+ */
+export function differenceUncertainty(ua: number | null, ub: number | null): number | null {
+  if (ua === null || ub === null || !Number.isFinite(ua) || !Number.isFinite(ub)) return null;
+  return Math.hypot(ua, ub);
 }
 
 export type DeltaKey = 'cl' | 'cd' | 'cm';
@@ -54,18 +99,87 @@ export interface DeltaRow {
   value: number;
   baseline: number;
   delta: number;
+  /** u(Δ) = √(u_run² + u_baseline²), k = 1, the runs taken as independent; null without uncertainties. */
+  u: number | null;
 }
 
-/** Δ = run − baseline(α) at each of the run's angles inside the baseline's α range. */
+const U_KEY = { cl: 'u_cl', cd: 'u_cd', cm: 'u_cm' } as const;
+
+/** Δ = run − baseline(α) at each of the run's angles inside the baseline's α range, with u(Δ). */
 export function deltas(run: readonly PointResult[], baseline: readonly PointResult[], key: DeltaKey): DeltaRow[] {
-  const base = curveOf(baseline, (p) => p[key]);
-  const own = curveOf(run, (p) => p[key]);
+  const pickU = (p: PointResult) => p[U_KEY[key]] ?? null;
+  const base = curveOf(baseline, (p) => p[key], pickU);
+  const own = curveOf(run, (p) => p[key], pickU);
   const rows: DeltaRow[] = [];
   own.alpha.forEach((alpha, i) => {
     const b = interpolate(base, alpha);
     if (b === null) return;
     const value = own.value[i]!;
-    rows.push({ alpha, value, baseline: b, delta: value - b });
+    rows.push({ alpha, value, baseline: b, delta: value - b, u: differenceUncertainty(own.u[i] ?? null, interpolateUncertainty(base, alpha)) });
   });
   return rows;
+}
+
+/** A fitted characteristic compared with the baseline's: Δ with u(Δ) from the two fits' standard errors. */
+export interface FitDelta {
+  key: keyof FitResult;
+  label: string;
+  unit: string;
+  decimals: number;
+  run: number | null;
+  baseline: number | null;
+  delta: number | null;
+  /** √(se_run² + se_baseline²), the fits independent; null where a fit gives no standard error. */
+  u: number | null;
+  /** Why there is no u(Δ), where that needs saying. */
+  note: string | null;
+}
+
+interface FitDeltaSpec {
+  key: keyof FitResult;
+  stderr: keyof FitResult | null;
+  label: string;
+  unit: string;
+  decimals: number;
+}
+
+export const FIT_DELTAS: readonly FitDeltaSpec[] = [
+  { key: 'cl_max', stderr: null, label: 'CLmax', unit: '–', decimals: 4 },
+  { key: 'cl_alpha_per_deg', stderr: 'cl_alpha_stderr_per_deg', label: 'Lift-curve slope dCL/dα', unit: '1/deg', decimals: 5 },
+  { key: 'alpha_zero_lift_deg', stderr: 'alpha_zero_lift_stderr_deg', label: 'Zero-lift angle α₀', unit: 'deg', decimals: 3 },
+  { key: 'cd0', stderr: 'cd0_stderr', label: 'CD0', unit: '–', decimals: 5 },
+  { key: 'k_induced', stderr: 'k_induced_stderr', label: 'k in CD = CD0 + k·CL²', unit: '–', decimals: 5 },
+];
+
+function numberOrNull(v: unknown): number | null {
+  return typeof v === 'number' && Number.isFinite(v) ? v : null;
+}
+
+/** u(CL) of the point with the highest CL (shown beside ΔCLmax, which has no standard error of its own). */
+export function uClAtPeak(points: readonly PointResult[]): number | null {
+  let best: PointResult | undefined;
+  for (const p of points) if (p.cl !== null && (best === undefined || p.cl > best.cl!)) best = p;
+  return best?.u_cl ?? null;
+}
+
+/** The fitted characteristics of a run against the baseline's, with the standard errors the fits give. */
+export function fitDeltas(run: ReductionResult, baseline: ReductionResult): FitDelta[] {
+  return FIT_DELTAS.map((spec) => {
+    const a = numberOrNull(run.fit[spec.key]);
+    const b = numberOrNull(baseline.fit[spec.key]);
+    const delta = a !== null && b !== null ? a - b : null;
+    let u: number | null = null;
+    let note: string | null = null;
+    if (spec.stderr) {
+      u = delta === null ? null : differenceUncertainty(numberOrNull(run.fit[spec.stderr]), numberOrNull(baseline.fit[spec.stderr]));
+    } else {
+      const ur = uClAtPeak(run.points);
+      const ub = uClAtPeak(baseline.points);
+      note =
+        ur !== null && ub !== null
+          ? `no standard error from the fit; u(CL) at the highest points: ${ur.toFixed(4)} (run), ${ub.toFixed(4)} (baseline)`
+          : 'no standard error from the fit';
+    }
+    return { key: spec.key, label: spec.label, unit: spec.unit, decimals: spec.decimals, run: a, baseline: b, delta, u, note };
+  });
 }

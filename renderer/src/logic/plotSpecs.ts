@@ -4,6 +4,7 @@
  * so the un-suffixed fields serve both.
  */
 import type { PointResult } from '../../../core/reduce.ts';
+import { ldUncertainty, withUncertainty, type PlotPoint } from './errorBars.ts';
 
 export type PlotId = 'cl-alpha' | 'cd-cl' | 'cm-alpha' | 'ld-alpha';
 
@@ -22,6 +23,8 @@ export interface PlotSpec {
   xName: string;
   yName: string;
   value(p: PointResult): { x: number | null; y: number | null };
+  /** Standard uncertainties (k = 1) along x and y; null where the point carries none. */
+  uncertainty(p: PointResult): { x: number | null; y: number | null };
 }
 
 export const PLOTS: readonly PlotSpec[] = [
@@ -33,6 +36,7 @@ export const PLOTS: readonly PlotSpec[] = [
     xName: 'α',
     yName: 'CL',
     value: (p) => ({ x: p.alpha_deg, y: p.cl }),
+    uncertainty: (p) => ({ x: p.u_alpha_deg ?? null, y: p.u_cl ?? null }),
   },
   {
     id: 'cd-cl',
@@ -42,6 +46,7 @@ export const PLOTS: readonly PlotSpec[] = [
     xName: 'CD',
     yName: 'CL',
     value: (p) => ({ x: p.cd, y: p.cl }),
+    uncertainty: (p) => ({ x: p.u_cd ?? null, y: p.u_cl ?? null }),
   },
   {
     id: 'cm-alpha',
@@ -51,6 +56,7 @@ export const PLOTS: readonly PlotSpec[] = [
     xName: 'α',
     yName: 'Cm',
     value: (p) => ({ x: p.alpha_deg, y: p.cm }),
+    uncertainty: (p) => ({ x: p.u_alpha_deg ?? null, y: p.u_cm ?? null }),
   },
   {
     id: 'ld-alpha',
@@ -60,6 +66,7 @@ export const PLOTS: readonly PlotSpec[] = [
     xName: 'α',
     yName: 'L/D',
     value: (p) => ({ x: p.alpha_deg, y: p.ld }),
+    uncertainty: (p) => ({ x: p.u_alpha_deg ?? null, y: ldUncertainty(p.cl, p.cd, p.u_cl ?? null, p.u_cd ?? null) }),
   },
 ];
 
@@ -67,12 +74,17 @@ export function plotSpec(id: PlotId): PlotSpec {
   return PLOTS.find((p) => p.id === id)!;
 }
 
-/** Points of one run on one plot, in the order measured (a return sweep shows as a loop, as it was run). */
-export function plotPoints(spec: PlotSpec, points: readonly PointResult[]): { x: number; y: number }[] {
-  const out: { x: number; y: number }[] = [];
+/**
+ * Points of one run on one plot, in the order measured (a return sweep shows as a loop, as it was run),
+ * each with its standard uncertainties where the run has them (the error bars).
+ */
+export function plotPoints(spec: PlotSpec, points: readonly PointResult[]): PlotPoint[] {
+  const out: PlotPoint[] = [];
   for (const p of points) {
     const { x, y } = spec.value(p);
-    if (x !== null && y !== null && Number.isFinite(x) && Number.isFinite(y)) out.push({ x, y });
+    if (x === null || y === null || !Number.isFinite(x) || !Number.isFinite(y)) continue;
+    const u = spec.uncertainty(p);
+    out.push(withUncertainty(x, y, u.x, u.y));
   }
   return out;
 }

@@ -18,6 +18,9 @@ export interface SetupField {
   group: string;
 }
 
+/** Standard uncertainties of the instruments (setup `uncertainty` block, docs/data-format.md). */
+export const UNCERTAINTY_GROUP = 'Instrument uncertainties (standard, k = 1; optional)';
+
 export const SETUP_FIELDS: readonly SetupField[] = [
   { group: 'Model', path: 'model.kind', label: 'Model', unit: '', kind: 'choice', choices: [{ value: '3d', label: '3D model in the closed section' }, { value: '2d', label: '2D wing spanning the section' }] },
   { group: 'Model', path: 'model.name', label: 'Name', unit: '', kind: 'text' },
@@ -39,6 +42,15 @@ export const SETUP_FIELDS: readonly SetupField[] = [
   { group: 'Wall corrections', path: 'corrections.delta', label: 'Lift-interference factor δ', unit: '–', kind: 'auto-number', help: 'empty: computed for this tunnel and model' },
   { group: 'Wall corrections', path: 'corrections.tau1', label: 'Solid-blockage tunnel factor τ1', unit: '–', kind: 'auto-number', help: 'empty: computed' },
   { group: 'Wall corrections', path: 'corrections.tau2', label: 'Streamline-curvature factor τ2', unit: '–', kind: 'auto-number', help: 'empty: computed' },
+  { group: UNCERTAINTY_GROUP, path: 'uncertainty.dp_pitot_pa', label: 'Pitot differential pressure', unit: 'Pa', kind: 'number', help: 'all empty: no uncertainties, fits unweighted' },
+  { group: UNCERTAINTY_GROUP, path: 'uncertainty.p_static_pa', label: 'Static pressure', unit: 'Pa', kind: 'number' },
+  { group: UNCERTAINTY_GROUP, path: 'uncertainty.t_total_c', label: 'Stagnation temperature', unit: 'K', kind: 'number' },
+  { group: UNCERTAINTY_GROUP, path: 'uncertainty.rh_pct', label: 'Relative humidity', unit: '% RH', kind: 'number' },
+  { group: UNCERTAINTY_GROUP, path: 'uncertainty.force_n', label: 'Each balance force', unit: 'N', kind: 'number' },
+  { group: UNCERTAINTY_GROUP, path: 'uncertainty.moment_nm', label: 'Pitching moment', unit: 'N m', kind: 'number' },
+  { group: UNCERTAINTY_GROUP, path: 'uncertainty.alpha_deg', label: 'Angle of attack', unit: 'deg', kind: 'number' },
+  { group: UNCERTAINTY_GROUP, path: 'uncertainty.area_rel', label: 'Reference area, relative', unit: '–', kind: 'number', help: 'a fraction: 0.002 for 0.2 %' },
+  { group: UNCERTAINTY_GROUP, path: 'uncertainty.chord_rel', label: 'Reference chord, relative', unit: '–', kind: 'number', help: 'a fraction: 0.002 for 0.2 %' },
 ];
 
 export type Draft = Record<string, string | boolean>;
@@ -103,6 +115,9 @@ export function setupFrom(original: unknown, draft: Draft): Record<string, unkno
   const model = out['model'] as Record<string, unknown> | undefined;
   const off = model?.['moment_ref_offset_m'] as Record<string, unknown> | undefined;
   if (off && off['x'] === undefined && off['z'] === undefined) delete model!['moment_ref_offset_m'];
+  // likewise an uncertainty block with nothing in it: no block means no uncertainties, unweighted fits
+  const u = out['uncertainty'];
+  if (u !== null && typeof u === 'object' && Object.keys(u).length === 0) delete out['uncertainty'];
   return out;
 }
 

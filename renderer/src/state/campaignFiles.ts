@@ -36,19 +36,41 @@ export function createCampaignFiles(base: CampaignState, host: Host, loader: Run
     state.campaignFile = null;
   }
 
+  /**
+   * A campaign that could not be read, with a backup beside it: offer the backup (where the host can open
+   * it). The backup comes in unsaved, so nothing is overwritten until the user saves.
+   */
+  async function offerBackup(opened: OpenedCampaign, reason: string, options: { keepId: boolean }): Promise<boolean> {
+    if (!opened.backupAvailable || !host.openCampaignBackup) return false;
+    if (!(await ask(`${reason}\n\nThe previous version of the campaign is kept beside it as a backup. Open the backup instead? The campaign file is not changed until you save.`))) return false;
+    let backup: OpenedCampaign | null;
+    try {
+      backup = await host.openCampaignBackup(opened.id);
+    } catch (err) {
+      say('error', `The backup of ${opened.name} could not be opened: ${problem(err)}`);
+      return false;
+    }
+    if (!backup || !(await adopt(backup, options, false))) return false;
+    // unsaved on purpose: the file on disk is still the unreadable one until the user saves
+    state.savedText = '';
+    say('warning', `${opened.name} could not be read (${reason}); its backup was opened instead. Save to make it the campaign again.`);
+    return true;
+  }
+
   /** Take over an opened campaign: report every missing or changed file by name, then read the rest. */
-  async function adopt(opened: OpenedCampaign, options: { keepId: boolean }): Promise<boolean> {
+  async function adopt(opened: OpenedCampaign, options: { keepId: boolean }, mayOfferBackup = true): Promise<boolean> {
     let campaign: Campaign;
     try {
       campaign = parseCampaign(opened.name, opened.text);
     } catch (err) {
+      if (mayOfferBackup && (await offerBackup(opened, problem(err), options))) return true;
       say('error', `${problem(err)}${opened.backupAvailable ? ' A backup of the campaign exists beside it.' : ''} Nothing was changed.`);
       return false;
     }
     reset(campaign, serializeCampaign(campaign));
     state.campaignId = options.keepId ? opened.id : null;
     state.campaignFile = opened.name;
-    const found = new Map<string, OpenedRun>(opened.runs.map((r) => [r.file, r as OpenedRun]));
+    const found = new Map<string, OpenedRun>(opened.runs.map((r) => [r.file, r]));
     const missing: string[] = [];
     for (const run of campaign.runs) {
       const f = found.get(run.file);

@@ -8,6 +8,7 @@ import { formatNotice, InputError } from '../../../core/messages.ts';
 import type { ReductionResult } from '../../../core/reduce.ts';
 import type { Host } from '../host/hostAccess.ts';
 import { baseName } from '../host/browserHost.ts';
+import { emptyDraft, type FullScaleDraft } from '../logic/fullScale.ts';
 import { configurationOrder, styleFor, type SeriesStyle } from '../logic/palette.ts';
 import type { ChannelStats, HeaderInfo } from '../worker/protocol.ts';
 
@@ -69,9 +70,13 @@ export interface WorkbenchState {
   editingSetup: string | null;
   /** The view shown beside the run list. */
   view: ViewId;
+  /** Draw each point's standard uncertainty (k = 1) as error bars where the runs carry them. */
+  errorBars: boolean;
+  /** What was typed into the full-scale estimate, kept while other views are shown. */
+  fullScale: FullScaleDraft;
 }
 
-export type ViewId = 'plots' | 'delta' | 'fits' | 'detail' | 'samples' | 'setup';
+export type ViewId = 'plots' | 'delta' | 'fits' | 'fullscale' | 'detail' | 'samples' | 'setup';
 
 export const RUN_KEY = (file: string) => `run:${file}`;
 export const TARE_KEY = (file: string) => `tare:${file}`;
@@ -112,6 +117,8 @@ export function createCampaignState(host: Host) {
     recent: [],
     editingSetup: null,
     view: 'plots',
+    errorBars: true,
+    fullScale: emptyDraft(),
   });
   let bannerId = 0;
 

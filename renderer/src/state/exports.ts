@@ -5,6 +5,7 @@
 import { ref } from 'vue';
 import { renderPng, dataUrlBytes } from '../charts/renderImage.ts';
 import { plotConfig } from '../charts/plotConfig.ts';
+import { anyUncertainty, ERROR_BAR_NOTE } from '../logic/errorBars.ts';
 import { fitsCsvExport, pointsCsvExport, safeName, type FitSource } from '../logic/exportTables.ts';
 import { PLOTS, plotSpec, type PlotId } from '../logic/plotSpecs.ts';
 import { provenanceFooter, provenanceLines } from '../logic/provenance.ts';
@@ -80,12 +81,16 @@ export function createExports(wb: Workbench, host: Host, limits: PlotLimits, doc
     const spec = plotSpec(id);
     const series = overlaySeries(wb, spec, wb.state.basis, files);
     const basis = wb.state.basis === 'corrected' ? 'free-air corrected' : 'as measured in the tunnel';
-    const footer = withFooter ? [provenanceFooter(await wb.provenance(files ?? wb.shownRuns.value))] : [];
+    // an exported plot shows error bars as the window does, and says what they are (the printed summary keeps its plots plain)
+    const bars = withFooter && wb.state.errorBars && anyUncertainty(series);
+    const footer = withFooter ? [provenanceFooter(await wb.provenance(files ?? wb.shownRuns.value)), ...(bars ? [ERROR_BAR_NOTE] : [])] : [];
     const cfg = plotConfig(
       { xTitle: spec.x.title, yTitle: spec.y.title, xName: spec.xName, yName: spec.yName, xDecimals: spec.x.decimals, yDecimals: spec.y.decimals },
       series,
       limits.get(id),
       footer,
+      footer.length > 0,
+      bars,
     );
     const scope = files?.length === 1 ? `run ${wb.displayName(files[0]!)}` : wb.state.campaign.name;
     cfg.options!.plugins!.title = { display: true, text: `${spec.title}, ${spec.y.title.split(' ')[0]} vs ${spec.x.title.split(' ')[0]} (${basis}) · ${scope}`, font: { size: withFooter ? 16 : 22 } };
