@@ -51,9 +51,15 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
     handlers.set(channel, handler);
     deps.ipcMain.handle(channel, handler);
   };
-  const chosen = (path: string): ChosenFile => {
+  const chosen = async (path: string): Promise<ChosenFile> => {
     const g = deps.grants.grant(path, 'read');
-    return { id: g.id, name: g.name, size: 0 };
+    let size = 0;
+    try {
+      size = (await stat(g.path)).size;
+    } catch {
+      size = 0; // reported when the file is read
+    }
+    return { id: g.id, name: g.name, size };
   };
 
   on('runs:choose', async () => {
@@ -67,7 +73,7 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
       ],
     };
     const r = win ? await deps.dialog.showOpenDialog(win, opts) : await deps.dialog.showOpenDialog(opts);
-    return r.canceled ? [] : r.filePaths.map(chosen);
+    return r.canceled ? [] : Promise.all(r.filePaths.map(chosen));
   });
 
   on('file:adopt-dropped', async (path) => {
@@ -132,7 +138,7 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
       const p = resolve(dirname(g.path), file);
       try {
         const sha = await sha256File(p);
-        runs.push({ file, id: chosen(p).id, sha256: sha, size: (await stat(p)).size } as OpenedCampaign['runs'][number]);
+        runs.push({ file, id: (await chosen(p)).id, sha256: sha, size: (await stat(p)).size });
       } catch {
         runs.push({ file, id: null, sha256: null });
       }

@@ -3,13 +3,9 @@
  * nothing else. Each method is one validated IPC call; no Node or Electron object reaches the page.
  */
 import { contextBridge, ipcRenderer, webUtils } from 'electron';
-import type { ChosenFile, MenuCommand, OpenedCampaign, SweepbookHost } from '../../core/host.ts';
+import type { ChosenFile, MenuCommand, SweepbookHost } from '../../core/host.ts';
 
-const host: SweepbookHost & {
-  adoptDroppedFile(file: File): Promise<ChosenFile>;
-  openRecentCampaign(id: string): Promise<OpenedCampaign | null>;
-  openCampaignBackup(id: string): Promise<OpenedCampaign>;
-} = {
+const host: SweepbookHost & { adoptDroppedFile(file: File): Promise<ChosenFile> } = {
   kind: 'electron',
   chooseRunFiles: () => ipcRenderer.invoke('runs:choose'),
   readChunks: async (id, onChunk, chunkBytes) => {

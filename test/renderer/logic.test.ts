@@ -274,6 +274,13 @@ describe('exports', () => {
     expect(sheets.map((x) => x.sheet)).toEqual(['Fit summary', 'Points 101', 'Provenance']);
   });
 
+  it('escapes a formula-like configuration label in the workbook, as in CSV (OWASP CSV injection)', () => {
+    const sheets = workbookSheets(prov, [{ name: '101', configuration: '=HYPERLINK("http://x","flap")', file: 'run-101-clean.csv', result, asMeasured: result }]);
+    const texts = sheets.flatMap((sh) => (sh.data as unknown[][]).flat()).map((c) => (c && typeof c === 'object' && 'value' in c ? (c as { value: unknown }).value : c)).filter((v): v is string => typeof v === 'string');
+    expect(texts.some((t) => t.includes('HYPERLINK'))).toBe(true);
+    expect(texts.filter((t) => /^[=+\-@\t\r]/.test(t))).toEqual([]);
+  });
+
   it('copies tab-separated text a spreadsheet cannot run as a formula', () => {
     expect(toTsv([['a\tb', '=1+1', 2.5, null], ['x\ny', -3, '', undefined]])).toBe("a b\t'=1+1\t2.5\t\nx y\t-3\t\t\n");
   });

@@ -3,13 +3,20 @@
  * with write-excel-file; text is always written as text (never as a formula), numbers as numbers.
  */
 import writeXlsxFile, { type Sheet, type SheetData } from 'write-excel-file/browser';
-import type { Cell } from '../../../core/csvout.ts';
+import { escapeFormula, type Cell } from '../../../core/csvout.ts';
+import { withZipTimestamps } from '../../../core/ziptime.ts';
 import { fitRows, pointRows, type FitSource } from './exportTables.ts';
 import { CAUTION, provenanceLines, type Provenance } from './provenance.ts';
 
+/** Text cells a spreadsheet might treat as a formula are escaped as in the CSV export (OWASP, "CSV Injection"); numbers stay numbers. */
+function cellValue(c: Cell): Cell | null {
+  if (c === undefined || (typeof c === 'number' && !Number.isFinite(c))) return null;
+  return typeof c === 'string' ? escapeFormula(c) : c;
+}
+
 function sheetRows(header: string[], rows: Cell[][]): SheetData {
-  const bold = header.map((h) => ({ value: h, fontWeight: 'bold' as const }));
-  return [bold, ...rows.map((r) => r.map((c) => (c === undefined || (typeof c === 'number' && !Number.isFinite(c)) ? null : c)))];
+  const bold = header.map((h) => ({ value: escapeFormula(h), fontWeight: 'bold' as const }));
+  return [bold, ...rows.map((r) => r.map(cellValue))];
 }
 
 /** Sheet names: at most 31 characters, none of : \ / ? * [ ], unique. */
@@ -35,7 +42,10 @@ export function workbookSheets(p: Provenance, sources: readonly FitSource[]): Sh
   return sheets;
 }
 
+/** The workbook's bytes; its ZIP entries are stamped with the export time, so the same content gives the same bytes. */
 export async function workbookBytes(p: Provenance, sources: readonly FitSource[]): Promise<Uint8Array> {
   const blob = await writeXlsxFile(workbookSheets(p, sources)).toBlob();
-  return new Uint8Array(await blob.arrayBuffer());
+  const when = new Date(p.exportedAt);
+  const bytes = new Uint8Array(await blob.arrayBuffer());
+  return Number.isFinite(when.getTime()) ? withZipTimestamps(bytes, when) : bytes;
 }
