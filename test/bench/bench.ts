@@ -131,7 +131,7 @@ const TASKS: Task[] = [
   },
   {
     id: 'cli-tsx',
-    label: 'CLI reduce → JSON, as installed (node bin/sweepbook.js, tsx)',
+    label: 'CLI reduce → JSON, as installed (node bin/sweepbook.js: the bundle when fresh, else tsx)',
     cmd: node,
     args: (f) => [join(ROOT, 'bin/sweepbook.js'), 'reduce', f.run, '--setup', f.setup],
     check: cliCheck,
