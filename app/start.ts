@@ -36,11 +36,15 @@ function newestMtime(dir: string): number {
   return newest;
 }
 
+/** True when the renderer build is missing or older than its sources (renderer/ and core/). */
+export function rendererIsStale(): boolean {
+  const index = join(RENDERER_OUT, 'index.html');
+  return !existsSync(index) || Math.max(newestMtime(join(ROOT, 'renderer')), newestMtime(join(ROOT, 'core'))) > statSync(index).mtimeMs;
+}
+
 /** Build the renderer when its output is missing or older than its sources. */
 export async function ensureRendererBuilt(log: (line: string) => void): Promise<void> {
-  const index = join(RENDERER_OUT, 'index.html');
-  const stale = !existsSync(index) || Math.max(newestMtime(join(ROOT, 'renderer')), newestMtime(join(ROOT, 'core'))) > statSync(index).mtimeMs;
-  if (!stale) return;
+  if (!rendererIsStale()) return;
   log('Building the interface (first start only)…');
   const { build } = await import('vite');
   await build({ configFile: join(ROOT, 'vite.config.ts'), logLevel: 'warn' });

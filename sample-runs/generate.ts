@@ -12,22 +12,16 @@ import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { dynamicPressure, machFromImpactPressure } from '../core/pitot.ts';
+import { normal } from '../test/support/random.ts';
 
 const HERE = dirname(fileURLToPath(import.meta.url));
 const NOTE = 'invented demonstration data (Sweepbook sample campaign); not a measurement';
 const GAMMA = 1.4;
 
-/** Deterministic PRNG (mulberry32) and Box–Muller normal deviates, so the files never change between runs. */
+/** Seeded normal noise of a given standard deviation, so the files never change between runs. */
 function rng(seed: number) {
-  let a = seed >>> 0;
-  const uniform = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return (sd: number) => sd * Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());
+  const z = normal(seed);
+  return (sd: number) => sd * z();
 }
 
 /** Invented tunnel-measured coefficient curves of one configuration. */

@@ -8,6 +8,7 @@
  */
 import { closeSync, existsSync, mkdirSync, openSync, renameSync, statSync, writeFileSync, writeSync } from 'node:fs';
 import { join } from 'node:path';
+import { uniform } from '../support/random.ts';
 
 export interface BenchFile {
   run: string;
@@ -40,17 +41,6 @@ export const BENCH_SETUP = {
 export const HEADER =
   'point,alpha [deg],dp_pitot [Pa],p_static [Pa],t_total [degC],rh [%],lift [N],drag [N],side [N],pitch [N m],roll [N m],yaw [N m]';
 
-/** Seeded uniform generator in [0, 1) (mulberry32, a public-domain 32-bit mixer). */
-function uniform(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** Standard normal deviates by the Box–Muller transform (Box & Muller, Ann. Math. Stat. 29 (1958) 610). */
 function normal(seed: number): () => number {

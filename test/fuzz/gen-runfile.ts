@@ -9,6 +9,7 @@
 import fc from 'fast-check';
 import { lookupUnit } from '../../core/units.ts';
 import { RUN_SETUPS, SEED_RUNS, type RunSetupKey } from './inputs.ts';
+import { uniform } from '../support/random.ts';
 
 export interface RunCase {
   /** The file's bytes, as the disk holds them. */
@@ -64,16 +65,10 @@ const PROFILES: readonly string[][] = [
   ['point', 'time', 'alpha', 'dp_pitot', 'lift', 'drag'],
 ];
 
-/** Small deterministic generator for the noise of a synthetic sweep (mulberry32). */
+/** Deterministic noise in [−0.5, 0.5) for a synthetic sweep. */
 function noise(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296 - 0.5;
-  };
+  const u = uniform(seed);
+  return () => u() - 0.5;
 }
 
 interface Sweep {

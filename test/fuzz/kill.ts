@@ -13,6 +13,7 @@ import { writeFileAtomic } from '../../app/files/atomic.ts';
 import { parseCampaign } from '../../core/campaign.ts';
 import { CAMPAIGN_VERSIONS } from './campaign-versions.ts';
 import { ROOT } from './inputs.ts';
+import { uniform as prng } from '../support/random.ts';
 
 const CHILD = fileURLToPath(new URL('./save-child.ts', import.meta.url));
 
@@ -42,16 +43,6 @@ export interface KillResult {
   failures: string[];
 }
 
-function prng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 const temps = (dir: string) => readdirSync(dir).filter((n) => n.endsWith('.tmp'));
 

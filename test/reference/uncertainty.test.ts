@@ -5,19 +5,8 @@ import { evaluate, propagatePoint, type Correct, type UncertaintySpec } from '..
 import { correct2d } from '../../core/wall2d.ts';
 import { correct3d, correctPoint3d } from '../../core/wall3d.ts';
 import { measure } from '../../core/measure.ts';
+import { normal } from '../support/random.ts';
 
-/** Seeded normal deviates (mulberry32 + Box–Muller), so the Monte Carlo is repeatable. */
-function normal(seed: number) {
-  let a = seed >>> 0;
-  const u = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return () => Math.sqrt(-2 * Math.log(1 - u())) * Math.cos(2 * Math.PI * u());
-}
 
 const DEG = Math.PI / 180;
 const spec: UncertaintySpec = { dp_pitot_pa: 1.5, p_static_pa: 30, t_total_c: 0.3, rh_pct: 3, force_n: 0.15, moment_nm: 0.02, alpha_deg: 0.03, area_rel: 0.003, chord_rel: 0.002 };
