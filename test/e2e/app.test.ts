@@ -360,10 +360,16 @@ run('Sweepbook in a real browser (browser host)', () => {
       lines.push(`${pt + 1},${(a + n * 0.01).toFixed(3)},${(610 + n).toFixed(2)},99180.0,18.6,52.0,${(8.2 * (a + 2.1) + n).toFixed(3)},${(1.6 + 0.004 * a * a + n * 0.01).toFixed(4)},${(-1.6 - 0.02 * a).toFixed(4)}`);
     }
     writeFileSync(file, lines.join('\n') + '\n');
-    // a heartbeat in the page: the longest gap between timer ticks while the file is read
+    // the browser's own measure of a blocked main thread: long tasks (> 50 ms, W3C Long Tasks API),
+    // and a heartbeat beside it: the longest gap between timer ticks while the file is read
     await page.evaluate(() => {
-      const w = window as unknown as { __gap: number; __beat: number };
+      const w = window as unknown as { __gap: number; __beat: number; __longest: number; __longObs: PerformanceObserver };
       w.__gap = 0;
+      w.__longest = 0;
+      w.__longObs = new PerformanceObserver((list) => {
+        for (const e of list.getEntries()) w.__longest = Math.max(w.__longest, e.duration);
+      });
+      w.__longObs.observe({ type: 'longtask' });
       let last = performance.now();
       w.__beat = window.setInterval(() => {
         const now = performance.now();
@@ -375,16 +381,20 @@ run('Sweepbook in a real browser (browser host)', () => {
     const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.getByRole('button', { name: 'Import runs…' }).click()]);
     await chooser.setFiles(file);
     await page.locator('tbody[data-run="run-900-long.csv"] progress').waitFor({ timeout: 20_000 });
-    await shot(page, 'reading-large-file');
     await waitReady(page, 'run-900-long.csv', 90_000);
     const seconds = (Date.now() - started) / 1000;
-    const gap = await page.evaluate(() => {
-      const w = window as unknown as { __gap: number; __beat: number };
+    const { gap, longest } = await page.evaluate(() => {
+      const w = window as unknown as { __gap: number; __beat: number; __longest: number; __longObs: PerformanceObserver };
       clearInterval(w.__beat);
-      return w.__gap;
+      w.__longObs.disconnect();
+      return { gap: w.__gap, longest: w.__longest };
     });
-    console.info(`1,000,000 rows read and reduced in ${seconds.toFixed(1)} s; longest pause of the page's timer ${gap.toFixed(0)} ms`);
-    expect(gap).toBeLessThan(400);
+    console.info(`1,000,000 rows read and reduced in ${seconds.toFixed(1)} s; longest main-thread task ${longest.toFixed(0)} ms; longest pause of the page's timer ${gap.toFixed(0)} ms`);
+    // issue 6: no main-thread block over 100 ms, first plot within 3 s; CI shares 2 cores with other
+    // suites, so the test allows twice those (the README records the figures measured alone)
+    expect(longest).toBeLessThan(200);
+    expect(seconds).toBeLessThan(6);
+    await shot(page, 'large-file-reduced');
     expect(await runStatus(page, 'run-900-long.csv')).toBe('ready');
   }, 120_000);
 
