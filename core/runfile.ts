@@ -108,7 +108,7 @@ export class RunFileReader {
   private lastKey = '';
   // a quoted record still open at the end of a line: its lines so far and where it started
   private pending: { lines: string[]; line: number } | undefined;
-  // the file's first characters, probed for binary content however the chunks arrive
+  // the file's first characters, held back until probed for binary content
   private probe = '';
   private probed = false;
 
@@ -124,7 +124,25 @@ export class RunFileReader {
       this.started = true;
       if (chunk.charCodeAt(0) === 0xfeff) chunk = chunk.slice(1);
     }
-    if (!this.probed) this.probeBinary(chunk);
+    if (this.probed) {
+      this.pushText(chunk);
+      return;
+    }
+    // the first characters are held back until they have been probed, so a binary file is refused
+    // as such however its text is chunked (and not, say, for a duplicate column found first)
+    this.probe += chunk;
+    if (this.probe.length >= PROBE_CHARS) this.releaseProbe();
+  }
+
+  /** Judge the probed characters and read them. */
+  private releaseProbe(): void {
+    const text = this.probe;
+    this.probe = '';
+    this.judgeProbe(text.slice(0, PROBE_CHARS));
+    this.pushText(text);
+  }
+
+  private pushText(chunk: string): void {
     if (chunk.length === 0) return;
     // Common case, no quotes anywhere: read the chunk where it lies. Only the line it completes is
     // joined to the carried text, so the big chunk is never copied into a concatenation.
@@ -173,7 +191,7 @@ export class RunFileReader {
   /** End of file: read what is left and return the points. Throws InputError on a file that cannot be reduced. */
   finish(): RunData {
     if (!this.started) this.fail({ line: 1, message: 'the file is empty' });
-    if (!this.probed) this.judgeProbe();
+    if (!this.probed) this.releaseProbe();
     if (this.carry.length > 0) {
       const rest = this.carry + '\n';
       this.carry = '';
@@ -214,21 +232,11 @@ export class RunFileReader {
     this.fail({ line: this.line + 1, message: `a line is longer than ${this.limits.maxLineChars} characters; this is not a run file` });
   }
 
-  /** Collect the file's first 4096 characters, whatever the chunking, and judge them once complete. */
-  private probeBinary(chunk: string): void {
-    this.probe += chunk.slice(0, PROBE_CHARS - this.probe.length);
-    const nul = this.probe.indexOf('\u0000');
-    if (nul >= 0) {
-      this.fail({ line: lineOfOffset(this.probe, nul), message: 'the file holds binary data (NUL bytes), not CSV text' });
-    }
-    if (this.probe.length >= PROBE_CHARS) this.judgeProbe();
-  }
-
-  /** Many control or replacement characters in the first characters: not UTF-8 text. */
-  private judgeProbe(): void {
+  /** NUL bytes, or many control or replacement characters, in the file's first characters: not UTF-8 text. */
+  private judgeProbe(probe: string): void {
     this.probed = true;
-    const probe = this.probe;
-    this.probe = '';
+    const nul = probe.indexOf('\u0000');
+    if (nul >= 0) this.fail({ line: lineOfOffset(probe, nul), message: 'the file holds binary data (NUL bytes), not CSV text' });
     let bad = 0;
     for (let i = 0; i < probe.length; i++) {
       const c = probe.charCodeAt(i);

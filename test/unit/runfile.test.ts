@@ -130,7 +130,7 @@ describe('run-file reader', () => {
 
   it('stops with a clear message on an absurdly long line instead of eating memory', () => {
     const r = new RunFileReader('long.csv', { limits: { maxLineChars: 1000 } });
-    expect(() => r.push('alpha,lift\n' + '1'.repeat(2000))).toThrow(/longer than 1000 characters/);
+    expect(() => r.push('alpha,lift\n' + '1'.repeat(5000))).toThrow(/long\.csv:2: a line is longer than 1000 characters/);
   });
 });
 
@@ -168,5 +168,18 @@ describe('run-file reader: quotes', () => {
     const text = 'alpha,dp_pitot,lift,drag\n1,500,10,1\n\u0000';
     expect(() => chunked(text, text.length)).toThrow(/q\.csv:3: the file holds binary data/);
     expect(() => chunked(text, 25)).toThrow(/q\.csv:3: the file holds binary data/);
+  });
+});
+
+describe('run-file reader: binary content found first', () => {
+  it('refuses a file with NUL bytes as binary even when its header has a fault that would be met earlier in small chunks', () => {
+    const text = 'alpha,lift,lift\n1,2,3\n\u0000\n';
+    for (const size of [text.length, 5, 1]) {
+      const r = new RunFileReader('b.csv');
+      expect(() => {
+        for (let i = 0; i < text.length; i += size) r.push(text.slice(i, i + size));
+        r.finish();
+      }).toThrow(/b\.csv:3: the file holds binary data/);
+    }
   });
 });
