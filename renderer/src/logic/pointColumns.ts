@@ -27,6 +27,11 @@ function num(key: keyof PointResult, header: string, group: ColumnGroup, decimal
   };
 }
 
+/** A column shown to a number of significant digits (uncertainties, blockage terms). */
+function sig(key: keyof PointResult, header: string, group: ColumnGroup, digits: number): PointColumn {
+  return { key, header, group, show: (p) => significant(p[key] as number | null, digits), value: (p) => p[key] as number | null };
+}
+
 function reynolds(key: 'reynolds' | 'reynolds_uncorrected', header: string, group: ColumnGroup): PointColumn {
   return { key, header, group, show: (p) => millions(p[key]), value: (p) => (p[key] === null ? null : p[key]! / 1e6) };
 }
@@ -47,11 +52,11 @@ export const POINT_TABLE: readonly PointColumn[] = [
   num('v_mps', 'V [m/s]', 'corrected', 2),
   num('mach', 'Mach', 'corrected', 4),
   reynolds('reynolds', 'Re [10⁶]', 'corrected'),
-  { key: 'u_alpha_deg', header: 'u(α) [deg]', group: 'uncertainty', show: (p) => significant(p.u_alpha_deg, 2), value: (p) => p.u_alpha_deg },
-  { key: 'u_cl', header: 'u(CL)', group: 'uncertainty', show: (p) => significant(p.u_cl, 2), value: (p) => p.u_cl },
-  { key: 'u_cd', header: 'u(CD)', group: 'uncertainty', show: (p) => significant(p.u_cd, 2), value: (p) => p.u_cd },
-  { key: 'u_cm', header: 'u(Cm)', group: 'uncertainty', show: (p) => significant(p.u_cm, 2), value: (p) => p.u_cm },
-  { key: 'u_q_pa', header: 'u(q) [Pa]', group: 'uncertainty', show: (p) => significant(p.u_q_pa, 2), value: (p) => p.u_q_pa },
+  sig('u_alpha_deg', 'u(α) [deg]', 'uncertainty', 2),
+  sig('u_cl', 'u(CL)', 'uncertainty', 2),
+  sig('u_cd', 'u(CD)', 'uncertainty', 2),
+  sig('u_cm', 'u(Cm)', 'uncertainty', 2),
+  sig('u_q_pa', 'u(q) [Pa]', 'uncertainty', 2),
   num('alpha_uncorrected_deg', 'α [deg]', 'measured', 3),
   num('cl_uncorrected', 'CL', 'measured', 4),
   num('cd_uncorrected', 'CD', 'measured', 5),
@@ -63,8 +68,8 @@ export const POINT_TABLE: readonly PointColumn[] = [
   num('p_static_pa', 'p [Pa]', 'flow', 0),
   celsius('t_total_k', 'T₀ [°C]'),
   num('rh_pct', 'RH [%]', 'flow', 1),
-  { key: 'eps_solid', header: 'ε solid', group: 'blockage', show: (p) => significant(p.eps_solid, 3), value: (p) => p.eps_solid },
-  { key: 'eps_wake', header: 'ε wake', group: 'blockage', show: (p) => significant(p.eps_wake, 3), value: (p) => p.eps_wake },
+  sig('eps_solid', 'ε solid', 'blockage', 3),
+  sig('eps_wake', 'ε wake', 'blockage', 3),
   num('line', 'line', 'blockage', 0),
 ];
 
