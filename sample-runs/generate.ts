@@ -11,7 +11,7 @@ import { createHash } from 'node:crypto';
 import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { dynamicPressure, machFromImpactPressure } from '../core/pitot.ts';
+import { dynamicPressure, machFromImpactPressure } from '../core/physics/pitot.ts';
 import { normal } from '../test/support/random.ts';
 
 const HERE = dirname(fileURLToPath(import.meta.url));

@@ -10,11 +10,11 @@ import { basename, resolve } from 'node:path';
 import { StringDecoder } from 'node:string_decoder';
 import { readFile, stat } from 'node:fs/promises';
 import { parseArgs } from 'node:util';
-import { pointsCsv, readRun, readSetup, reduceRun } from '../../core/engine.ts';
-import { attempt, formatNotice, InputError, type Notice } from '../../core/messages.ts';
-import { projectStallSpeed } from '../../core/projection.ts';
-import { provenanceOf, reductionTime, type InputFile, type Provenance } from '../../core/provenance.ts';
-import type { ReductionResult } from '../../core/reduce.ts';
+import { pointsCsv, readRun, readSetup, reduceRun } from '../../core/index.ts';
+import { attempt, formatNotice, InputError, type Notice } from '../../core/index.ts';
+import { projectStallSpeed } from '../../core/index.ts';
+import { provenanceOf, reductionTime, type InputFile, type Provenance } from '../../core/index.ts';
+import type { ReductionResult } from '../../core/index.ts';
 import { writeFileAtomic } from '../files/atomic.ts';
 import { VERSION } from '../version.ts';
 

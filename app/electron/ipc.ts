@@ -6,7 +6,7 @@ import { readFile, stat } from 'node:fs/promises';
 import { dirname, extname, join, resolve } from 'node:path';
 import type { BrowserWindow, Dialog, IpcMain, IpcMainInvokeEvent } from 'electron';
 import { z } from 'zod';
-import type { ChosenFile, OpenedCampaign } from '../../core/host.ts';
+import type { ChosenFile, OpenedCampaign } from '../../core/index.ts';
 import { writeFileAtomic } from '../files/atomic.ts';
 import { FileGrants, sha256File, streamText } from './grants.ts';
 import type { RecentList } from './recent.ts';

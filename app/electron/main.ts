@@ -6,7 +6,7 @@
 import { app, BrowserWindow, dialog, ipcMain, Menu, net, protocol, session, shell } from 'electron';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
-import type { MenuCommand } from '../../core/host.ts';
+import type { MenuCommand } from '../../core/index.ts';
 import { FileGrants } from './grants.ts';
 import { registerIpc, SAMPLE_CAMPAIGN_FILE } from './ipc.ts';
 import { menuTemplate } from './menu.ts';

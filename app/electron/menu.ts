@@ -1,6 +1,6 @@
 /** The native menu: campaign and run commands with the usual shortcuts, sent to the renderer as host menu commands. */
 import type { MenuItemConstructorOptions } from 'electron';
-import type { MenuCommand } from '../../core/host.ts';
+import type { MenuCommand } from '../../core/index.ts';
 
 export function menuTemplate(send: (command: MenuCommand) => void, options: { isMac: boolean; recent: { name: string; open: () => void }[] }): MenuItemConstructorOptions[] {
   const cmd = (label: string, command: MenuCommand, accelerator?: string): MenuItemConstructorOptions => ({ label, accelerator, click: () => send(command) });

@@ -3,7 +3,7 @@
  * nothing else. Each method is one validated IPC call; no Node or Electron object reaches the page.
  */
 import { contextBridge, ipcRenderer, webUtils } from 'electron';
-import type { ChosenFile, MenuCommand, SweepbookHost } from '../../core/host.ts';
+import type { ChosenFile, MenuCommand, SweepbookHost } from '../../core/index.ts';
 
 const host: SweepbookHost & { adoptDroppedFile(file: File): Promise<ChosenFile> } = {
   kind: 'electron',

@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { writeFileAtomic } from '../../app/files/atomic.ts';
-import { parseCampaign, serializeCampaign } from '../../core/campaign.ts';
+import { parseCampaign, serializeCampaign } from '../../core/formats/campaign.ts';
 import { runCli } from '../support/cli.ts';
 
 /**

@@ -4,7 +4,7 @@
  * Prints {rows, points, read_ms, cpu_ms} (cpu: user + system time of the read, steadier than wall time on a busy machine). Usage (bundled by the bench): node read-only.mjs RUN.csv
  */
 import { createReadStream } from 'node:fs';
-import { readRun } from '../../core/engine.ts';
+import { readRun } from '../../core/reduction/engine.ts';
 
 async function* chunks(path: string): AsyncGenerator<string> {
   for await (const chunk of createReadStream(path, { encoding: 'utf8', highWaterMark: 1 << 20 })) yield chunk as string;

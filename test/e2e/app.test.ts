@@ -12,10 +12,10 @@ import { join } from 'node:path';
 import readXlsx from 'read-excel-file/node';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { parseCampaign } from '../../core/campaign.ts';
-import { reduceRun, readSetup, POINT_COLUMNS } from '../../core/engine.ts';
-import type { ReductionResult } from '../../core/reduce.ts';
-import { readRunText } from '../../core/runfile.ts';
+import { parseCampaign } from '../../core/formats/campaign.ts';
+import { reduceRun, readSetup, POINT_COLUMNS } from '../../core/reduction/engine.ts';
+import type { ReductionResult } from '../../core/reduction/pipeline.ts';
+import { readRunText } from '../../core/formats/runFile.ts';
 import { ARTIFACTS, browserAvailable, openSession, ROOT, type Session } from './browserSetup.ts';
 
 const SAMPLES = join(ROOT, 'sample-runs');

@@ -10,8 +10,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { CAUTIONS, projectStallSpeed, type Projection } from '../../core/projection.ts';
-import type { ReductionResult } from '../../core/reduce.ts';
+import { CAUTIONS, projectStallSpeed, type Projection } from '../../core/fullscale/stallSpeed.ts';
+import type { ReductionResult } from '../../core/reduction/pipeline.ts';
 import { ARTIFACTS, browserAvailable, openSession, ROOT, type Session } from './browserSetup.ts';
 
 const SAMPLES = join(ROOT, 'sample-runs');

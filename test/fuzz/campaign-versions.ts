@@ -4,7 +4,7 @@
  * size and content, so that any mix or truncation of the two is told apart from either.
  */
 import { readFileSync } from 'node:fs';
-import { parseCampaign, serializeCampaign, type Campaign } from '../../core/campaign.ts';
+import { parseCampaign, serializeCampaign, type Campaign } from '../../core/formats/campaign.ts';
 
 // read directly, not through inputs.ts, to keep the saving process's start-up short
 const SAMPLE = readFileSync(new URL('../../sample-runs/sweepbook-campaign.json', import.meta.url), 'utf8');

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { readRun, readSetup, reduceRun, type ReductionResult } from '../../core/engine.ts';
-import type { Notice } from '../../core/messages.ts';
+import { readRun, readSetup, reduceRun, type ReductionResult } from '../../core/reduction/engine.ts';
+import type { Notice } from '../../core/contract/messages.ts';
 import { RUN_3D, RUN_SETUPS } from './inputs.ts';
 import { nonFinite, resultProblems } from './properties.ts';
 

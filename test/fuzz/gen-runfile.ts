@@ -7,7 +7,7 @@
  * Every choice is plain data, so a failing case prints as something a person can read and replay.
  */
 import fc from 'fast-check';
-import { lookupUnit } from '../../core/units.ts';
+import { lookupUnit } from '../../core/physics/units.ts';
 import { RUN_SETUPS, SEED_RUNS, type RunSetupKey } from './inputs.ts';
 import { uniform } from '../support/random.ts';
 

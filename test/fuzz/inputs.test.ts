@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { jsonErrorOffset } from '../../core/setup.ts';
+import { jsonErrorOffset } from '../../core/setup/schema.ts';
 import { runBatch, type BatchResult } from './batch.ts';
 
 /**

@@ -6,8 +6,8 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { windToBody } from '../../core/axes.ts';
-import { factors3d } from '../../core/wall3d.ts';
+import { windToBody } from '../../core/physics/axes.ts';
+import { factors3d } from '../../core/walls/wall3d.ts';
 
 export const ROOT = fileURLToPath(new URL('../..', import.meta.url));
 export const sample = (name: string) => join(ROOT, 'sample-runs', name);

@@ -10,7 +10,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { writeFileAtomic } from '../../app/files/atomic.ts';
-import { parseCampaign } from '../../core/campaign.ts';
+import { parseCampaign } from '../../core/formats/campaign.ts';
 import { CAMPAIGN_VERSIONS } from './campaign-versions.ts';
 import { ROOT } from './inputs.ts';
 import { uniform as prng } from '../support/random.ts';

@@ -8,7 +8,7 @@ import {
   speedOfSound,
   sutherlandViscosity,
   vapourMoleFraction,
-} from '../../core/air.ts';
+} from '../../core/physics/air.ts';
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { findLinearRange, fitPolar, type FitInput } from '../../core/fit.ts';
-import { fitLine, fitPolynomial, parabolaVertex } from '../../core/leastsquares.ts';
-import { helmboldSlope } from '../../core/wall3d.ts';
+import { findLinearRange, fitPolar, type FitInput } from '../../core/fits/characteristics.ts';
+import { fitLine, fitPolynomial, parabolaVertex } from '../../core/fits/leastSquares.ts';
+import { helmboldSlope } from '../../core/walls/wall3d.ts';
 
 const RAD = 180 / Math.PI;
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { dynamicPressure, dynamicToTotalPressureRatio, machFromImpactPressure, staticTemperature } from '../../core/pitot.ts';
+import { dynamicPressure, dynamicToTotalPressureRatio, machFromImpactPressure, staticTemperature } from '../../core/physics/pitot.ts';
 
 describe('isentropic pitot relations', () => {
   it('gives NaN for impossible pressures instead of a number', () => {

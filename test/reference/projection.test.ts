@@ -1,8 +1,8 @@
 import { resolve, join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { densityAltitude, isaAtmosphere, moistAirDensity } from '../../core/air.ts';
-import { InputError } from '../../core/messages.ts';
-import { KNOT_MPS, projectStallSpeed } from '../../core/projection.ts';
+import { densityAltitude, isaAtmosphere, moistAirDensity } from '../../core/physics/air.ts';
+import { InputError } from '../../core/contract/messages.ts';
+import { KNOT_MPS, projectStallSpeed } from '../../core/fullscale/stallSpeed.ts';
 import { runCli } from '../support/cli.ts';
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);

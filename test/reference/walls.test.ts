@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { deltaSmallSpan, liftInterferenceDelta, solidBlockageTau1, streamlineCurvatureTau2, trailingKernel } from '../../core/images.ts';
-import { correct2d, sigma2d } from '../../core/wall2d.ts';
-import { correct3d, factors3d, helmboldSlope } from '../../core/wall3d.ts';
-import type { TunnelPoint } from '../../core/walls.ts';
+import { deltaSmallSpan, liftInterferenceDelta, solidBlockageTau1, streamlineCurvatureTau2, trailingKernel } from '../../core/walls/imageSums.ts';
+import { correct2d, sigma2d } from '../../core/walls/wall2d.ts';
+import { correct3d, factors3d, helmboldSlope } from '../../core/walls/wall3d.ts';
+import type { TunnelPoint } from '../../core/walls/types.ts';
 
 const RAD = 180 / Math.PI;
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);

@@ -7,9 +7,9 @@
 import { flushPromises, mount } from '@vue/test-utils';
 import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { nextTick } from 'vue';
-import { attempt } from '../../core/messages.ts';
-import { CAUTIONS, KNOT_MPS, projectStallSpeed } from '../../core/projection.ts';
-import type { ReductionResult } from '../../core/reduce.ts';
+import { attempt } from '../../core/contract/messages.ts';
+import { CAUTIONS, KNOT_MPS, projectStallSpeed } from '../../core/fullscale/stallSpeed.ts';
+import type { ReductionResult } from '../../core/reduction/pipeline.ts';
 import FullScaleView from '../../renderer/src/components/FullScaleView.vue';
 import { checkInputs, emptyDraft, numberOf, projectRuns, SECTION_REASON, stallChanges, type FullScaleDraft } from '../../renderer/src/logic/fullScale.ts';
 import { APP } from '../../renderer/src/state/context.ts';

@@ -4,11 +4,11 @@
  * fitted-characteristic rows, column mapping, setup form, exports and clipboard text.
  */
 import { describe, expect, it } from 'vitest';
-import { readSetup, reduceRun, pointsCsv } from '../../core/engine.ts';
-import { attempt } from '../../core/messages.ts';
-import { provenanceOf } from '../../core/provenance.ts';
-import type { PointResult, ReductionResult } from '../../core/reduce.ts';
-import { readRunText } from '../../core/runfile.ts';
+import { readSetup, reduceRun, pointsCsv } from '../../core/reduction/engine.ts';
+import { attempt } from '../../core/contract/messages.ts';
+import { provenanceOf } from '../../core/formats/provenance.ts';
+import type { PointResult, ReductionResult } from '../../core/reduction/pipeline.ts';
+import { readRunText } from '../../core/formats/runFile.ts';
 import { choiceProblems, initialChoices, mappingFrom, needsMapping, type CellChoice } from '../../renderer/src/logic/columnMapping.ts';
 import { deltas, interpolate, curveOf } from '../../renderer/src/logic/delta.ts';
 import { fitHeader, fitRows, fitsCsvExport, pointsCsvExport } from '../../renderer/src/logic/exportTables.ts';

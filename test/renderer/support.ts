@@ -5,7 +5,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
-import type { ChosenFile, MenuCommand, OpenedCampaign } from '../../core/host.ts';
+import type { ChosenFile, MenuCommand, OpenedCampaign } from '../../core/contract/host.ts';
 import { EngineClient, type Transport } from '../../renderer/src/engine/engineClient.ts';
 import type { Host } from '../../renderer/src/host/hostAccess.ts';
 import type { AppContext } from '../../renderer/src/state/context.ts';

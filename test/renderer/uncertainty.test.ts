@@ -5,9 +5,9 @@
  */
 import type { Chart } from 'chart.js';
 import { describe, expect, it } from 'vitest';
-import { readSetup, reduceRun } from '../../core/engine.ts';
-import type { PointResult, ReductionResult } from '../../core/reduce.ts';
-import { readRunText } from '../../core/runfile.ts';
+import { readSetup, reduceRun } from '../../core/reduction/engine.ts';
+import type { PointResult, ReductionResult } from '../../core/reduction/pipeline.ts';
+import { readRunText } from '../../core/formats/runFile.ts';
 import { errorBars } from '../../renderer/src/charts/plugins.ts';
 import { plotConfig, readOut } from '../../renderer/src/charts/plotConfig.ts';
 import { curveOf, deltas, differenceUncertainty, fitDeltas, interpolateUncertainty, uClAtPeak } from '../../renderer/src/logic/delta.ts';

@@ -4,7 +4,7 @@
  * column mapping remembered per header, setup edits reducing again, saving, and the menu commands.
  */
 import { describe, expect, it } from 'vitest';
-import { parseCampaign } from '../../core/campaign.ts';
+import { parseCampaign } from '../../core/formats/campaign.ts';
 import { nextTick } from 'vue';
 import { appContext, fakeHost, openedSample, sample } from './support.ts';
 

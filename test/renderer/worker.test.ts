@@ -5,9 +5,9 @@
  * back-pressure holds the sender, and reductions come in both bases.
  */
 import { describe, expect, it } from 'vitest';
-import { headerSignature } from '../../core/campaign.ts';
-import { readSetup, reduceRun } from '../../core/engine.ts';
-import { readRunText } from '../../core/runfile.ts';
+import { headerSignature } from '../../core/formats/campaign.ts';
+import { readSetup, reduceRun } from '../../core/reduction/engine.ts';
+import { readRunText } from '../../core/formats/runFile.ts';
 import { EngineClient, type TextFeeder } from '../../renderer/src/engine/engineClient.ts';
 import type { FromWorker, ToWorker } from '../../renderer/src/worker/protocol.ts';
 import { inProcessTransport, sample } from './support.ts';

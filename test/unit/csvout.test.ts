@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { csvCell, escapeFormula, toCsv } from '../../core/csvout.ts';
+import { csvCell, escapeFormula, toCsv } from '../../core/formats/csvWriter.ts';
 
 describe('CSV export cells', () => {
   // OWASP "CSV Injection": cells starting with =, +, -, @, tab or carriage return are run by spreadsheets

@@ -1,4 +1,5 @@
 import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { builtinModules } from 'node:module';
 import { join, relative, resolve, sep } from 'node:path';
 import { describe, expect, it } from 'vitest';
 
@@ -30,7 +31,8 @@ export function importsOf(text: string): string[] {
   return specs;
 }
 
-const NODE_BUILTINS = /^(node:|fs$|fs\/|path$|os$|child_process$|crypto$|url$|util$|stream$|worker_threads$|module$|http$|net$)/;
+/** Every Node built-in, with or without the node: prefix and with sub-paths (fs/promises), from Node's own list. */
+const NODE_BUILTINS = { test: (spec: string) => spec.startsWith('node:') || builtinModules.includes(spec) || builtinModules.includes(spec.split('/')[0]!) };
 
 function violations(layer: string, forbidden: (spec: string, target: string) => string | undefined): string[] {
   const out: string[] = [];
@@ -69,6 +71,19 @@ describe('layering', () => {
         return undefined;
       }),
     ).toEqual([]);
+  });
+
+  it('lets app and renderer reach core only through its public entry, core/index.ts', () => {
+    const entryOnly = (spec: string, target: string) => {
+      if (target !== 'core' || !spec.startsWith('.')) return undefined;
+      return /(^|\/)core\/index\.ts$/.test(spec) ? undefined : 'import core through core/index.ts';
+    };
+    expect([...violations('app', entryOnly), ...violations('renderer', entryOnly)]).toEqual([]);
+  });
+
+  it('knows every Node built-in, so a core import of any of them fails', () => {
+    for (const spec of ['events', 'fs/promises', 'node:events', 'zlib', 'readline', 'dns', 'v8', 'perf_hooks', 'string_decoder']) expect(NODE_BUILTINS.test(spec)).toBe(true);
+    expect(NODE_BUILTINS.test('papaparse')).toBe(false);
   });
 
   it('keeps the renderer out of app', () => {

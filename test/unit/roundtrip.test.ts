@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { readRunText } from '../../core/runfile.ts';
-import { reduce } from '../../core/reduce.ts';
-import { validateSetup } from '../../core/setup.ts';
+import { readRunText } from '../../core/formats/runFile.ts';
+import { reduce } from '../../core/reduction/pipeline.ts';
+import { validateSetup } from '../../core/setup/schema.ts';
 
 /**
  * Readings synthesised from known coefficients with the textbook relations written out here

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { InputError } from '../../core/messages.ts';
-import { RunFileReader, readRunText, splitHeaderCell, detectDelimiter } from '../../core/runfile.ts';
+import { InputError } from '../../core/contract/messages.ts';
+import { RunFileReader, readRunText, splitHeaderCell, detectDelimiter } from '../../core/formats/runFile.ts';
 
 const ch = (run: ReturnType<typeof readRunText>, name: string, point = 0) => run.points[point]!.mean[run.channels.indexOf(name as never)]!;
 

@@ -2,8 +2,8 @@ import { readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { readSetup, reduceRun } from '../../core/engine.ts';
-import { RunFileReader, detectDelimiter, readRunText, type RunData } from '../../core/runfile.ts';
+import { readSetup, reduceRun } from '../../core/reduction/engine.ts';
+import { RunFileReader, detectDelimiter, readRunText, type RunData } from '../../core/formats/runFile.ts';
 import { BENCH_SETUP, runText } from '../bench/generate.ts';
 
 /**

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { fromSI, lookupUnit, normaliseUnit, toSI } from '../../core/units.ts';
+import { fromSI, lookupUnit, normaliseUnit, toSI } from '../../core/physics/units.ts';
 
 const si = (value: number, unit: string) => toSI(value, lookupUnit(unit)!);
 

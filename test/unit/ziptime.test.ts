@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import writeXlsxFile from 'write-excel-file/node';
 import readXlsxFile from 'read-excel-file/node';
-import { dosDateTime, withZipTimestamps } from '../../core/ziptime.ts';
+import { dosDateTime, withZipTimestamps } from '../../renderer/src/logic/zipTimestamps.ts';
 
 async function workbook(): Promise<Uint8Array> {
   const buffer = (await writeXlsxFile([[{ value: 'cl' }], [{ value: 0.5 }]]).toBuffer()) as Buffer;

@@ -2,7 +2,7 @@
  * The interface's side of the reduction worker: promises for reads and reductions, progress while a
  * file streams in, and back-pressure so a large file never piles up in the worker's message queue.
  */
-import type { ColumnMapping } from '../../../core/runfile.ts';
+import type { ColumnMapping } from '../../../core/index.ts';
 import type { FromWorker, ReadReply, ReduceReply, ToWorker } from '../worker/protocol.ts';
 
 export interface Transport {

@@ -3,7 +3,7 @@
  * has — file inputs, dropped files, downloads, fetch for the bundled sample and local storage for the
  * recent list. Files are held in memory as Blobs under opaque ids; nothing here ever sees a path.
  */
-import type { ChosenFile, OpenedCampaign, SweepbookHost } from '../../../core/host.ts';
+import type { ChosenFile, OpenedCampaign, SweepbookHost } from '../../../core/index.ts';
 import type { HostExtras, OpenedRun } from './hostAccess.ts';
 
 const RECENT_KEY = 'sweepbook.recentCampaigns';

@@ -2,7 +2,7 @@
  * How the renderer finds its host: the Electron preload exposes one as `window.sweepbook`; without it
  * (a plain browser, the tests, an offline install) the browser host stands in.
  */
-import type { ChosenFile, OpenedCampaign, SweepbookHost } from '../../../core/host.ts';
+import type { ChosenFile, OpenedCampaign, SweepbookHost } from '../../../core/index.ts';
 import { createBrowserHost } from './browserHost.ts';
 
 /**

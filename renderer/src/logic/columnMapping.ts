@@ -3,10 +3,10 @@
  * does not know, the user assigns each header cell a contract channel and unit. The result is core's
  * ColumnMapping, remembered in the campaign by header signature.
  */
-import { CHANNELS, CHANNEL_NAMES, isChannel, type Channel } from '../../../core/channels.ts';
-import type { Notice } from '../../../core/messages.ts';
-import type { ColumnMapping } from '../../../core/runfile.ts';
-import { lookupUnit, unitsOf } from '../../../core/units.ts';
+import { CHANNELS, CHANNEL_NAMES, isChannel, type Channel } from '../../../core/index.ts';
+import type { Notice } from '../../../core/index.ts';
+import type { ColumnMapping } from '../../../core/index.ts';
+import { lookupUnit, unitsOf } from '../../../core/index.ts';
 import type { HeaderInfo } from '../worker/protocol.ts';
 
 /** Errors a mapping can cure: an unknown or wrong unit, a required column under another name. */

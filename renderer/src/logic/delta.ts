@@ -4,8 +4,8 @@
  * angles outside it get no difference (no extrapolation). Points of the baseline at equal α are averaged
  * first so the interpolation is defined.
  */
-import type { FitResult } from '../../../core/fit.ts';
-import type { PointResult, ReductionResult } from '../../../core/reduce.ts';
+import type { FitResult } from '../../../core/index.ts';
+import type { PointResult, ReductionResult } from '../../../core/index.ts';
 
 export interface Curve {
   alpha: number[];

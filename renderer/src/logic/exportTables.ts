@@ -3,10 +3,10 @@
  * precision; the point columns are the engine's (core/engine.ts POINT_COLUMNS), so an export equals the
  * command line's output for the same run and setup.
  */
-import { csvLine, toCsv, type Cell } from '../../../core/csvout.ts';
-import { POINT_COLUMNS, pointsCsv } from '../../../core/engine.ts';
-import type { FitResult } from '../../../core/fit.ts';
-import type { ReductionResult } from '../../../core/reduce.ts';
+import { csvLine, toCsv, type Cell } from '../../../core/index.ts';
+import { POINT_COLUMNS, pointsCsv } from '../../../core/index.ts';
+import type { FitResult } from '../../../core/index.ts';
+import type { ReductionResult } from '../../../core/index.ts';
 import { CAUTION, provenanceLines, type Provenance } from './provenance.ts';
 
 /** Comment lines ("# key: value"), each one CSV cell so commas or formula characters inside stay harmless. */

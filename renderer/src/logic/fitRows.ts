@@ -3,8 +3,8 @@
  * engine could not determine, the reason (from the run's warnings where one applies). Keys the engine
  * adds later still appear, under their own name, so nothing it computes is hidden.
  */
-import type { FitResult } from '../../../core/fit.ts';
-import type { ReductionResult } from '../../../core/reduce.ts';
+import type { FitResult } from '../../../core/index.ts';
+import type { ReductionResult } from '../../../core/index.ts';
 import { DASH, fixed, significant } from './numberFormat.ts';
 
 export interface FitRowSpec {

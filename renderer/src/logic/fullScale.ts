@@ -4,10 +4,10 @@
  * (core/projection.ts: V_s = √(2·m·g0/(ρ·S·CLmax)), ρ from ISO 2533 and CIPM-2007). Nothing physical is
  * computed here; this module gathers the inputs and lays core's results out.
  */
-import { isaAtmosphere } from '../../../core/air.ts';
-import { attempt, type Notice } from '../../../core/messages.ts';
-import { DEFAULT_LIFT_OFF_FACTOR, LIFT_OFF_RANGE, projectStallSpeed, type Projection, type ProjectionInput } from '../../../core/projection.ts';
-import type { ReductionResult } from '../../../core/reduce.ts';
+import { isaAtmosphere } from '../../../core/index.ts';
+import { attempt, type Notice } from '../../../core/index.ts';
+import { DEFAULT_LIFT_OFF_FACTOR, LIFT_OFF_RANGE, projectStallSpeed, type Projection, type ProjectionInput } from '../../../core/index.ts';
+import type { ReductionResult } from '../../../core/index.ts';
 import { FIT_ROWS, nullReason } from './fitRows.ts';
 
 export type TemperatureMode = 'temperature' | 'isa-deviation';

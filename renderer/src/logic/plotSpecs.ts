@@ -3,7 +3,7 @@
  * Points come from a result of the chosen basis (corrected, or the same run reduced with corrections off),
  * so the un-suffixed fields serve both.
  */
-import type { PointResult } from '../../../core/reduce.ts';
+import type { PointResult } from '../../../core/index.ts';
 import { ldUncertainty, withUncertainty, type PlotPoint } from './errorBars.ts';
 
 export type PlotId = 'cl-alpha' | 'cd-cl' | 'cm-alpha' | 'ld-alpha';

@@ -2,7 +2,7 @@
  * Columns of the point table on screen: header with unit, and how a value is shown. SI inside; the
  * only display conversions are kelvin → °C and Reynolds number in millions, done here.
  */
-import type { PointResult } from '../../../core/reduce.ts';
+import type { PointResult } from '../../../core/index.ts';
 import { fixed, millions, significant } from './numberFormat.ts';
 
 export type ColumnGroup = 'corrected' | 'uncertainty' | 'measured' | 'flow' | 'blockage';

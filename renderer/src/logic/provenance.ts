@@ -4,7 +4,7 @@
  * record the command line writes; an export adds when it was made and from which campaign.
  */
 import { version } from '../../../package.json';
-import { provenanceLines as coreLines, type Provenance as RunRecord } from '../../../core/provenance.ts';
+import { provenanceLines as coreLines, type Provenance as RunRecord } from '../../../core/index.ts';
 
 export const TOOL_VERSION: string = version;
 

@@ -3,8 +3,8 @@
  * where core's validation message belongs. Validation itself is core's (validateSetup), run as the user
  * types; this module only decides what a text box means.
  */
-import { attempt, formatNotice, type Notice } from '../../../core/messages.ts';
-import { validateSetup, type SetupResult } from '../../../core/setup.ts';
+import { attempt, formatNotice, type Notice } from '../../../core/index.ts';
+import { validateSetup, type SetupResult } from '../../../core/index.ts';
 
 export type FieldKind = 'number' | 'auto-number' | 'choice' | 'flag' | 'text';
 

@@ -2,7 +2,7 @@
  * Tab-separated text for pasting into a spreadsheet. Tabs and line breaks inside a cell become spaces;
  * text a spreadsheet would run as a formula is neutralised as in CSV exports (core/csvout.ts).
  */
-import { escapeFormula } from '../../../core/csvout.ts';
+import { escapeFormula } from '../../../core/index.ts';
 
 export type TsvCell = string | number | null | undefined;
 

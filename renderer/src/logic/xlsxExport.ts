@@ -3,8 +3,8 @@
  * with write-excel-file; text is always written as text (never as a formula), numbers as numbers.
  */
 import writeXlsxFile, { type Sheet, type SheetData } from 'write-excel-file/browser';
-import { escapeFormula, type Cell } from '../../../core/csvout.ts';
-import { withZipTimestamps } from '../../../core/ziptime.ts';
+import { escapeFormula, type Cell } from '../../../core/index.ts';
+import { withZipTimestamps } from './zipTimestamps.ts';
 import { fitRows, pointRows, type FitSource } from './exportTables.ts';
 import { CAUTION, provenanceLines, type Provenance } from './provenance.ts';
 

@@ -2,8 +2,8 @@
  * Campaign files: new, open (reporting every missing or changed file by name), the bundled sample,
  * recent campaigns, save and save-as through the host. Unsaved changes are asked about first.
  */
-import { emptyCampaign, parseCampaign, serializeCampaign, type Campaign } from '../../../core/campaign.ts';
-import type { OpenedCampaign } from '../../../core/host.ts';
+import { emptyCampaign, parseCampaign, serializeCampaign, type Campaign } from '../../../core/index.ts';
+import type { OpenedCampaign } from '../../../core/index.ts';
 import type { Host, OpenedRun } from '../host/hostAccess.ts';
 import { newEntry, type CampaignState } from './campaignState.ts';
 import type { RunLoader } from './runLoader.ts';

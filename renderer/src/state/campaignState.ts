@@ -3,9 +3,9 @@
  * campaign itself, what is known about each run and tare file, messages for the user, the view choices.
  */
 import { computed, reactive, watch, type ComputedRef } from 'vue';
-import { emptyCampaign, serializeCampaign, type Campaign, type CampaignRun } from '../../../core/campaign.ts';
-import { formatNotice, InputError } from '../../../core/messages.ts';
-import type { ReductionResult } from '../../../core/reduce.ts';
+import { emptyCampaign, serializeCampaign, type Campaign, type CampaignRun } from '../../../core/index.ts';
+import { formatNotice, InputError } from '../../../core/index.ts';
+import type { ReductionResult } from '../../../core/index.ts';
 import type { Host } from '../host/hostAccess.ts';
 import { baseName } from '../host/browserHost.ts';
 import { emptyDraft, type FullScaleDraft } from '../logic/fullScale.ts';

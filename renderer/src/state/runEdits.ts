@@ -3,9 +3,9 @@
  * ticking, labels, setup and tare assignment, column mappings and setups. Each change that affects a
  * result reduces the runs concerned again.
  */
-import type { Campaign } from '../../../core/campaign.ts';
-import type { ChosenFile } from '../../../core/host.ts';
-import type { ColumnMapping } from '../../../core/runfile.ts';
+import type { Campaign } from '../../../core/index.ts';
+import type { ChosenFile } from '../../../core/index.ts';
+import type { ColumnMapping } from '../../../core/index.ts';
 import type { EngineClient } from '../engine/engineClient.ts';
 import type { Host } from '../host/hostAccess.ts';
 import { baseName } from '../host/browserHost.ts';

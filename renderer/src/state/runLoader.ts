@@ -3,9 +3,9 @@
  * campaign, then reduced with its setup and tare; reductions are redone (without reading again) when
  * a setup or tare changes. One read at a time, in order, so a large file never competes with another.
  */
-import type { CampaignRun } from '../../../core/campaign.ts';
-import { formatNotice } from '../../../core/messages.ts';
-import type { ColumnMapping } from '../../../core/runfile.ts';
+import type { CampaignRun } from '../../../core/index.ts';
+import { formatNotice } from '../../../core/index.ts';
+import type { ColumnMapping } from '../../../core/index.ts';
 import type { EngineClient } from '../engine/engineClient.ts';
 import type { Host } from '../host/hostAccess.ts';
 import { baseName } from '../host/browserHost.ts';

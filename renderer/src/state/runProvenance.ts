@@ -3,8 +3,8 @@
  * setup lives in the campaign rather than in a file of its own: it is named by campaign and key and
  * hashed as canonical JSON.
  */
-import { canonical, provenanceOf, type InputFile } from '../../../core/provenance.ts';
-import { validateSetup } from '../../../core/setup.ts';
+import { canonical, provenanceOf, type InputFile } from '../../../core/index.ts';
+import { validateSetup } from '../../../core/index.ts';
 import { baseName } from '../host/browserHost.ts';
 import { sha256Text } from '../logic/hashText.ts';
 import { TOOL_VERSION, type Provenance, type RunProvenance } from '../logic/provenance.ts';

@@ -3,7 +3,7 @@
  * (campaignState, runLoader, campaignFiles, runEdits, runProvenance). Components read the state and
  * call these actions; files go through the host, parsing and reduction through the worker.
  */
-import type { MenuCommand } from '../../../core/host.ts';
+import type { MenuCommand } from '../../../core/index.ts';
 import type { EngineClient } from '../engine/engineClient.ts';
 import type { Host } from '../host/hostAccess.ts';
 import { createCampaignFiles } from './campaignFiles.ts';

@@ -4,8 +4,8 @@
  * a remembered column mapping by header signature before the reader sees the header.
  */
 import Papa from 'papaparse';
-import { headerSignature } from '../../../core/campaign.ts';
-import { detectDelimiter, splitHeaderCell } from '../../../core/runfile.ts';
+import { headerSignature } from '../../../core/index.ts';
+import { detectDelimiter, splitHeaderCell } from '../../../core/index.ts';
 import type { HeaderInfo } from './protocol.ts';
 
 const PREVIEW_ROWS = 5;

@@ -3,9 +3,9 @@
  * chunks) and kept in the worker by key; reductions are asked for separately, so a setup edit or a
  * tare change re-reduces without reading the file again.
  */
-import type { ColumnMapping } from '../../../core/runfile.ts';
-import type { Notice } from '../../../core/messages.ts';
-import type { ReductionResult } from '../../../core/reduce.ts';
+import type { ColumnMapping } from '../../../core/index.ts';
+import type { Notice } from '../../../core/index.ts';
+import type { ReductionResult } from '../../../core/index.ts';
 
 /** The header line of a run file as found before reading, for the column-mapping step. */
 export interface HeaderInfo {

@@ -2,10 +2,10 @@
  * What the reduction worker does, free of the worker's message plumbing so it can be tested in
  * process: streams chunks into core's RunFileReader, keeps the read runs by key, reduces on request.
  */
-import { attempt, InputError, type Notice } from '../../../core/messages.ts';
-import { reduceRun } from '../../../core/engine.ts';
-import { RunFileReader, type ColumnMapping, type RunData } from '../../../core/runfile.ts';
-import { validateSetup } from '../../../core/setup.ts';
+import { attempt, InputError, type Notice } from '../../../core/index.ts';
+import { reduceRun } from '../../../core/index.ts';
+import { RunFileReader, type ColumnMapping, type RunData } from '../../../core/index.ts';
+import { validateSetup } from '../../../core/index.ts';
 import { sniffHeader } from './headerSniff.ts';
 import type { ChannelStats, FromWorker, HeaderInfo, ReadReply, ReduceReply, ToWorker } from './protocol.ts';
 

@@ -2,14 +2,14 @@
  * The engine's entry points for hosts (command line, Electron main, browser worker): text in,
  * result or located errors out. Nothing here touches a file system.
  */
-import { attempt, InputError, type Outcome } from './messages.ts';
-import { reduce, type ReductionResult, type PointResult } from './reduce.ts';
-import { RunFileReader, type ColumnMapping, type RunData } from './runfile.ts';
-import { parseSetup, type SetupResult } from './setup.ts';
-import { toCsv, type Cell } from './csvout.ts';
-import { provenanceLines, type Provenance } from './provenance.ts';
+import { attempt, InputError, type Outcome } from '../contract/messages.ts';
+import { reduce, type ReductionResult, type PointResult } from './pipeline.ts';
+import { RunFileReader, type ColumnMapping, type RunData } from '../formats/runFile.ts';
+import { parseSetup, type SetupResult } from '../setup/schema.ts';
+import { toCsv, type Cell } from '../formats/csvWriter.ts';
+import { provenanceLines, type Provenance } from '../formats/provenance.ts';
 
-export type { ReductionResult, PointResult } from './reduce.ts';
+export type { ReductionResult, PointResult } from './pipeline.ts';
 
 /** A source of text chunks: a Node stream with utf8 encoding, a browser file's text stream, or an array. */
 export type TextSource = AsyncIterable<string> | Iterable<string>;

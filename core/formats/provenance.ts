@@ -4,8 +4,8 @@
  * from SOURCE_DATE_EPOCH when the host sets it (reproducible-builds.org convention), so the same
  * inputs give byte-identical outputs.
  */
-import type { ReductionResult } from './reduce.ts';
-import type { Setup } from './setup.ts';
+import type { ReductionResult } from '../reduction/pipeline.ts';
+import type { Setup } from '../setup/schema.ts';
 
 export interface InputFile {
   role: 'run' | 'setup' | 'tare';

@@ -4,10 +4,10 @@
  * uncorrected coefficients (docs/methods.md §3–5). Pure and per point, so the uncertainty
  * propagation can call it with perturbed inputs.
  */
-import { bodyToWind, transferPitch, windToBody } from './axes.ts';
-import { flowState, type FlowState } from './flow.ts';
-import type { TunnelPoint } from './walls.ts';
-import { RAD } from './walls.ts';
+import { bodyToWind, transferPitch, windToBody } from '../physics/axes.ts';
+import { flowState, type FlowState } from '../physics/flowState.ts';
+import type { TunnelPoint } from '../walls/types.ts';
+import { RAD } from '../walls/types.ts';
 
 /** Point means in SI, tares already removed from the loads. Absent loads are NaN. */
 export interface PointInputs {

@@ -13,9 +13,9 @@
  */
 import Papa from 'papaparse';
 import { CHANNELS, POINT_COLUMN, defaultConversion, isChannel, type Channel } from './channels.ts';
-import { InputError, type Notice } from './messages.ts';
-import { PointAccumulator, type PointStats } from './points.ts';
-import { lookupUnit, unitsOf, type UnitConversion } from './units.ts';
+import { InputError, type Notice } from '../contract/messages.ts';
+import { PointAccumulator, type PointStats } from './pointStats.ts';
+import { lookupUnit, unitsOf, type UnitConversion } from '../physics/units.ts';
 
 export interface ColumnInfo {
   /** Name as written in the header (without the unit). */

@@ -4,8 +4,8 @@
  * assignment and column mappings. Validated with zod; problems name their field.
  */
 import { z } from 'zod';
-import { InputError } from './messages.ts';
-import { setupSchema } from './setup.ts';
+import { InputError } from '../contract/messages.ts';
+import { setupSchema } from '../setup/schema.ts';
 
 export const CAMPAIGN_FORMAT = 'sweepbook-campaign';
 export const CAMPAIGN_VERSION = 1;

@@ -3,17 +3,17 @@
  * uncorrected coefficients → wall corrections → fits. Each stage lives in its own module; this one
  * only puts them in order and assembles the contract's result (DESIGN §3.3).
  */
-import { BODY_LOADS, WIND_LOADS, type Channel } from './channels.ts';
-import { fitPolar, EMPTY_FIT, type FitResult } from './fit.ts';
-import { measure, type MeasureGeometry, type PointInputs } from './measure.ts';
-import { InputError, formatNotice, type Notice } from './messages.ts';
-import type { RunData } from './runfile.ts';
-import type { Setup } from './setup.ts';
+import { BODY_LOADS, WIND_LOADS, type Channel } from '../formats/channels.ts';
+import { fitPolar, EMPTY_FIT, type FitResult } from '../fits/characteristics.ts';
+import { measure, type MeasureGeometry, type PointInputs } from './measurePoint.ts';
+import { InputError, formatNotice, type Notice } from '../contract/messages.ts';
+import type { RunData } from '../formats/runFile.ts';
+import type { Setup } from '../setup/schema.ts';
 import { buildTare, tareAt, type TareTable } from './tare.ts';
-import { correct2d, exceedsValidatedBlockage } from './wall2d.ts';
-import { correct3d, correctPoint3d, sortedOrder } from './wall3d.ts';
-import { propagatePoint, type Correct, type PointUncertainty } from './uncertainty.ts';
-import { NO_FACTORS, RAD, type CorrectedPoint, type TunnelPoint, type WallFactors } from './walls.ts';
+import { correct2d, exceedsValidatedBlockage } from '../walls/wall2d.ts';
+import { correct3d, correctPoint3d, sortedOrder } from '../walls/wall3d.ts';
+import { propagatePoint, type Correct, type PointUncertainty } from '../uncertainty/propagation.ts';
+import { NO_FACTORS, RAD, type CorrectedPoint, type TunnelPoint, type WallFactors } from '../walls/types.ts';
 
 export interface PointResult {
   point: string;

@@ -3,7 +3,7 @@
  * Allen & Vincenti, NACA Report 782 (1944), in the form of Barlow, Rae & Pope, Low-Speed Wind
  * Tunnel Testing, 3rd ed. (1999), §9.2–9.4.
  */
-import { MAX_VALIDATED_EPSILON, RAD, type CorrectedPoint, type TunnelPoint } from './walls.ts';
+import { MAX_VALIDATED_EPSILON, RAD, type CorrectedPoint, type TunnelPoint } from './types.ts';
 
 export interface Geometry2d {
   chord: number;

@@ -1,5 +1,5 @@
-import type { Quantity, UnitConversion } from './units.ts';
-import { lookupUnit } from './units.ts';
+import type { Quantity, UnitConversion } from '../physics/units.ts';
+import { lookupUnit } from '../physics/units.ts';
 
 /** Run-file columns of data contract v1 (DESIGN §3.1) and the unit each assumes without a bracket. */
 export const CHANNELS = {

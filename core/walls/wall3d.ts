@@ -4,10 +4,10 @@
  * Low-Speed Wind Tunnel Testing, 3rd ed. (1999), §10; Glauert, ARC R&M 1566 (1933);
  * Maskell, ARC R&M 3400 (1963)). The formulas, and which CL each uses, are in docs/methods.md §7.
  */
-import { findLinearRange } from './fit.ts';
-import { liftInterferenceDelta, solidBlockageTau1, streamlineCurvatureTau2, type Loading } from './images.ts';
-import { fitPolynomial } from './leastsquares.ts';
-import { MAX_VALIDATED_EPSILON, MAX_VALIDATED_SPAN_RATIO, RAD, type CorrectedPoint, type TunnelPoint, type WallFactors } from './walls.ts';
+import { findLinearRange } from '../fits/characteristics.ts';
+import { liftInterferenceDelta, solidBlockageTau1, streamlineCurvatureTau2, type Loading } from './imageSums.ts';
+import { fitPolynomial } from '../fits/leastSquares.ts';
+import { MAX_VALIDATED_EPSILON, MAX_VALIDATED_SPAN_RATIO, RAD, type CorrectedPoint, type TunnelPoint, type WallFactors } from './types.ts';
 
 export interface Geometry3d {
   area: number;

@@ -7,10 +7,10 @@
  * instrument's standard uncertainty from the setup with the random term of the point's own sample
  * scatter, (s/√n)²; instrument terms apply to the setup's ambient values too when a column is absent.
  */
-import type { Channel } from './channels.ts';
-import { measure, type MeasureGeometry, type PointInputs } from './measure.ts';
-import type { SetupInput } from './setup.ts';
-import type { TunnelPoint } from './walls.ts';
+import type { Channel } from '../formats/channels.ts';
+import { measure, type MeasureGeometry, type PointInputs } from '../reduction/measurePoint.ts';
+import type { SetupInput } from '../setup/schema.ts';
+import type { TunnelPoint } from '../walls/types.ts';
 
 export type UncertaintySpec = NonNullable<SetupInput['uncertainty']>;
 

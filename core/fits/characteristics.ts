@@ -3,7 +3,7 @@
  * found linear range, zero-lift angle, CLmax, stall angle, drag polar, (L/D)max, Cm slope.
  * Anything that cannot be determined is null, with a warning saying why; never a made-up number.
  */
-import { fitLine, fitPolynomial, parabolaVertex, regressLine, type LineFit } from './leastsquares.ts';
+import { fitLine, fitPolynomial, parabolaVertex, regressLine, type LineFit } from './leastSquares.ts';
 
 export interface FitInput {
   alphaDeg: number[];

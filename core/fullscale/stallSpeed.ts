@@ -4,8 +4,8 @@
  * altitude (ISO 2533:1975), temperature and humidity (CIPM-2007). An engineering estimate only:
  * see the cautions it carries.
  */
-import { densityAltitude, G0, isaAtmosphere, ISA_SEA_LEVEL, moistAirDensity } from './air.ts';
-import { InputError } from './messages.ts';
+import { densityAltitude, G0, isaAtmosphere, ISA_SEA_LEVEL, moistAirDensity } from '../physics/air.ts';
+import { InputError } from '../contract/messages.ts';
 
 /** 1 knot = 1852 m / 3600 s exactly (NIST SP 811 B.8). */
 export const KNOT_MPS = 1852 / 3600;

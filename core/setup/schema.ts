@@ -3,7 +3,7 @@
  * ambient defaults, wall-correction choices. Validated with zod; every problem names its field.
  */
 import { z } from 'zod';
-import { InputError, type Notice } from './messages.ts';
+import { InputError, type Notice } from '../contract/messages.ts';
 
 const positive = (what: string) => z.number({ error: `expected a number (${what})` }).finite().positive({ error: `expected a positive number (${what})` });
 const finite = (what: string) => z.number({ error: `expected a number (${what})` }).finite();

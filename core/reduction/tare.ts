@@ -3,9 +3,9 @@
  * alpha and subtracted in the balance's own axes (common practice; Barlow, Rae & Pope 3rd ed. §7 on
  * tares). Outside the sweep's alpha range the nearest end value is used and the caller warns.
  */
-import type { Channel } from './channels.ts';
-import type { RunData } from './runfile.ts';
-import { InputError } from './messages.ts';
+import type { Channel } from '../formats/channels.ts';
+import type { RunData } from '../formats/runFile.ts';
+import { InputError } from '../contract/messages.ts';
 
 export interface TareTable {
   file: string;

@@ -1,0 +1,19 @@
+/**
+ * The one public entry of the engine for its hosts: `app/` (command line, Electron main and
+ * preload) and `renderer/` import from here and nowhere else in `core/` (checked by
+ * test/unit/layers.test.ts). Tests may reach the modules themselves.
+ */
+export * from './contract/host.ts';
+export * from './contract/messages.ts';
+export * from './fits/characteristics.ts';
+export * from './formats/campaign.ts';
+export * from './formats/channels.ts';
+export * from './formats/csvWriter.ts';
+export * from './formats/provenance.ts';
+export * from './formats/runFile.ts';
+export * from './fullscale/stallSpeed.ts';
+export * from './physics/air.ts';
+export * from './physics/units.ts';
+export * from './reduction/engine.ts';
+export * from './reduction/pipeline.ts';
+export * from './setup/schema.ts';
