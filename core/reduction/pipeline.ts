@@ -4,7 +4,7 @@
  * only puts them in order and assembles the contract's result (DESIGN §3.3).
  */
 import { BODY_LOADS, WIND_LOADS, type Channel } from '../formats/channels.ts';
-import { fitPolar, EMPTY_FIT, type FitResult } from '../fits/characteristics.ts';
+import { fitPolar, type FitBranch, type FitResult, type FitSystematic, type SystematicInput } from '../fits/characteristics.ts';
 import { measure, type MeasureGeometry, type PointInputs } from './measurePoint.ts';
 import { InputError, formatNotice, type Notice } from '../contract/messages.ts';
 import type { RunData } from '../formats/runFile.ts';
@@ -68,6 +68,10 @@ export interface ReductionResult {
   run: Record<string, unknown> & { name: string; configuration: string | null };
   points: PointResult[];
   fit: FitResult;
+  /** Every sweep branch of the run (file order) with its own CLmax and slope; `fit` describes one of them. */
+  fit_branches: FitBranch[];
+  /** Systematic parts of the fitted characteristics: characteristic → input → shift at one standard uncertainty. */
+  fit_systematic: FitSystematic;
   factors: WallFactors;
   corrections: { enabled: boolean; kind: '2d' | '3d'; wake: 'classic' | 'maskell' | null };
   warnings: string[];
@@ -294,9 +298,10 @@ export function reduce(input: ReduceInput): ReductionResult {
   }
 
   const spec = setup.uncertainty;
+  const uncertainties: PointUncertainty[] | undefined = spec ? rows.map((_, i) => propagatePoint(pointInputs[i]!, geometry, spec, pointSpread[i]!, correctOne)) : undefined;
   const points: PointResult[] = rows.map((r, i) => {
     const k = corrected?.[i];
-    const u: PointUncertainty | null = spec ? propagatePoint(pointInputs[i]!, geometry, spec, pointSpread[i]!, correctOne) : null;
+    const u: PointUncertainty | null = uncertainties?.[i] ?? null;
     const cl = k ? k.cl : r.cl_uncorrected;
     const cd = k ? k.cd : r.cd_uncorrected;
     // one explicit literal per point: spreading `r` made 5,000-point runs spend most of their time in GC
@@ -350,25 +355,38 @@ export function reduce(input: ReduceInput): ReductionResult {
     };
   });
 
-  // fits, on corrected values (uncorrected when corrections are off), sorted by α
-  const alphas = points.map((p) => p.alpha_deg!);
-  const order = sortedOrder(alphas);
-  if (hasHysteresis(points.map((p) => p.alpha_uncorrected_deg))) {
-    notices.push({ file: run.file, message: 'α is repeated or not monotonic in the file (a return sweep?): the fits use the points sorted by α, and hysteresis between the sweeps is not separated' });
+  // fits, on corrected values (uncorrected when corrections are off), in FILE ORDER: the fits split the
+  // run into sweep branches, so a return sweep is never mixed with the rising one
+  const meta0 = run.metadata;
+  let systematic: SystematicInput[] | undefined;
+  if (uncertainties) {
+    const names = [...new Set(uncertainties.flatMap((u) => u.systematic.map((s) => s.input)))];
+    systematic = names.map((input) => {
+      const at = (i: number) => uncertainties[i]!.systematic.find((s) => s.input === input);
+      return {
+        input,
+        alphaDeg: points.map((_, i) => at(i)?.alphaDeg ?? 0),
+        cl: points.map((_, i) => at(i)?.cl ?? 0),
+        cd: points.map((_, i) => at(i)?.cd ?? 0),
+        cm: points.map((_, i) => at(i)?.cm ?? 0),
+      };
+    });
   }
-  let fit: FitResult = { ...EMPTY_FIT };
   const f = fitPolar({
-    alphaDeg: order.map((i) => alphas[i]!),
-    cl: order.map((i) => points[i]!.cl!),
-    cd: order.map((i) => points[i]!.cd!),
-    cm: order.map((i) => points[i]!.cm ?? Number.NaN),
-    clScatter: order.map((i) => scatter[i]!),
-    clU: spec ? order.map((i) => points[i]!.u_cl!) : undefined,
-    cdU: spec ? order.map((i) => points[i]!.u_cd!) : undefined,
+    alphaDeg: points.map((p) => p.alpha_deg!),
+    cl: points.map((p) => p.cl!),
+    cd: points.map((p) => p.cd!),
+    cm: points.map((p) => p.cm ?? Number.NaN),
+    clScatter: scatter,
+    random: uncertainties ? { alphaDeg: uncertainties.map((u) => u.random.alphaDeg), cl: uncertainties.map((u) => u.random.cl), cd: uncertainties.map((u) => u.random.cd) } : undefined,
+    systematic,
     kind,
     aspectRatio: (b * b) / S,
+    runName: meta0['run'] ?? run.file.replace(/^.*[\\/]/, '').replace(/\.[^.]*$/, ''),
+    linearToleranceCl: setup.fit?.linear_tolerance_cl ?? null,
+    alphaRangeDeg: setup.fit?.alpha_range_deg ?? null,
   });
-  fit = f.fit;
+  const fit: FitResult = f.fit;
   notices.push(...f.warnings.map((message) => ({ message })));
 
   const meta = run.metadata;
@@ -385,6 +403,8 @@ export function reduce(input: ReduceInput): ReductionResult {
     },
     points,
     fit,
+    fit_branches: f.fit_branches,
+    fit_systematic: f.fit_systematic,
     factors,
     corrections: { enabled, kind, wake: enabled && kind === '3d' ? setup.corrections.wake : null },
     warnings: notices.map(formatNotice),
@@ -419,18 +439,6 @@ function nonFiniteQuantity(m: ReturnType<typeof measure>, clScatter: number, has
   const optional: [Channel, string, number][] = [['pitch', 'Cm', t.cm], ['side', 'CY', t.cy], ['roll', 'C_roll', t.cRoll], ['yaw', 'C_yaw', t.cYaw]];
   for (const [ch, name, v] of optional) if (has(ch) && !Number.isFinite(v)) return `${name} = ${v}`;
   return undefined;
-}
-
-/** True when α goes back on itself or repeats in file order. */
-function hasHysteresis(alpha: number[]): boolean {
-  let dir = 0;
-  for (let i = 1; i < alpha.length; i++) {
-    const d = Math.sign(alpha[i]! - alpha[i - 1]!);
-    if (d === 0) return true;
-    if (dir === 0) dir = d;
-    else if (d !== dir) return true;
-  }
-  return false;
 }
 
 /** Stop with a message naming the header line when a column the setup needs is absent. */

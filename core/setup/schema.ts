@@ -50,7 +50,20 @@ const uncertaintySchema = z.strictObject({
   alpha_deg: finite('deg').nonnegative().optional(),
   area_rel: finite('relative, e.g. 0.002').nonnegative().optional(),
   chord_rel: finite('relative, e.g. 0.002').nonnegative().optional(),
+  // --- fits: a systematic angle offset (zero of the incidence encoder), common to every point of a run ---
+  alpha_offset_deg: finite('deg').nonnegative().optional(),
 });
+
+// --- fits: overrides of the automatic linear lift range (own block; see docs/methods.md, fits) ---
+const fitSchema = z.strictObject({
+  linear_tolerance_cl: z.number({ error: 'expected a positive number or null (tolerance on lift residuals, in CL)' }).finite().positive({ error: 'expected a positive number or null (tolerance on lift residuals, in CL)' }).nullable().optional(),
+  alpha_range_deg: z
+    .tuple([finite('deg, low end'), finite('deg, high end')], { error: 'expected [low, high] in degrees, or null' })
+    .refine(([lo, hi]) => lo < hi, { error: 'expected [low, high] with low < high' })
+    .nullable()
+    .optional(),
+});
+// --- end fits ---
 
 export const setupSchema = z.strictObject({
   $schema: z.string().optional(),
@@ -77,6 +90,7 @@ export const setupSchema = z.strictObject({
     })
     .optional(),
   uncertainty: uncertaintySchema.optional(),
+  fit: fitSchema.optional(),
 });
 
 export type SetupInput = z.infer<typeof setupSchema>;
@@ -109,6 +123,8 @@ export interface Setup {
     tau2: number | null;
   };
   uncertainty: SetupInput['uncertainty'] | null;
+  /** Overrides of the automatic linear lift range (null: found from the data). */
+  fit: { linear_tolerance_cl: number | null; alpha_range_deg: [number, number] | null };
 }
 
 /** Default solid-blockage shape factors: Barlow, Rae & Pope 3rd ed. §9.2 (K1 = 0.74, wing spanning the tunnel) and §10.1 (typical wing/body, 0.96 as in DESIGN §3.2). */
@@ -190,6 +206,7 @@ export function validateSetup(file: string, json: unknown): SetupResult {
         tau2: c.tau2 ?? null,
       },
       uncertainty: s.uncertainty ?? null,
+      fit: { linear_tolerance_cl: s.fit?.linear_tolerance_cl ?? null, alpha_range_deg: s.fit?.alpha_range_deg ?? null },
     },
   };
 }

@@ -1,0 +1,143 @@
+/**
+ * Sweep branches: a run whose angle of attack reverses (up through stall and back down, or a repeat
+ * sweep) is split into the stretches of the file in which α moves one way. Fits are made per branch
+ * and never mix points of two branches, because the lift near and past stall depends on the
+ * direction of the sweep (hysteresis). Common practice in low-speed testing (e.g. Barlow, Rae & Pope,
+ * 3rd ed., §§ on stall hysteresis and repeat runs); the rules below are this project's.
+ */
+
+export interface Branch {
+  /** 0-based branch number in file order. */
+  index: number;
+  direction: 'up' | 'down';
+  /** Indices into the file-order point list, in file order. */
+  points: number[];
+}
+
+/** Fewest points of a branch; shorter stretches (a repeat point, a back-step) join their neighbour. */
+export const MIN_BRANCH_POINTS = 3;
+
+/**
+ * Split points given in file order into branches.
+ * A step between consecutive points smaller than the jitter tolerance (a fifth of the median step,
+ * at least 0.02°) has no direction and continues the current stretch (repeat points, encoder jitter).
+ * The point where α turns ends the stretch it arrives in; the next stretch starts after it. A
+ * stretch of fewer than MIN_BRANCH_POINTS points joins the branch before it (the first one, the
+ * branch after it), and neighbours with the same direction then merge.
+ */
+export function splitBranches(alphaDeg: readonly number[]): Branch[] {
+  const n = alphaDeg.length;
+  if (n === 0) return [];
+  const steps: number[] = [];
+  for (let i = 1; i < n; i++) steps.push(Math.abs(alphaDeg[i]! - alphaDeg[i - 1]!));
+  const tol = Math.max(0.02, 0.2 * medianOf(steps.filter((s) => s > 0)));
+  interface Stretch { dir: number; points: number[] }
+  const stretches: Stretch[] = [];
+  let cur: Stretch = { dir: 0, points: [0] };
+  for (let i = 1; i < n; i++) {
+    const d = alphaDeg[i]! - alphaDeg[i - 1]!;
+    const s = Math.abs(d) <= tol ? 0 : Math.sign(d);
+    if (s === 0 || cur.dir === 0 || s === cur.dir) {
+      if (cur.dir === 0) cur.dir = s;
+      cur.points.push(i);
+    } else {
+      stretches.push(cur);
+      cur = { dir: s, points: [i] };
+    }
+  }
+  stretches.push(cur);
+  // absorb short stretches, then merge neighbours of one direction, until nothing changes
+  for (let changed = true; changed && stretches.length > 1; ) {
+    changed = false;
+    const k = stretches.findIndex((s) => s.points.length < MIN_BRANCH_POINTS);
+    if (k >= 0) {
+      const into = k > 0 ? k - 1 : 1;
+      const a = stretches[into]!;
+      const b = stretches[k]!;
+      a.points = k > 0 ? [...a.points, ...b.points] : [...b.points, ...a.points];
+      if (a.dir === 0) a.dir = b.dir;
+      stretches.splice(k, 1);
+      changed = true;
+      continue;
+    }
+    for (let i = 1; i < stretches.length; i++) {
+      if (stretches[i]!.dir === stretches[i - 1]!.dir || stretches[i]!.dir === 0) {
+        stretches[i - 1]!.points.push(...stretches[i]!.points);
+        stretches.splice(i, 1);
+        changed = true;
+        break;
+      }
+    }
+  }
+  return stretches.map((s, index) => ({ index, direction: s.dir < 0 ? 'down' : 'up', points: s.points }));
+}
+
+/** The indices of a branch ordered by rising α (stable for equal angles). */
+export function byRisingAlpha(alphaDeg: readonly number[], points: readonly number[]): number[] {
+  return [...points].sort((i, j) => alphaDeg[i]! - alphaDeg[j]! || i - j);
+}
+
+export interface Hysteresis {
+  up_branch: number;
+  down_branch: number;
+  /** α span over which the two branches' CL differ by more than the tolerance. */
+  alpha_range_deg: [number, number];
+  max_delta_cl: number;
+  alpha_at_max_delta_deg: number;
+  tolerance_cl: number;
+}
+
+/**
+ * The hysteresis loop between a rising and a following falling branch: at each α of the falling
+ * branch inside the common α span, ΔCL = CL_up(α) − CL_down(α) with CL_up interpolated linearly;
+ * the loop is the α span where |ΔCL| exceeds `tol`. Undefined when the branches never differ by that.
+ */
+export function hysteresisLoop(
+  alphaDeg: readonly number[],
+  cl: readonly number[],
+  up: Branch,
+  down: Branch,
+  tol: number,
+): Hysteresis | undefined {
+  const u = byRisingAlpha(alphaDeg, up.points);
+  const lo = Math.max(alphaDeg[u[0]!]!, Math.min(...down.points.map((i) => alphaDeg[i]!)));
+  const hi = Math.min(alphaDeg[u[u.length - 1]!]!, Math.max(...down.points.map((i) => alphaDeg[i]!)));
+  let from = Infinity;
+  let to = -Infinity;
+  let max = 0;
+  let at = Number.NaN;
+  for (const i of down.points) {
+    const a = alphaDeg[i]!;
+    if (a < lo || a > hi) continue;
+    const d = interpolate(alphaDeg, cl, u, a) - cl[i]!;
+    if (Math.abs(d) > tol) {
+      from = Math.min(from, a);
+      to = Math.max(to, a);
+      if (Math.abs(d) > Math.abs(max)) {
+        max = d;
+        at = a;
+      }
+    }
+  }
+  if (!(to >= from)) return undefined;
+  return { up_branch: up.index, down_branch: down.index, alpha_range_deg: [from, to], max_delta_cl: max, alpha_at_max_delta_deg: at, tolerance_cl: tol };
+}
+
+function interpolate(x: readonly number[], y: readonly number[], order: number[], at: number): number {
+  for (let k = 1; k < order.length; k++) {
+    const a = order[k - 1]!;
+    const b = order[k]!;
+    if (at <= x[b]!) {
+      const span = x[b]! - x[a]!;
+      return span > 0 ? y[a]! + ((y[b]! - y[a]!) * (at - x[a]!)) / span : y[b]!;
+    }
+  }
+  return y[order[order.length - 1]!]!;
+}
+
+export function medianOf(values: readonly number[]): number {
+  const v = values.filter(Number.isFinite).sort((x, y) => x - y);
+  if (v.length === 0) return 0;
+  const mid = v.length >> 1;
+  return v.length % 2 === 1 ? v[mid]! : (v[mid - 1]! + v[mid]!) / 2;
+}
