@@ -8,7 +8,7 @@
  */
 import { fitLine, regressLineEV } from './leastSquares.ts';
 import { byRisingAlpha, hysteresisLoop, medianOf, splitBranches, type Branch } from './sweepBranches.ts';
-import { findLinearRange as findLinearRangeWithin, MIN_LINEAR_POINTS, noiseLevel, rangeFromAlpha, robustNoise, TOLERANCE_FLOOR_CL, TOLERANCE_SIGMAS, type LinearRange } from './linearRange.ts';
+import { findLinearRange as findLinearRangeWithin, MIN_LINEAR_POINTS, noiseLevel, rangeFromAlpha, robustNoise, robustNoiseSmooth, TOLERANCE_FLOOR_CL, TOLERANCE_SIGMAS, type LinearRange } from './linearRange.ts';
 import { findClMax, stallDrop, type ClMax } from './clMax.ts';
 import { dragPolar, ldMax } from './polar.ts';
 
@@ -85,6 +85,8 @@ export interface FitResult {
   noise_cl: number | null;
   /** 'data', 'setup alpha_range_deg' or 'setup linear_tolerance_cl'. */
   linear_range_source: string | null;
+  /** α span of the points the drag polar was fitted to (the linear lift range, less any points where drag already departs from the polar). */
+  polar_range_deg: [number, number] | null;
   cl_min_drag_stderr: number | null;
   oswald_e_stderr: number | null;
   /** 'cambered polar' or 'polar through CL = 0'. */
@@ -161,6 +163,7 @@ export const EMPTY_FIT: FitResult = {
   cl_max_reason: null,
   noise_cl: null,
   linear_range_source: null,
+  polar_range_deg: null,
   cl_min_drag_stderr: null,
   oswald_e_stderr: null,
   oswald_e_source: null,
@@ -225,6 +228,7 @@ interface Fixed {
   clMaxMethod: ClMax['method'] | null;
   /** The σ of the unshifted data, so the stall drop does not move with a systematic shift. */
   noise: number;
+  polarRange: { from: number; to: number } | null;
 }
 
 interface BranchOutcome {
@@ -233,6 +237,7 @@ interface BranchOutcome {
   clMax: ClMax | undefined;
   noise: number;
   warnings: string[];
+  polarRange: { from: number; to: number } | null;
 }
 
 /** Characteristics of one branch. With `fixed`, the range, CLmax method and noise are those of the unshifted data (for the systematic propagation). */
@@ -282,28 +287,12 @@ function analyseBranch(d: BranchData, input: FitInput, fixed?: Fixed): BranchOut
     }
   }
 
+  let polarRange: { from: number; to: number } | null = fixed?.polarRange ?? null;
   if (range) {
     const { from, to } = range;
-    const sl = <T>(v: T[] | undefined) => v?.slice(from, to);
     const a = d.a.slice(from, to);
     const cl = d.cl.slice(from, to);
-    const cd = d.cd.slice(from, to);
-    const uCl = statedOrUndefined(sl(d.uCl));
-    const uCd = statedOrUndefined(sl(d.uCd));
-    const uA = sl(d.uA);
-    fit.weighted = uCl !== undefined;
-    const line = regressLineEV(a, cl, uCl, uCl ? uA : undefined);
-    if (line) {
-      fit.cl_alpha_per_deg = line.slope;
-      fit.cl_alpha_stderr_per_deg = finiteOrNull(Math.sqrt(line.varSlope));
-      if (line.slope !== 0) {
-        const a0 = -line.intercept / line.slope;
-        fit.alpha_zero_lift_deg = a0;
-        // delta method on α0 = −intercept/slope (JCGM 100:2008 eq. 13)
-        const v = (line.varIntercept + a0 * a0 * line.varSlope + 2 * a0 * line.covariance) / (line.slope * line.slope);
-        fit.alpha_zero_lift_stderr_deg = finiteOrNull(Math.sqrt(v));
-      }
-    }
+    polarRange = fitOverRange(fit, d, from, to, input, noise, polarRange ?? undefined, warnings, !fixed);
     fit.linear_range_deg = [a[0]!, a[a.length - 1]!];
     fit.linear_range_points = to - from;
     fit.linear_tolerance_cl = fixed ? null : range.tolerance;
@@ -312,30 +301,51 @@ function analyseBranch(d: BranchData, input: FitInput, fixed?: Fixed): BranchOut
     if (!fixed && (to - from < SHORT_RANGE_POINTS || span < SHORT_SPAN_CL)) {
       warnings.push(`the linear lift range is short (${to - from} points, α ${a[0]!.toFixed(2)}° to ${a[a.length - 1]!.toFixed(2)}°, ΔCL ${span.toFixed(3)}): the slope and the drag polar rest on little data`);
     }
-
-    const polar = dragPolar(cl, cd, input.kind, input.aspectRatio, uCl, uCd);
-    if (polar) {
-      fit.cd0 = polar.cd0;
-      fit.k_induced = polar.k;
-      fit.cd0_stderr = polar.cd0_stderr;
-      fit.k_induced_stderr = polar.k_stderr;
-      fit.oswald_e = polar.oswald_e;
-      fit.oswald_e_stderr = polar.oswald_e_stderr;
-      fit.oswald_e_source = polar.oswald_source;
-      if (polar.cambered) {
-        fit.cd_min = polar.cambered.cd_min;
-        fit.cl_min_drag = polar.cambered.cl_min_drag;
-        fit.cl_min_drag_stderr = polar.cambered.cl_min_drag_stderr;
-        fit.k_induced_cambered = polar.cambered.k;
+    // Range selection: where the range ends is itself chosen from noisy data, and a point of incipient
+    // stall just inside the tolerance biases the slope by about one standard error. The change of each
+    // characteristic when the range (or the polar's range) loses its first or its last point, beyond what
+    // noise alone would give for two nested fits, is added in quadrature to its standard error (the larger
+    // of the two ends; a sensitivity check made part of the stated uncertainty so that the 2-standard-error
+    // interval keeps its coverage, checked by Monte Carlo in test/reference/fitCoverage.test.ts). The zero-lift
+    // angle lies inside the range, where the ends hardly move it, and keeps its own standard error.
+    if (!fixed && range.source !== 'setup alpha_range_deg') {
+      const keys = [
+        ['cl_alpha_per_deg', 'cl_alpha_stderr_per_deg', 'lift'],
+        ['cd0', 'cd0_stderr', 'polar'],
+        ['k_induced', 'k_induced_stderr', 'polar'],
+      ] as const;
+      const worst: Record<string, number> = {};
+      const pr = polarRange!;
+      const trials: { f: number; t: number; polar: { from: number; to: number } | undefined; which: 'lift' | 'polar' }[] = [
+        { f: from + 1, t: to, polar: pr, which: 'lift' },
+        { f: from, t: to - 1, polar: pr.to > to - 1 ? { from: pr.from, to: to - 1 } : pr, which: 'lift' },
+        { f: from, t: to, polar: { from: pr.from + 1, to: pr.to }, which: 'polar' },
+        { f: from, t: to, polar: { from: pr.from, to: pr.to - 1 }, which: 'polar' },
+      ];
+      for (const tr of trials) {
+        if (tr.t - tr.f < MIN_LINEAR_POINTS || (tr.polar && tr.polar.to - tr.polar.from < MIN_LINEAR_POINTS)) continue;
+        const alt: FitResult = { ...EMPTY_FIT };
+        fitOverRange(alt, d, tr.f, tr.t, input, noise, tr.polar, [], false);
+        for (const [k, se, which] of keys) {
+          if (which !== tr.which) continue;
+          const v0 = fit[k];
+          const v1 = alt[k];
+          const s0 = fit[se];
+          const s1 = alt[se];
+          if (typeof v0 !== 'number' || typeof v1 !== 'number' || typeof s0 !== 'number' || typeof s1 !== 'number') continue;
+          // of two nested least-squares estimates the difference has variance s1² − s0² from noise alone;
+          // only the excess over that is a sign that the end point bends away from the line
+          // (for the polar the whole change counts: drag departs from the polar gradually, and a point that
+          // is already off it by less than the tolerance still biases k; Monte Carlo showed the excess alone
+          // left k's interval short)
+          const excess = which === 'polar' ? (v1 - v0) ** 2 : Math.max(0, (v1 - v0) ** 2 - Math.max(0, s1 * s1 - s0 * s0));
+          worst[k] = Math.max(worst[k] ?? 0, Math.sqrt(excess));
+        }
       }
-      if (!fixed) warnings.push(...polar.warnings);
-    }
-    const cmr = d.cm.slice(from, to);
-    if (cmr.every(Number.isFinite)) {
-      fit.cm_alpha_per_deg = fitLine(a, cmr).slope;
-      const dcmdcl = fitLine(cl, cmr).slope;
-      fit.cm_cl_slope = dcmdcl;
-      if (input.kind === '3d') fit.x_ac_aft_of_ref_c = -dcmdcl;
+      for (const [k, se] of keys) {
+        const v = fit[se];
+        if (typeof v === 'number' && worst[k] !== undefined) fit[se] = Math.hypot(v, worst[k]!);
+      }
     }
   }
 
@@ -345,7 +355,87 @@ function analyseBranch(d: BranchData, input: FitInput, fixed?: Fixed): BranchOut
     fit.cl_at_ld_max = ld.cl_at_ld_max;
     fit.ld_max_u = ld.u;
   }
-  return { fit, range, clMax, noise, warnings };
+  return { fit, range, clMax, noise, warnings, polarRange };
+}
+
+/** Smallest tolerance on drag-polar residuals, in CD (common practice: a few drag counts). */
+export const POLAR_TOLERANCE_FLOOR_CD = 0.0005;
+
+/**
+ * Lift line, drag polar and Cm slope over the points [from, to) of a branch, written into `fit`. The polar
+ * drops end points of that range, the worse end first, while one lies more than 3.5 σ of the drag's own
+ * scatter (at least POLAR_TOLERANCE_FLOOR_CD) off the polar: drag rises before the lift curve bends at a
+ * trailing-edge stall, and such points would bias CD0 and k. Returns the polar's range (indices of the branch).
+ */
+function fitOverRange(fit: FitResult, d: BranchData, from: number, to: number, input: FitInput, noise: number, polarFixed: { from: number; to: number } | undefined, warnings: string[], searchPolar: boolean): { from: number; to: number } {
+  const sl = <T>(v: T[] | undefined, f = from, t = to) => v?.slice(f, t);
+  const a = d.a.slice(from, to);
+  const cl = d.cl.slice(from, to);
+  const uCl = statedOrUndefined(sl(d.uCl));
+  const uA = sl(d.uA);
+  fit.weighted = uCl !== undefined;
+  const line = regressLineEV(a, cl, uCl, uCl ? uA : undefined, robustNoise(a, cl));
+  if (line) {
+    fit.cl_alpha_per_deg = line.slope;
+    fit.cl_alpha_stderr_per_deg = finiteOrNull(Math.sqrt(line.varSlope));
+    if (line.slope !== 0) {
+      const a0 = -line.intercept / line.slope;
+      fit.alpha_zero_lift_deg = a0;
+      // delta method on α0 = −intercept/slope (JCGM 100:2008 eq. 13)
+      const v = (line.varIntercept + a0 * a0 * line.varSlope + 2 * a0 * line.covariance) / (line.slope * line.slope);
+      fit.alpha_zero_lift_stderr_deg = finiteOrNull(Math.sqrt(v));
+    }
+  }
+  let pr = polarFixed ?? { from, to };
+  const cdr = d.cd.slice(from, to);
+  const uCdr = statedOrUndefined(sl(d.uCd));
+  const sigmaCd = robustNoiseSmooth(cdr);
+  if (!polarFixed && searchPolar) {
+    const cd = cdr;
+    const sigma = Math.max(sigmaCd, uCdr ? medianOf(uCdr) : 0);
+    const tol = Math.max(POLAR_TOLERANCE_FLOOR_CD, TOLERANCE_SIGMAS * sigma);
+    // trim the end point with the larger residual while it lies outside the tolerance
+    let f0 = 0;
+    let t0 = cd.length;
+    while (t0 - f0 > MIN_LINEAR_POINTS) {
+      const x = cl.slice(f0, t0).map((c) => c * c);
+      const line = fitLine(x, cd.slice(f0, t0));
+      const rFirst = Math.abs(cd[f0]! - line.intercept - line.slope * x[0]!);
+      const rLast = Math.abs(cd[t0 - 1]! - line.intercept - line.slope * x[x.length - 1]!);
+      if (Math.max(rFirst, rLast) <= tol) break;
+      if (rLast >= rFirst) t0--;
+      else f0++;
+    }
+    pr = { from: from + f0, to: from + t0 };
+  }
+  const pcl = d.cl.slice(pr.from, pr.to);
+  const pcd = d.cd.slice(pr.from, pr.to);
+  const polar = dragPolar(pcl, pcd, input.kind, input.aspectRatio, statedOrUndefined(sl(d.uCl, pr.from, pr.to)), statedOrUndefined(sl(d.uCd, pr.from, pr.to)), sigmaCd);
+  fit.polar_range_deg = [d.a[pr.from]!, d.a[pr.to - 1]!];
+  if (polar) {
+    fit.cd0 = polar.cd0;
+    fit.k_induced = polar.k;
+    fit.cd0_stderr = polar.cd0_stderr;
+    fit.k_induced_stderr = polar.k_stderr;
+    fit.oswald_e = polar.oswald_e;
+    fit.oswald_e_stderr = polar.oswald_e_stderr;
+    fit.oswald_e_source = polar.oswald_source;
+    if (polar.cambered) {
+      fit.cd_min = polar.cambered.cd_min;
+      fit.cl_min_drag = polar.cambered.cl_min_drag;
+      fit.cl_min_drag_stderr = polar.cambered.cl_min_drag_stderr;
+      fit.k_induced_cambered = polar.cambered.k;
+    }
+    warnings.push(...polar.warnings);
+  }
+  const cmr = d.cm.slice(from, to);
+  if (cmr.every(Number.isFinite)) {
+    fit.cm_alpha_per_deg = fitLine(a, cmr).slope;
+    const dcmdcl = fitLine(cl, cmr).slope;
+    fit.cm_cl_slope = dcmdcl;
+    if (input.kind === '3d') fit.x_ac_aft_of_ref_c = -dcmdcl;
+  }
+  return pr;
 }
 
 /** Characteristics whose systematic part is propagated, with the field holding their random part and the combined u. */
@@ -414,6 +504,7 @@ export function fitPolar(input: FitInput): FitOutcome {
       range: out.range ? { from: out.range.from, to: out.range.to } : null,
       clMaxMethod: out.clMax?.method ?? null,
       noise: out.noise,
+      polarRange: out.polarRange,
     }).fit;
     for (const p of PROPAGATED) {
       const v0 = fit[p.key];

@@ -174,14 +174,23 @@ export function regressLine(x: ArrayLike<number>, y: ArrayLike<number>, w?: Arra
  * Without stated uncertainties (uy undefined) it is the ordinary fit with the residual variance
  * (Draper & Smith ch. 1), which already holds the scatter of both variables. With stated random
  * uncertainties the covariance is scaled by the Birge ratio max(1, χ²/(n − 2)) as in regressLine.
+ * `sigmaFloor` (unweighted fits only): an independent estimate of the points' scatter (e.g. the robust
+ * estimate from the whole branch); the residual variance is not taken below its square, because a range
+ * chosen for its small residuals understates the scatter it was chosen from.
  */
 export function regressLineEV(
   x: ArrayLike<number>,
   y: ArrayLike<number>,
   uy?: ArrayLike<number>,
   ux?: ArrayLike<number>,
+  sigmaFloor = 0,
 ): LineRegression | undefined {
   const ols = regressLine(x, y);
+  if (ols && !uy && ols.n > 2) {
+    const s2 = ols.chi2 / (ols.n - 2);
+    const f = s2 > 0 ? Math.max(1, (sigmaFloor * sigmaFloor) / s2) : 1;
+    if (f > 1) return { ...ols, varSlope: ols.varSlope * f, varIntercept: ols.varIntercept * f, covariance: ols.covariance * f };
+  }
   if (!ols || !uy) return ols;
   let fit = ols;
   const n = x.length;

@@ -33,6 +33,18 @@ export function robustNoise(x: readonly number[], y: readonly number[]): number 
   return z.length === 0 ? 0 : 1.4826 * medianOf(z);
 }
 
+/**
+ * Robust noise σ of a curve that is smooth but curved everywhere, such as CD(α) along a parabolic polar:
+ * third differences d_i = y_{i+2} − 3y_{i+1} + 3y_i − y_{i−1} cancel any quadratic exactly for equal
+ * steps and have variance 20σ² for independent noise; σ = 1.4826·median|d_i|/√20 (as robustNoise).
+ * With unequal steps the cancellation is approximate. 0 with fewer than 4 points.
+ */
+export function robustNoiseSmooth(y: readonly number[]): number {
+  const d: number[] = [];
+  for (let i = 1; i + 2 < y.length; i++) d.push(Math.abs(y[i + 2]! - 3 * y[i + 1]! + 3 * y[i]! - y[i - 1]!));
+  return d.length === 0 ? 0 : (1.4826 * medianOf(d)) / Math.sqrt(20);
+}
+
 export interface NoiseSources {
   /** Robust residual estimate from the curve itself. */
   residual: number;

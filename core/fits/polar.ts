@@ -26,10 +26,10 @@ export interface PolarFit {
  * cambered polar whenever CL_mindrag differs from zero by more than two of its standard errors (a cambered
  * wing's polar is not centred on CL = 0, and fitting CD0 + k·CL² to it biases k), else k.
  */
-export function dragPolar(cl: readonly number[], cd: readonly number[], kind: '2d' | '3d', aspectRatio: number, uCl?: readonly number[], uCd?: readonly number[]): PolarFit | undefined {
+export function dragPolar(cl: readonly number[], cd: readonly number[], kind: '2d' | '3d', aspectRatio: number, uCl?: readonly number[], uCd?: readonly number[], sigmaCd = 0): PolarFit | undefined {
   const x = cl.map((c) => c * c);
   const ux = uCl ? cl.map((c, i) => 2 * Math.abs(c) * uCl[i]!) : undefined;
-  const line = regressLineEV(x, cd, uCd, ux);
+  const line = regressLineEV(x, cd, uCd, ux, sigmaCd);
   if (!line) return undefined;
   const sqrtOrNull = (v: number) => (Number.isFinite(v) && v >= 0 ? Math.sqrt(v) : null);
   const out: PolarFit = {
