@@ -161,18 +161,28 @@ async function projectCommand(args: string[], io: { stdout: NodeJS.WritableStrea
   const loaded = await loadAndReduce(positionals[0]!, values.setup, values.tare, false, say);
   if (typeof loaded === 'number') return loaded;
   const { result, provenance } = loaded;
+  // every warning of the reduction the estimate rests on is passed on, on stderr and in the document
+  for (const w of result.warnings) say(`warning: ${w}`);
   const given = num('cl-max');
-  const clMax = given ?? result.fit.cl_max;
-  if (clMax === null) {
-    say(`error: ${positionals[0]}: the run reached no CLmax (${result.warnings.find((w) => w.includes('CLmax')) ?? 'see its warnings'}); give one with --cl-max`);
+  if (given === undefined && result.corrections.kind === '2d') {
+    say(`error: ${positionals[0]}: the setup describes a 2D section (model.kind "2d"); a section's CLmax is not a wing's (span loading, tip and root stall and the fuselage lower it), so no stall speed is estimated from it; give the wing's CLmax with --cl-max`);
     return 1;
   }
-  const atMax = result.points.reduce((best, p) => ((p.cl ?? -Infinity) > (best.cl ?? -Infinity) ? p : best), result.points[0]!);
+  const clMax = given ?? result.fit.cl_max;
+  if (clMax === null) {
+    say(`error: ${positionals[0]}: the run reached no CLmax (${result.fit.cl_max_reason ?? result.warnings.find((w) => w.includes('CLmax')) ?? 'see its warnings'}); give one with --cl-max`);
+    return 1;
+  }
+  // Reynolds number of the point nearest the CLmax angle on the branch the fit describes
+  const aMax = result.fit.alpha_cl_max_deg;
+  const atMax = aMax === null ? result.points[0]! : result.points.reduce((best, p) => (Math.abs((p.alpha_deg ?? Infinity) - aMax) < Math.abs((best.alpha_deg ?? Infinity) - aMax) ? p : best), result.points[0]!);
   const projection = attempt(() =>
     projectStallSpeed({
       massKg: num('mass-kg')!,
       wingAreaM2: num('wing-area-m2')!,
       clMax,
+      clMaxU: given !== undefined ? null : result.fit.cl_max_u,
+      clMaxFrom: given !== undefined ? 'given' : 'model test',
       pressureAltitudeM: num('pressure-altitude-m'),
       tempC: num('temp-c'),
       isaDeviationC: num('isa-deviation-c'),
@@ -184,8 +194,10 @@ async function projectCommand(args: string[], io: { stdout: NodeJS.WritableStrea
   if (!projection.ok) return failWith(say, projection.errors.map((e) => ({ ...e, field: e.field ? `--${e.field}` : undefined })));
   const doc = {
     ...projection.value,
-    cl_max_source: given !== undefined ? 'given (--cl-max)' : 'fitted from the run',
+    cl_max_u: given !== undefined ? null : result.fit.cl_max_u,
+    cl_max_source: given !== undefined ? 'given (--cl-max)' : `fitted from the run (sweep branch ${(result.fit.branch ?? 0) + 1}, ${result.fit.branch_direction ?? 'up'}, ${result.fit.cl_max_method ?? ''})`,
     run: { name: result.run.name, configuration: result.run.configuration, source_file: result.run['source_file'] },
+    warnings: result.warnings,
     provenance,
   };
   for (const c of doc.cautions) say(`caution: ${c}`);
