@@ -130,6 +130,8 @@ export interface FitOutcome {
   fit_branches: FitBranch[];
   fit_systematic: FitSystematic;
   warnings: string[];
+  /** Sweep branch of each input point (file order). */
+  pointBranch: number[];
 }
 
 export const EMPTY_FIT: FitResult = {
@@ -287,6 +289,17 @@ function analyseBranch(d: BranchData, input: FitInput, fixed?: Fixed): BranchOut
     }
   }
 
+  // stall angle: the first angle past the peak where CL lies below it by more than the linear range's
+  // residual tolerance (the drop that marks stall when there is no range)
+  if (clMax) {
+    const drop = range && range.source !== 'setup alpha_range_deg' ? range.tolerance : stallDrop(noise);
+    for (let i = clMax.peak + 1; i < n; i++) {
+      if (d.cl[i]! < d.cl[clMax.peak]! - drop) {
+        fit.alpha_stall_deg = d.a[i]!;
+        break;
+      }
+    }
+  }
   let polarRange: { from: number; to: number } | null = fixed?.polarRange ?? null;
   if (range) {
     const { from, to } = range;
@@ -478,7 +491,7 @@ export function fitPolar(input: FitInput): FitOutcome {
     };
   };
   if (n === 0 || branches.length === 0) {
-    return { fit: { ...EMPTY_FIT }, fit_branches: [], fit_systematic: {}, warnings: [`${run}: no points to fit`] };
+    return { fit: { ...EMPTY_FIT }, fit_branches: [], fit_systematic: {}, warnings: [`${run}: no points to fit`], pointBranch: [] };
   }
   const outcomes = branches.map((b) => analyseBranch(dataOf(b), input));
   const ups = branches.filter((b) => b.direction === 'up');
@@ -570,7 +583,9 @@ export function fitPolar(input: FitInput): FitOutcome {
       if ((typeof v === 'number' && !Number.isFinite(v)) || (Array.isArray(v) && !v.every(Number.isFinite))) (b as unknown as Record<string, unknown>)[k] = null;
     }
   }
-  return { fit, fit_branches: fitBranches, fit_systematic: fitSystematic, warnings };
+  const pointBranch = new Array<number>(n).fill(0);
+  for (const b of branches) for (const i of b.points) pointBranch[i] = b.index;
+  return { fit, fit_branches: fitBranches, fit_systematic: fitSystematic, warnings, pointBranch };
 }
 
 /** Stated uncertainties usable as weights: every one positive and finite; else undefined (unweighted fit). */

@@ -10,7 +10,7 @@
  * of a run), because a fit must be weighted by the first and must carry the second afterwards.
  */
 import type { Channel } from '../formats/channels.ts';
-import { measure, type MeasureGeometry, type PointInputs } from '../reduction/measurePoint.ts';
+import { evaluatePoint as measure, type PointGeometry as MeasureGeometry, type PointInputs } from '../reduction/pointChain.ts';
 import type { SetupInput } from '../setup/schema.ts';
 import type { TunnelPoint } from '../walls/types.ts';
 
