@@ -53,7 +53,7 @@ export function findClMax(alphaDeg: readonly number[], cl: readonly number[], dr
   }
   if (stall < 0) {
     return m === n - 1
-      ? { reason: `the highest CL is at the highest angle of the sweep (α = ${alphaDeg[m]!.toFixed(2)}°): the sweep does not reach stall` }
+      ? { reason: `no peak was reached: the highest CL is at the highest angle of the sweep (α = ${alphaDeg[m]!.toFixed(2)}°), so the sweep does not reach stall` }
       : { reason: `CL does not drop by more than ${drop.toFixed(3)} after its highest value (α = ${alphaDeg[m]!.toFixed(2)}°): no stall is seen` };
   }
   const peak = { peak: m, stall, cl_max: cl[m]!, alpha_cl_max_deg: alphaDeg[m]!, method: 'measured peak' as ClMax['method'] };
