@@ -201,6 +201,17 @@ export class RunFileReader {
     if (this.phase === 'preamble') this.fail({ line: Math.max(1, this.line), message: 'no header line found (the file is empty or holds only comments)' });
     const acc = this.accumulator();
     const points = acc.result();
+    // fits: name every point split by angle (at most a few, then a count)
+    for (const sp of acc.splits.slice(0, this.limits.maxRowWarnings)) {
+      this.warnings.push({
+        file: this.file,
+        line: sp.line,
+        message: `samples of point "${sp.key}" lie at α = ${((sp.alphaBefore * 180) / Math.PI).toFixed(2)}° (from line ${sp.firstLine}) and ${((sp.alphaAfter * 180) / Math.PI).toFixed(2)}° (from this line), more than 0.2° apart (a point id restarted for a return sweep?): they are kept as two points, not averaged`,
+      });
+    }
+    if (acc.splits.length > this.limits.maxRowWarnings) {
+      this.warnings.push({ file: this.file, message: `${acc.splits.length - this.limits.maxRowWarnings} more points split by angle (only the first ${this.limits.maxRowWarnings} are listed)` });
+    }
     if (this.skipped > this.limits.maxRowWarnings) {
       this.warnings.push({
         file: this.file,
@@ -339,7 +350,8 @@ export class RunFileReader {
     for (const b of bound) this.fieldSlot[b.index] = b.slot;
     this.scale = Float64Array.from(bound, (b) => b.conv.scale);
     this.offset = Float64Array.from(bound, (b) => b.conv.offset);
-    this.acc = new PointAccumulator(this.channels.length);
+    // fits: a point whose samples lie at two angles is split by α (see PointAccumulator.add)
+    this.acc = new PointAccumulator(this.channels.length, this.pointIndex >= 0 ? this.channels.indexOf('alpha') : -1);
     this.phase = 'data';
   }
 

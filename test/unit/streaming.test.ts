@@ -138,11 +138,16 @@ describe('streaming reader: same result whatever the chunks', () => {
       [12, 2],
       [13, 3],
       [16, undefined],
+      // samples of one point id at two angles are kept apart, never averaged (a point id restarted for a return sweep)
+      [11, undefined],
+      [15, undefined],
     ]);
     expect(whole.points.map((p) => [p.key, p.n])).toEqual([
       ['1', 2],
-      ['2', 2],
-      ['3', 2],
+      ['2', 1],
+      ['2', 1],
+      ['3', 1],
+      ['3', 1],
     ]);
     for (const size of [1, 2, 3, 11, 1000]) {
       expect(runJson(streamed('irr.csv', text, size)), `chunks of ${size}`).toBe(runJson(whole));
@@ -192,5 +197,24 @@ describe('streaming reader: same result whatever the chunks', () => {
     expect(run.warnings.map((w) => [w.line, w.column])).toEqual([[5, 1]]);
     expect(runJson(streamed('dc.csv', text, 2))).toBe(runJson(run));
     expect(runJson(readRunText('dc.csv', quoteEveryCell(text)))).toBe(runJson(run));
+  });
+});
+
+describe('a point id that restarts for the return sweep', () => {
+  it('never averages samples of two angles: the point is split by α with a warning naming both lines', () => {
+    const rows = ['point,alpha,dp_pitot,lift,drag'];
+    for (const [k, a] of [['1', 0], ['2', 4], ['3', 8], ['1', 8.1], ['2', 4], ['3', 0]] as const) for (let s = 0; s < 3; s++) rows.push(`${k},${a + 0.05 * s},600,${10 + a},1`);
+    const run = readRunText('return.csv', rows.join('\n'));
+    // every visit of an id is its own point; the two that come back at another angle are named
+    expect(run.points.map((p) => [p.key, p.n, p.line])).toEqual([
+      ['1', 3, 2],
+      ['2', 3, 5],
+      ['3', 3, 8],
+      ['1', 3, 11],
+      ['2', 3, 14],
+      ['3', 3, 17],
+    ]);
+    expect(run.warnings.map((w) => w.line)).toEqual([11, 17]);
+    expect(run.warnings[0]!.message).toMatch(/point "1" lie at α = 0\.05° \(from line 2\) and 8\.10°/);
   });
 });
