@@ -632,9 +632,17 @@ export function fitDifference(
   const cancelled = inputs.filter(isShared);
   const kept = inputs.filter((i) => !isShared(i));
   let u: number | null = null;
-  const ra = spec?.random ? run.fit[spec.random] : null;
-  const rb = spec?.random ? base.fit[spec.random] : null;
-  if (difference !== null && typeof ra === 'number' && typeof rb === 'number') {
+  // where one field holds the combined u (cl_max_u, ld_max_u), its random part is what remains after
+  // taking out the run's own systematic shifts
+  const randomPart = (r: { fit: FitResult }, sys: Record<string, number>): number | null => {
+    const v = spec?.random ? r.fit[spec.random] : null;
+    if (typeof v !== 'number') return null;
+    if (spec!.random !== spec!.combined) return v;
+    return Math.sqrt(Math.max(0, v * v - Object.values(sys).reduce((acc, x) => acc + x * x, 0)));
+  };
+  const ra = randomPart(run, sa);
+  const rb = randomPart(base, sb);
+  if (difference !== null && ra !== null && rb !== null) {
     let v = ra * ra + rb * rb;
     for (const i of cancelled) v += ((sa[i] ?? 0) - (sb[i] ?? 0)) ** 2;
     for (const i of kept) v += (sa[i] ?? 0) ** 2 + (sb[i] ?? 0) ** 2;

@@ -195,7 +195,7 @@ describe('drag polar', () => {
 
 describe('differences against a baseline', () => {
   it('cancels systematic terms the two runs share and says which (JCGM 100:2008 §5.2, correlation 1)', () => {
-    const a = up(-6, 12);
+    const a = up(-6, 18);
     const make = (s: number) => {
       const cl = a.map((x) => s * liftUp(x));
       return fitPolar(input(a, cl, undefined, {
@@ -215,5 +215,9 @@ describe('differences against a baseline', () => {
     const apart = fitDifference('cl_alpha_per_deg', run, base, []);
     expect(apart.kept).toEqual(['area']);
     expect(apart.u!).toBeGreaterThan(d.u!);
+    // CLmax carries its combined u in one field: the random part is recovered before the shared terms cancel
+    const c = fitDifference('cl_max', run, base);
+    const rnd = (f: typeof run) => Math.sqrt(f.fit.cl_max_u! ** 2 - f.fit_systematic['cl_max']!['area']! ** 2);
+    expect(c.u!).toBeCloseTo(Math.hypot(rnd(run), rnd(base), run.fit_systematic['cl_max']!['area']! - base.fit_systematic['cl_max']!['area']!), 12);
   });
 });
