@@ -19,18 +19,25 @@ export const MIN_BRANCH_POINTS = 3;
 
 /**
  * Split points given in file order into branches.
- * A step between consecutive points smaller than the jitter tolerance (a fifth of the median step,
- * at least 0.02°) has no direction and continues the current stretch (repeat points, encoder jitter).
+ * A step between consecutive points smaller than the jitter tolerance (the largest of 0.02°, a fifth of
+ * the median step and four times the robust jitter of α itself) has no direction and continues the
+ * current stretch (repeat points, encoder jitter).
  * The point where α turns ends the stretch it arrives in; the next stretch starts after it. A
- * stretch of fewer than MIN_BRANCH_POINTS points joins the branch before it (the first one, the
- * branch after it), and neighbours with the same direction then merge.
+ * stretch of fewer than MIN_BRANCH_POINTS points, or whose α travels no more than three tolerances,
+ * joins the branch before it (the first one, the branch after it), and neighbours with the same
+ * direction then merge.
  */
 export function splitBranches(alphaDeg: readonly number[]): Branch[] {
   const n = alphaDeg.length;
   if (n === 0) return [];
   const steps: number[] = [];
   for (let i = 1; i < n; i++) steps.push(Math.abs(alphaDeg[i]! - alphaDeg[i - 1]!));
-  const tol = Math.max(0.02, 0.2 * medianOf(steps.filter((s) => s > 0)));
+  // jitter of the angle itself (robust, from second differences in file order: var = 6σ² on a straight
+  // sweep), so that a finely stepped or continuous sweep with encoder noise is not cut into many branches
+  const d2: number[] = [];
+  for (let i = 1; i + 1 < n; i++) d2.push(Math.abs(alphaDeg[i + 1]! - 2 * alphaDeg[i]! + alphaDeg[i - 1]!));
+  const jitter = d2.length > 0 ? (1.4826 * medianOf(d2)) / Math.sqrt(6) : 0;
+  const tol = Math.max(0.02, 0.2 * medianOf(steps.filter((s) => s > 0)), 4 * jitter);
   interface Stretch { dir: number; points: number[] }
   const stretches: Stretch[] = [];
   let cur: Stretch = { dir: 0, points: [0] };
@@ -49,7 +56,9 @@ export function splitBranches(alphaDeg: readonly number[]): Branch[] {
   // absorb short stretches, then merge neighbours of one direction, until nothing changes
   for (let changed = true; changed && stretches.length > 1; ) {
     changed = false;
-    const k = stretches.findIndex((s) => s.points.length < MIN_BRANCH_POINTS);
+    // too few points, or too little travel in its own direction to be a sweep of its own (noise on a fine sweep)
+    const travel = (st: Stretch) => (st.dir || 1) * (alphaDeg[st.points[st.points.length - 1]!]! - alphaDeg[st.points[0]!]!);
+    const k = stretches.findIndex((st) => st.points.length < MIN_BRANCH_POINTS || travel(st) <= 3 * tol);
     if (k >= 0) {
       const into = k > 0 ? k - 1 : 1;
       const a = stretches[into]!;

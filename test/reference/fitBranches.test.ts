@@ -221,3 +221,13 @@ describe('differences against a baseline', () => {
     expect(c.u!).toBeCloseTo(Math.hypot(rnd(run), rnd(base), run.fit_systematic['cl_max']!['area']! - base.fit_systematic['cl_max']!['area']!), 12);
   });
 });
+
+describe('sweep branches of a fine, noisy sweep', () => {
+  it('keeps a continuous sweep with encoder jitter (σ 0.05° on 0.01° steps) as one branch, and finds its return', () => {
+    const g = normal(21);
+    const upA = Array.from({ length: 2000 }, (_, i) => -5 + 0.01 * i + 0.05 * g());
+    expect(splitBranches(upA).length).toBe(1);
+    const back = Array.from({ length: 2000 }, (_, i) => 15 - 0.01 * i + 0.05 * g());
+    expect(splitBranches([...upA, ...back]).map((b) => b.direction)).toEqual(['up', 'down']);
+  });
+});
