@@ -14,6 +14,9 @@ export const MIN_STALL_DROP_CL = 0.02;
 /** The drop must also exceed this many noise standard deviations. */
 export const STALL_DROP_SIGMAS = 4;
 
+/** Above this many points a branch is a fine or continuous sweep, whose CL is smoothed before the peak is sought. */
+export const DENSE_POINTS = 60;
+
 export interface ClMax {
   /** Index of the measured peak in the ordered arrays. */
   peak: number;
@@ -21,7 +24,7 @@ export interface ClMax {
   stall: number;
   cl_max: number;
   alpha_cl_max_deg: number;
-  method: 'parabola' | 'measured peak';
+  method: 'parabola' | 'measured peak' | 'smoothed peak';
   /** Standard uncertainty from the points' random uncertainties, when given. */
   u: number | null;
   alpha_u: number | null;
@@ -42,6 +45,7 @@ export function stallDrop(sigma: number): number {
 export function findClMax(alphaDeg: readonly number[], cl: readonly number[], drop: number, uCl?: readonly number[], uAlpha?: readonly number[], fixedMethod?: ClMax['method']): ClMaxResult {
   const n = alphaDeg.length;
   if (n < 3) return { reason: `only ${n} points` };
+  if (n > DENSE_POINTS) return denseClMax(alphaDeg, cl, drop, uCl);
   let m = 0;
   let stall = -1;
   for (let i = 1; i < n; i++) {
@@ -96,4 +100,59 @@ export function findClMax(alphaDeg: readonly number[], cl: readonly number[], dr
     alphaU = Math.sqrt(vx);
   }
   return { ...peak, cl_max: v!.y, alpha_cl_max_deg: v!.x, method: 'parabola', u, alpha_u: alphaU };
+}
+
+/**
+ * CLmax of a fine or continuous sweep (more than DENSE_POINTS points): the running maximum of single noisy
+ * samples creeps up with their number and would both overstate CLmax and mistake a noise dip for stall,
+ * so CL is first averaged over a centred window of k = ⌈n/DENSE_POINTS⌉ points (a moving average; its
+ * noise is σ/√k) and the first-stall rule is applied to the averages; CLmax is the average at the peak
+ * (method "smoothed peak"), its uncertainty the points' mean u over √k.
+ */
+function denseClMax(alphaDeg: readonly number[], cl: readonly number[], drop: number, uCl?: readonly number[]): ClMaxResult {
+  const n = alphaDeg.length;
+  const k = Math.ceil(n / DENSE_POINTS);
+  const half = Math.floor(k / 2);
+  const sm: number[] = [];
+  const sa: number[] = [];
+  let sum = 0;
+  let suma = 0;
+  // prefix sums for the centred moving average
+  const pc = [0];
+  const pa = [0];
+  for (let i = 0; i < n; i++) {
+    sum += cl[i]!;
+    suma += alphaDeg[i]!;
+    pc.push(sum);
+    pa.push(suma);
+  }
+  for (let i = 0; i < n; i++) {
+    const lo = Math.max(0, i - half);
+    const hi = Math.min(n, lo + k);
+    sm.push((pc[hi]! - pc[lo]!) / (hi - lo));
+    sa.push((pa[hi]! - pa[lo]!) / (hi - lo));
+  }
+  let m = 0;
+  let stall = -1;
+  for (let i = 1; i < n; i++) {
+    if (sm[i]! > sm[m]!) m = i;
+    else if (sm[i]! < sm[m]! - drop) {
+      stall = i;
+      break;
+    }
+  }
+  if (stall < 0) {
+    return m >= n - 1 - half
+      ? { reason: `no peak was reached: the highest CL is at the highest angles of the sweep (α = ${alphaDeg[n - 1]!.toFixed(2)}°), so the sweep does not reach stall` }
+      : { reason: `CL does not drop by more than ${drop.toFixed(3)} after its highest value (α = ${sa[m]!.toFixed(2)}°): no stall is seen` };
+  }
+  let u: number | null = null;
+  if (uCl) {
+    const lo = Math.max(0, m - half);
+    const hi = Math.min(n, lo + k);
+    let s2 = 0;
+    for (let i = lo; i < hi; i++) s2 += uCl[i]! ** 2;
+    u = Math.sqrt(s2) / (hi - lo);
+  }
+  return { peak: m, stall, cl_max: sm[m]!, alpha_cl_max_deg: sa[m]!, method: 'smoothed peak', u, alpha_u: null };
 }

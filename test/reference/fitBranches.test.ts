@@ -231,3 +231,18 @@ describe('sweep branches of a fine, noisy sweep', () => {
     expect(splitBranches([...upA, ...back]).map((b) => b.direction)).toEqual(['up', 'down']);
   });
 });
+
+describe('CLmax of a continuous sweep', () => {
+  it('smooths 5,000 noisy samples before seeking the first stall: no noise dip taken for stall, CLmax within 1 % of the truth', () => {
+    const g = normal(3);
+    const n = 5000;
+    const a = Array.from({ length: n }, (_, i) => -6 + (24 * i) / n);
+    // invented: slope 0.075/deg to a sharp peak of 1.05 at 12°, σ_CL = 0.005 per sample
+    const cl = a.map((x) => (x < 12 ? 0.075 * (x + 2) : 1.05 - 0.05 * (x - 12)) + 0.005 * g());
+    const r = fitPolar(input(a, cl));
+    expect(r.fit.cl_max_method).toBe('smoothed peak');
+    expect(Math.abs(r.fit.cl_max! / 1.05 - 1)).toBeLessThan(0.01);
+    expect(Math.abs(r.fit.alpha_cl_max_deg! - 12)).toBeLessThan(0.3);
+    expect(Math.abs(r.fit.cl_alpha_per_deg! / 0.075 - 1)).toBeLessThan(0.01);
+  });
+});
