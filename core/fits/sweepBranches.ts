@@ -53,32 +53,34 @@ export function splitBranches(alphaDeg: readonly number[]): Branch[] {
     }
   }
   stretches.push(cur);
-  // absorb short stretches, then merge neighbours of one direction, until nothing changes
-  for (let changed = true; changed && stretches.length > 1; ) {
-    changed = false;
-    // too few points, or too little travel in its own direction to be a sweep of its own (noise on a fine sweep)
-    const travel = (st: Stretch) => (st.dir || 1) * (alphaDeg[st.points[st.points.length - 1]!]! - alphaDeg[st.points[0]!]!);
-    const k = stretches.findIndex((st) => st.points.length < MIN_BRANCH_POINTS || travel(st) <= 3 * tol);
-    if (k >= 0) {
-      const into = k > 0 ? k - 1 : 1;
-      const a = stretches[into]!;
-      const b = stretches[k]!;
-      a.points = k > 0 ? [...a.points, ...b.points] : [...b.points, ...a.points];
-      if (a.dir === 0) a.dir = b.dir;
-      stretches.splice(k, 1);
-      changed = true;
-      continue;
-    }
-    for (let i = 1; i < stretches.length; i++) {
-      if (stretches[i]!.dir === stretches[i - 1]!.dir || stretches[i]!.dir === 0) {
-        stretches[i - 1]!.points.push(...stretches[i]!.points);
-        stretches.splice(i, 1);
-        changed = true;
-        break;
-      }
+  // one pass (linear in the number of points): a stretch with too few points, or too little travel in its
+  // own direction to be a sweep of its own (noise on a fine sweep), joins the branch before it (the first
+  // such, the one after it); a stretch with the direction of the branch before it continues that branch
+  const travel = (st: Stretch) => (st.dir || 1) * (alphaDeg[st.points[st.points.length - 1]!]! - alphaDeg[st.points[0]!]!);
+  const kept: Stretch[] = [];
+  let pending: number[] = [];
+  const append = (into: number[], from: readonly number[]) => {
+    for (const i of from) into.push(i);
+  };
+  for (const st of stretches) {
+    const last = kept[kept.length - 1];
+    const short = st.points.length < MIN_BRANCH_POINTS || travel(st) <= 3 * tol;
+    if (short && stretches.length > 1) {
+      if (last) append(last.points, st.points);
+      else append(pending, st.points);
+    } else if (last && (last.dir === st.dir || st.dir === 0)) {
+      append(last.points, st.points);
+    } else {
+      const points = pending;
+      append(points, st.points);
+      pending = [];
+      kept.push({ dir: st.dir, points });
     }
   }
-  return stretches.map((s, index) => ({ index, direction: s.dir < 0 ? 'down' : 'up', points: s.points }));
+  if (kept.length === 0) kept.push({ dir: stretches[0]!.dir, points: pending });
+  else if (pending.length > 0) kept[0]!.points = [...pending, ...kept[0]!.points];
+  const out = kept;
+  return out.map((s, index) => ({ index, direction: s.dir < 0 ? 'down' : 'up', points: s.points }));
 }
 
 /** The indices of a branch ordered by rising α (stable for equal angles). */
@@ -109,8 +111,9 @@ export function hysteresisLoop(
   tol: number,
 ): Hysteresis | undefined {
   const u = byRisingAlpha(alphaDeg, up.points);
-  const lo = Math.max(alphaDeg[u[0]!]!, Math.min(...down.points.map((i) => alphaDeg[i]!)));
-  const hi = Math.min(alphaDeg[u[u.length - 1]!]!, Math.max(...down.points.map((i) => alphaDeg[i]!)));
+  const [dLo, dHi] = extent(down.points.map((i) => alphaDeg[i]!));
+  const lo = Math.max(alphaDeg[u[0]!]!, dLo);
+  const hi = Math.min(alphaDeg[u[u.length - 1]!]!, dHi);
   let from = Infinity;
   let to = -Infinity;
   let max = 0;
@@ -144,9 +147,25 @@ function interpolate(x: readonly number[], y: readonly number[], order: number[]
   return y[order[order.length - 1]!]!;
 }
 
+/** Above this many values the median is taken of an evenly strided subset of about this size (the noise estimates need no more, and sorting a million values per estimate is slow). */
+export const MEDIAN_SAMPLE = 20001;
+
 export function medianOf(values: readonly number[]): number {
-  const v = values.filter(Number.isFinite).sort((x, y) => x - y);
+  const stride = Math.ceil(values.length / MEDIAN_SAMPLE);
+  const picked = stride > 1 ? values.filter((_, i) => i % stride === 0) : values;
+  const v = Float64Array.from(picked.filter(Number.isFinite)).sort();
   if (v.length === 0) return 0;
   const mid = v.length >> 1;
   return v.length % 2 === 1 ? v[mid]! : (v[mid - 1]! + v[mid]!) / 2;
+}
+
+/** [min, max] of the values, by a loop (a spread of a million arguments overflows the call stack). */
+export function extent(values: readonly number[]): [number, number] {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const v of values) {
+    if (v < lo) lo = v;
+    if (v > hi) hi = v;
+  }
+  return [lo, hi];
 }
