@@ -7,7 +7,7 @@
  * cannot be determined is null, with a warning naming the run and the branch; never a made-up number.
  */
 import { fitLine, regressLineEV } from './leastSquares.ts';
-import { byRisingAlpha, hysteresisLoop, medianOf, splitBranches, type Branch } from './sweepBranches.ts';
+import { byRisingAlpha, extent, hysteresisLoop, medianOf, splitBranches, type Branch } from './sweepBranches.ts';
 import { findLinearRange as findLinearRangeWithin, MIN_LINEAR_POINTS, noiseLevel, rangeFromAlpha, robustNoise, robustNoiseSmooth, TOLERANCE_FLOOR_CL, TOLERANCE_SIGMAS, type LinearRange } from './linearRange.ts';
 import { findClMax, stallDrop, type ClMax } from './clMax.ts';
 import { dragPolar, ldMax } from './polar.ts';
@@ -310,7 +310,8 @@ function analyseBranch(d: BranchData, input: FitInput, fixed?: Fixed): BranchOut
     fit.linear_range_points = to - from;
     fit.linear_tolerance_cl = fixed ? null : range.tolerance;
     fit.linear_range_source = range.source;
-    const span = Math.max(...cl) - Math.min(...cl);
+    const [clLo, clHi] = extent(cl);
+    const span = clHi - clLo;
     if (!fixed && (to - from < SHORT_RANGE_POINTS || span < SHORT_SPAN_CL)) {
       warnings.push(`the linear lift range is short (${to - from} points, α ${a[0]!.toFixed(2)}° to ${a[a.length - 1]!.toFixed(2)}°, ΔCL ${span.toFixed(3)}): the slope and the drag polar rest on little data`);
     }
@@ -500,7 +501,8 @@ export function fitPolar(input: FitInput): FitOutcome {
   const fit: FitResult = { ...out.fit, branch: main.index, branch_direction: main.direction };
   const label = (b: Branch) => {
     const al = b.points.map((i) => input.alphaDeg[i]!);
-    return `branch ${b.index + 1} of ${branches.length} (${b.direction}, α ${Math.min(...al).toFixed(1)}° to ${Math.max(...al).toFixed(1)}°)`;
+    const [lo, hi] = extent(al);
+    return `branch ${b.index + 1} of ${branches.length} (${b.direction}, α ${lo.toFixed(1)}° to ${hi.toFixed(1)}°)`;
   };
   const warnings = out.warnings.map((w) => `${run}, ${label(main)}: ${w}`);
   if (branches.length > 1) {
@@ -554,7 +556,7 @@ export function fitPolar(input: FitInput): FitOutcome {
       index: b.index,
       direction: b.direction,
       points: b.points.length,
-      alpha_range_deg: [Math.min(...al), Math.max(...al)],
+      alpha_range_deg: extent(al),
       cl_max: f.cl_max,
       alpha_cl_max_deg: f.alpha_cl_max_deg,
       alpha_stall_deg: f.alpha_stall_deg,
