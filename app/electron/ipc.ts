@@ -53,7 +53,7 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
   };
   const chosen = async (path: string): Promise<ChosenFile> => {
     const g = deps.grants.grant(path, 'read');
-    let size = 0;
+    let size: number;
     try {
       size = (await stat(g.path)).size;
     } catch {
@@ -144,7 +144,7 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
       }
     }
     await deps.recent.add(g.path);
-    let backupAvailable = false;
+    let backupAvailable: boolean;
     try {
       await readFile(`${g.path}.bak`);
       backupAvailable = true;
