@@ -4,6 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { setupJsonSchemaText, setupMarkdown } from '../../core/setup/docs.ts';
 import { setupFields } from '../../core/setup/fields.ts';
 import { validateSetup } from '../../core/setup/schema.ts';
+import { parseCampaign, serializeCampaign } from '../../core/formats/campaign.ts';
 import { SETUP_FIELDS } from '../../renderer/src/logic/setupForm.ts';
 
 /**
@@ -101,5 +102,14 @@ describe('setup field metadata', () => {
       'Instrument uncertainties (standard, k = 1; optional) | uncertainty.chord_rel | number | –',
     ];
     expect(shown.filter((line) => before.includes(line))).toEqual(before);
+  });
+});
+
+describe('schema defaults and saved files', () => {
+  it('keeps the setups of a campaign as written: defaults fill in when reducing, never into the saved file', () => {
+    const text = read('sample-runs/sweepbook-campaign.json');
+    const campaign = parseCampaign('sweepbook-campaign.json', text);
+    expect(campaign.setups).toEqual(JSON.parse(text).setups);
+    expect(serializeCampaign(campaign)).toBe(serializeCampaign(JSON.parse(text)));
   });
 });
