@@ -23,6 +23,9 @@ const relativeInto = (folder) => `^(\\.\\.?/)+(\\.\\./)*${folder}(/.*)?$`;
 /** core is reached through its one public entry (core/index.ts) from outside core. */
 const coreOnlyByIndex = { regex: '^(\\.\\.?/)+(\\.\\./)*core/(?!index\\.ts$).*$', message: 'import core through core/index.ts' };
 
+/** The no-restricted-imports rule with these patterns. */
+const restrictImports = (...patterns) => ['error', { patterns }];
+
 /** Globals of a browser page or of Node that the pure core must not touch (it runs in both hosts and in a worker). */
 const HOST_GLOBALS = [
   'window',
@@ -96,17 +99,12 @@ export default tseslint.config(
     files: ['core/**/*.ts'],
     languageOptions: { globals: {} },
     rules: {
-      'no-restricted-imports': [
-        'error',
-        {
-          patterns: [
-            nodeBuiltin,
-            electron,
-            { regex: relativeInto('(app|renderer)'), message: 'core must not depend on app or renderer' },
-            { regex: '^(vue|chart\\.js)(/.*)?$', message: 'view libraries belong to the renderer' },
-          ],
-        },
-      ],
+      'no-restricted-imports': restrictImports(
+        nodeBuiltin,
+        electron,
+        { regex: relativeInto('(app|renderer)'), message: 'core must not depend on app or renderer' },
+        { regex: '^(vue|chart\\.js)(/.*)?$', message: 'view libraries belong to the renderer' },
+      ),
       'no-restricted-globals': ['error', ...HOST_GLOBALS],
       // a dynamic import() escapes no-restricted-imports, and core has no use for one
       'no-restricted-syntax': ['error', { selector: 'ImportExpression', message: 'core imports statically, so the layering rules see every import' }],
@@ -117,17 +115,12 @@ export default tseslint.config(
     files: ['renderer/**/*.ts', 'renderer/**/*.vue'],
     languageOptions: { globals: globals.browser },
     rules: {
-      'no-restricted-imports': [
-        'error',
-        {
-          patterns: [
-            nodeBuiltin,
-            electron,
-            { regex: relativeInto('app'), message: 'the renderer reaches its host only through the host interface' },
-            coreOnlyByIndex,
-          ],
-        },
-      ],
+      'no-restricted-imports': restrictImports(
+        nodeBuiltin,
+        electron,
+        { regex: relativeInto('app'), message: 'the renderer reaches its host only through the host interface' },
+        coreOnlyByIndex,
+      ),
     },
   },
   // Layer: app — the hosts (command line, Electron main and preload, static server)
@@ -135,7 +128,7 @@ export default tseslint.config(
     files: ['app/**/*.ts', 'app/**/*.cts'],
     languageOptions: { globals: globals.node },
     rules: {
-      'no-restricted-imports': ['error', { patterns: [{ regex: relativeInto('renderer'), message: 'app must not import the renderer' }, coreOnlyByIndex] }],
+      'no-restricted-imports': restrictImports({ regex: relativeInto('renderer'), message: 'app must not import the renderer' }, coreOnlyByIndex),
     },
   },
   // Tests build arbitrary JSON on purpose and load the renderer's ambient declarations by reference

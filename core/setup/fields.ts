@@ -4,7 +4,7 @@
  * form, docs/setup.md and docs/setup.schema.json are built from this; nothing here lists a field by hand.
  */
 import { z } from 'zod';
-import type { SetupFormKind } from './fieldMeta.ts';
+import type { SetupFieldMeta, SetupFormKind } from './fieldMeta.ts';
 import { setupSchema } from './schema.ts';
 
 export type { SetupFormKind } from './fieldMeta.ts';
@@ -41,7 +41,7 @@ export interface SetupFieldInfo {
 }
 
 /** A node of the JSON Schema zod writes, with our metadata keys (zod copies `.meta()` into it). */
-interface Node {
+interface Node extends SetupFieldMeta {
   type?: string | string[];
   enum?: unknown[];
   const?: unknown;
@@ -53,15 +53,6 @@ interface Node {
   maximum?: number;
   exclusiveMinimum?: number;
   exclusiveMaximum?: number;
-  label?: string;
-  unit?: string;
-  help?: string;
-  details?: string;
-  choices?: Record<string, string>;
-  defaultText?: string;
-  formKind?: SetupFormKind;
-  form?: boolean;
-  group?: string;
 }
 
 let cachedInput: Node | undefined;
