@@ -29,6 +29,13 @@ const geometry = (what: string, unit: 'm' | 'm²' | 'm³') => {
   const error = `expected ${lo} to ${hi} ${unit} (${what})`;
   return positive(`${what}, ${unit}`).min(lo, { error }).max(hi, { error });
 };
+/** A number within a sane range; out of range, the message gives the range (not just "expected a number"). */
+const inRange = (what: string, lo: number, hi: number, unit: string) => {
+  const error = unit ? `expected ${lo} to ${hi}${unit}` : `expected ${lo} to ${hi} (${what})`;
+  return finite(what).min(lo, { error }).max(hi, { error });
+};
+/** A standard uncertainty: zero or more. */
+const uncertainty = (what: string) => finite(what).nonnegative({ error: `expected zero or more (${what})` });
 /** A wall-correction factor: a number overrides, `null` (the default) means computed for this tunnel and model. */
 const optionalFactor = (what: string) =>
   z
@@ -115,7 +122,7 @@ const balanceSchema = z
 
 const flowSchema = z
   .strictObject({
-    gamma: finite('ratio of specific heats').min(1.0001).max(2).default(1.4).meta({ label: 'Ratio of specific heats γ', unit: '–', form: false }),
+    gamma: inRange('ratio of specific heats', 1.0001, 2, '').default(1.4).meta({ label: 'Ratio of specific heats γ', unit: '–', form: false }),
     // ── flow fields added by later work go below this line, one entry each ──
   })
   .prefault({})
@@ -124,8 +131,8 @@ const flowSchema = z
 const ambientSchema = z
   .strictObject({
     p_pa: positive('static pressure, Pa').optional().meta({ label: 'Static pressure p', unit: 'Pa' }),
-    t_c: finite('°C').min(-100).max(200).optional().meta({ label: 'Stagnation temperature T₀', unit: '°C' }),
-    rh_pct: finite('%').min(0).max(100).optional().meta({ label: 'Relative humidity', unit: '%' }),
+    t_c: inRange('°C', -100, 200, ' °C').optional().meta({ label: 'Stagnation temperature T₀', unit: '°C' }),
+    rh_pct: inRange('%', 0, 100, ' %').optional().meta({ label: 'Relative humidity', unit: '%' }),
   })
   .prefault({})
   .meta({ group: 'Ambient (when the run has no column)', details: 'Used for a run file that lacks the `p_static`, `t_total` or `rh` column.' });
@@ -181,22 +188,19 @@ const correctionsSchema = z
 
 const uncertaintySchema = z
   .strictObject({
-    dp_pitot_pa: finite('Pa')
-      .nonnegative()
+    dp_pitot_pa: uncertainty('Pa')
       .optional()
       .meta({ label: 'Pitot differential pressure', unit: 'Pa', help: 'all empty: no uncertainties, fits unweighted' }),
-    p_static_pa: finite('Pa').nonnegative().optional().meta({ label: 'Static pressure', unit: 'Pa' }),
-    t_total_c: finite('K or °C difference').nonnegative().optional().meta({ label: 'Stagnation temperature', unit: 'K' }),
-    rh_pct: finite('% RH').nonnegative().optional().meta({ label: 'Relative humidity', unit: '% RH' }),
-    force_n: finite('N').nonnegative().optional().meta({ label: 'Each balance force', unit: 'N' }),
-    moment_nm: finite('N m').nonnegative().optional().meta({ label: 'Pitching moment', unit: 'N m' }),
-    alpha_deg: finite('deg').nonnegative().optional().meta({ label: 'Angle of attack', unit: 'deg' }),
-    area_rel: finite('relative, e.g. 0.002')
-      .nonnegative()
+    p_static_pa: uncertainty('Pa').optional().meta({ label: 'Static pressure', unit: 'Pa' }),
+    t_total_c: uncertainty('K or °C difference').optional().meta({ label: 'Stagnation temperature', unit: 'K' }),
+    rh_pct: uncertainty('% RH').optional().meta({ label: 'Relative humidity', unit: '% RH' }),
+    force_n: uncertainty('N').optional().meta({ label: 'Each balance force', unit: 'N' }),
+    moment_nm: uncertainty('N m').optional().meta({ label: 'Pitching moment', unit: 'N m' }),
+    alpha_deg: uncertainty('deg').optional().meta({ label: 'Angle of attack', unit: 'deg' }),
+    area_rel: uncertainty('relative, e.g. 0.002')
       .optional()
       .meta({ label: 'Reference area, relative', unit: '–', help: 'a fraction: 0.002 for 0.2 %' }),
-    chord_rel: finite('relative, e.g. 0.002')
-      .nonnegative()
+    chord_rel: uncertainty('relative, e.g. 0.002')
       .optional()
       .meta({ label: 'Reference chord, relative', unit: '–', help: 'a fraction: 0.002 for 0.2 %' }),
   })

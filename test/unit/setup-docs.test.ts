@@ -4,6 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { setupJsonSchemaText, setupMarkdown } from '../../core/setup/docs.ts';
 import { setupFields } from '../../core/setup/fields.ts';
 import { validateSetup } from '../../core/setup/schema.ts';
+import type { InputError } from '../../core/contract/messages.ts';
 import { parseCampaign, serializeCampaign } from '../../core/formats/campaign.ts';
 import { SETUP_FIELDS } from '../../renderer/src/logic/setupForm.ts';
 
@@ -111,5 +112,37 @@ describe('schema defaults and saved files', () => {
     const campaign = parseCampaign('sweepbook-campaign.json', text);
     expect(campaign.setups).toEqual(JSON.parse(text).setups);
     expect(serializeCampaign(campaign)).toBe(serializeCampaign(JSON.parse(text)));
+  });
+});
+
+describe('setup messages for a value out of its range', () => {
+  const setup = (edit: (s: Record<string, Record<string, unknown>>) => void) => {
+    const s: Record<string, Record<string, unknown>> = {
+      model: { kind: '3d', area_m2: 0.2, chord_m: 0.2, span_m: 1 },
+      tunnel: { section: 'closed-rectangular', width_m: 1.2, height_m: 0.9 },
+      balance: { axes: 'wind' },
+    };
+    edit(s);
+    return s;
+  };
+  const message = (s: unknown) => {
+    try {
+      validateSetup('s.json', s);
+      return 'accepted';
+    } catch (e) {
+      const { notice } = e as InputError;
+      return `${notice.field}: ${notice.message}`;
+    }
+  };
+
+  it('names the range, not just "expected a number", when the value is a number outside it', () => {
+    expect(message(setup((s) => (s['flow'] = { gamma: 3 })))).toBe('flow.gamma: expected 1.0001 to 2 (ratio of specific heats)');
+    expect(message(setup((s) => (s['ambient'] = { t_c: 500 })))).toBe('ambient.t_c: expected -100 to 200 °C');
+    expect(message(setup((s) => (s['ambient'] = { rh_pct: 101 })))).toBe('ambient.rh_pct: expected 0 to 100 %');
+    expect(message(setup((s) => (s['uncertainty'] = { force_n: -0.1 })))).toBe('uncertainty.force_n: expected zero or more (N)');
+  });
+
+  it('keeps the type message for a value that is not a number', () => {
+    expect(message(setup((s) => (s['flow'] = { gamma: '1.4' })))).toBe('flow.gamma: expected a number (ratio of specific heats), not the text "1.4"');
   });
 });
