@@ -343,7 +343,9 @@ function describeIssue(issue: z.core.$ZodIssue, json: unknown): string {
   // (fuzz finding: "chord_m": "0.2" read as missing); look the value up in the parsed JSON instead
   if (issue.code === 'invalid_type') {
     const found = valueAt(json, issue.path);
-    return found.present ? `${issue.message}, not ${describeValue(found.value)}` : `missing; ${issue.message}`;
+    // a block (model, tunnel, ...) has no message of its own; zod's default reads "Invalid input: expected object, received null"
+    const expected = issue.expected === 'object' ? 'expected an object of fields, { ... }' : issue.message;
+    return found.present ? `${expected}, not ${describeValue(found.value)}` : `missing; ${expected}`;
   }
   return issue.message;
 }

@@ -142,6 +142,12 @@ describe('setup messages for a value out of its range', () => {
     expect(message(setup((s) => (s['uncertainty'] = { force_n: -0.1 })))).toBe('uncertainty.force_n: expected zero or more (N)');
   });
 
+  it('says a block must be an object of fields when it is null, a list or missing', () => {
+    expect(message(setup((s) => (s['flow'] = null as never)))).toBe('flow: expected an object of fields, { ... }, not null');
+    expect(message(setup((s) => (s['model'] = [] as never)))).toBe('model: expected an object of fields, { ... }, not a list');
+    expect(message(setup((s) => delete s['tunnel']))).toBe('tunnel: missing; expected an object of fields, { ... }');
+  });
+
   it('keeps the type message for a value that is not a number', () => {
     expect(message(setup((s) => (s['flow'] = { gamma: '1.4' })))).toBe('flow.gamma: expected a number (ratio of specific heats), not the text "1.4"');
   });
