@@ -8,6 +8,7 @@ export * from './contract/messages.ts';
 export * from './fits/characteristics.ts';
 export * from './formats/campaign.ts';
 export * from './formats/channels.ts';
+export * from './formats/columnMap.ts';
 export * from './formats/csvWriter.ts';
 export * from './formats/provenance.ts';
 export * from './formats/runFile.ts';

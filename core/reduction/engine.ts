@@ -4,18 +4,21 @@
  */
 import { attempt, InputError, type Outcome } from '../contract/messages.ts';
 import { reduce, type ReductionResult, type PointResult } from './pipeline.ts';
-import { RunFileReader, type ColumnMapping, type RunData } from '../formats/runFile.ts';
+import { RunFileReader, type ColumnMapping, type GroupingOptions, type RunData } from '../formats/runFile.ts';
 import { parseSetup, type SetupResult } from '../setup/schema.ts';
 import { toCsv, type Cell } from '../formats/csvWriter.ts';
 import { provenanceLines, type Provenance } from '../formats/provenance.ts';
+import { checkTare, prepareRun } from './windOff.ts';
+import { buildTare, tareAt } from './tare.ts';
+import { BODY_LOADS, WIND_LOADS } from '../formats/channels.ts';
 
 export type { ReductionResult, PointResult } from './pipeline.ts';
 
 /** A source of text chunks: a Node stream with utf8 encoding, a browser file's text stream, or an array. */
 export type TextSource = AsyncIterable<string> | Iterable<string>;
 
-export async function readRun(file: string, source: TextSource, mapping?: ColumnMapping): Promise<Outcome<RunData>> {
-  const reader = new RunFileReader(file, { mapping });
+export async function readRun(file: string, source: TextSource, mapping?: ColumnMapping, grouping?: GroupingOptions): Promise<Outcome<RunData>> {
+  const reader = new RunFileReader(file, { mapping, grouping });
   return attemptAsync(async () => {
     for await (const chunk of source as AsyncIterable<string>) reader.push(chunk);
     return reader.finish();
@@ -34,9 +37,24 @@ export interface ReduceRequest {
 }
 
 export function reduceRun(req: ReduceRequest): Outcome<ReductionResult> {
-  return attempt(() =>
-    reduce({ run: req.run, setup: req.setup.setup, setupWarnings: req.setup.warnings, tare: req.tare, noCorrections: req.noCorrections }),
-  );
+  return attempt(() => {
+    // --- wind-off points, zero readings, pressure source and tare checks (core/reduction/windOff.ts) ---
+    const setup = req.setup.setup;
+    if (req.tare) checkTare(req.run, req.tare, setup);
+    const loadChannels = setup.balance.axes === 'wind' ? WIND_LOADS : BODY_LOADS;
+    const prepared = prepareRun(req.run, setup, req.tare, (t) => {
+      const table = buildTare(t, loadChannels);
+      return (alpha) => tareAt(table, alpha).loads;
+    });
+    // --- end ---
+    return reduce({
+      run: prepared.run,
+      setup,
+      setupWarnings: [...req.setup.warnings, ...prepared.notices],
+      tare: req.tare ?? prepared.embeddedTare,
+      noCorrections: req.noCorrections,
+    });
+  });
 }
 
 async function attemptAsync<T>(step: () => Promise<T>): Promise<Outcome<T>> {

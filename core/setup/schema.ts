@@ -58,7 +58,16 @@ export const setupSchema = z.strictObject({
   model: modelSchema,
   tunnel: tunnelSchema,
   balance: z.strictObject({ axes: z.enum(['wind', 'body'], { error: 'expected "wind" (lift/drag columns) or "body" (normal/axial columns)' }) }),
-  flow: z.strictObject({ gamma: finite('ratio of specific heats').min(1.0001).max(2) }).optional(),
+  flow: z
+    .strictObject({
+      gamma: finite('ratio of specific heats').min(1.0001).max(2).optional(),
+      // --- reading tunnel files: q = contraction_factor × dp_contraction (facility calibration) ---
+      contraction_factor: positive('q per unit contraction pressure drop, from the facility calibration').optional(),
+    })
+    .optional(),
+  // --- reading tunnel files: grouping samples into points without a point column ---
+  grouping: z.strictObject({ alpha_tol_deg: positive('degrees').max(5, { error: 'expected at most 5° (samples of one point stay within a fraction of a degree)' }).optional() }).optional(),
+  // --- end ---
   ambient: z
     .strictObject({
       p_pa: positive('static pressure, Pa').optional(),
@@ -98,7 +107,9 @@ export interface Setup {
   };
   tunnel: { name?: string; section: 'closed-rectangular'; width_m: number; height_m: number };
   balance: { axes: 'wind' | 'body' };
-  flow: { gamma: number };
+  flow: { gamma: number; /** q per unit dp_contraction; required when that column is the pressure source. */ contraction_factor?: number };
+  /** Grouping of samples without a point column (setup default 0.2°). */
+  grouping?: { alpha_tol_deg: number };
   ambient: { p_pa?: number; t_c?: number; rh_pct?: number };
   corrections: {
     enabled: boolean;
@@ -179,7 +190,8 @@ export function validateSetup(file: string, json: unknown): SetupResult {
       },
       tunnel: s.tunnel,
       balance: s.balance,
-      flow: { gamma: s.flow?.gamma ?? 1.4 },
+      flow: { gamma: s.flow?.gamma ?? 1.4, ...(s.flow?.contraction_factor !== undefined ? { contraction_factor: s.flow.contraction_factor } : {}) },
+      grouping: { alpha_tol_deg: s.grouping?.alpha_tol_deg ?? 0.2 },
       ambient: s.ambient ?? {},
       corrections: {
         enabled: c.enabled ?? true,
