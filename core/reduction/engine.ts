@@ -3,14 +3,11 @@
  * result or located errors out. Nothing here touches a file system.
  */
 import { attempt, InputError, type Outcome } from '../contract/messages.ts';
-import { reduce, type ReductionResult, type PointResult } from './pipeline.ts';
+import { reduce, reduceBases, type ReductionResult, type PointResult } from './pipeline.ts';
 import { RunFileReader, type ColumnMapping, type GroupingOptions, type RunData } from '../formats/runFile.ts';
 import { parseSetup, type SetupResult } from '../setup/schema.ts';
 import { toCsv, type Cell } from '../formats/csvWriter.ts';
 import { provenanceLines, type Provenance } from '../formats/provenance.ts';
-import { checkTare, prepareRun } from './windOff.ts';
-import { buildTare, tareAt } from './tare.ts';
-import { BODY_LOADS, WIND_LOADS } from '../formats/channels.ts';
 
 export type { ReductionResult, PointResult } from './pipeline.ts';
 
@@ -37,23 +34,18 @@ export interface ReduceRequest {
 }
 
 export function reduceRun(req: ReduceRequest): Outcome<ReductionResult> {
+  return attempt(() =>
+    reduce({ run: req.run, setup: req.setup.setup, setupWarnings: req.setup.warnings, tare: req.tare, noCorrections: req.noCorrections }),
+  );
+}
+
+/** The corrected result and the as-measured one (corrections off) from one pass; the same object twice when the setup has corrections off. */
+export function reduceRunBothBases(req: ReduceRequest): Outcome<{ result: ReductionResult; asMeasured: ReductionResult }> {
   return attempt(() => {
-    // --- wind-off points, zero readings, pressure source and tare checks (core/reduction/windOff.ts) ---
-    const setup = req.setup.setup;
-    if (req.tare) checkTare(req.run, req.tare, setup);
-    const loadChannels = setup.balance.axes === 'wind' ? WIND_LOADS : BODY_LOADS;
-    const prepared = prepareRun(req.run, setup, req.tare, (t) => {
-      const table = buildTare(t, loadChannels);
-      return (alpha) => tareAt(table, alpha).loads;
-    });
-    // --- end ---
-    return reduce({
-      run: prepared.run,
-      setup,
-      setupWarnings: [...req.setup.warnings, ...prepared.notices],
-      tare: req.tare ?? prepared.embeddedTare,
-      noCorrections: req.noCorrections,
-    });
+    const input = { run: req.run, setup: req.setup.setup, setupWarnings: req.setup.warnings, tare: req.tare, noCorrections: req.noCorrections };
+    const on = req.setup.setup.corrections.enabled && !req.noCorrections;
+    const r = reduceBases(input, on ? ['corrected', 'measured'] : ['corrected']);
+    return { result: r.corrected!, asMeasured: r.measured ?? r.corrected! };
   });
 }
 
