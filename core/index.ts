@@ -12,6 +12,7 @@ export * from './formats/columnMap.ts';
 export * from './formats/csvWriter.ts';
 export * from './formats/provenance.ts';
 export * from './formats/runFile.ts';
+export * from './formats/sheet.ts';
 export * from './fullscale/stallSpeed.ts';
 export * from './physics/air.ts';
 export * from './physics/units.ts';

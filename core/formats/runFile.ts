@@ -103,6 +103,8 @@ export interface ColumnMapping {
   cells?: Record<string, CellAssignment | null>;
   /** Name of the map file, for messages about its keys. */
   source?: string;
+  /** Entries naming columns the file lacks are passed over instead of refused (a tare read with its run's map). */
+  partial?: boolean;
 }
 
 /** How samples are grouped into points when the file has no `point` column. */
@@ -347,7 +349,8 @@ export class RunFileReader {
     if (trimmed === '') return;
     if (trimmed.startsWith('#')) {
       const m = /^#\s*([^:]+?)\s*:\s*(.*)$/.exec(trimmed);
-      if (m) this.metadata[m[1]!.toLowerCase()] = m[2]!.trim();
+      // the first value of a key is kept: an exported table's `# run: NAME` precedes its provenance lines
+      if (m && !Object.prototype.hasOwnProperty.call(this.metadata, m[1]!.toLowerCase())) this.metadata[m[1]!.toLowerCase()] = m[2]!.trim();
       return;
     }
     this.header(raw);
@@ -417,7 +420,7 @@ export class RunFileReader {
     const seen = new Map<string, number>();
     const bound: BoundColumn[] = [];
     const cellMap = this.mapping.cells;
-    if (cellMap) {
+    if (cellMap && !this.mapping.partial) {
       const texts = new Set(this.headerCells.map((c) => c.text));
       for (const key of Object.keys(cellMap)) {
         if (!texts.has(key.trim())) {

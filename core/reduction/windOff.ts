@@ -204,8 +204,16 @@ export function prepareRun(run: RunData, setup: Setup, tare: RunData | undefined
     const lines = tarePoints.map((p) => p.line);
     notices.push({ file: run.file, message: `no tare file given: the run's own wind-off points (${tarePoints.length}, at ${distinctAlphas(tarePoints.map((p) => p.mean[ai]!), tol)} angles, lines ${lines[0]}–${lines[lines.length - 1]}) are used as its tare` });
   }
+  const label = source === 'q' ? 'dynamic pressure q' : source === 'dp_pitot' ? 'pitot impact pressure' : 'q from dp_contraction';
+  const runMedian = median(points.map((p) => roughQ(source, p.mean[si]!, factor)));
   for (const p of pick('excluded')) {
-    notices.push({ file: run.file, line: p.line, message: `point ${p.key} (line ${p.line}) is wind-off (q below ${WIND_OFF_FRACTION * 100} % of the run's median) and is left out${tare ? ' (a tare file is given)' : ''}` });
+    const q = roughQ(source, p.mean[si]!, factor);
+    const why = tare && tarePoints.length === 0 && roles.some((r) => r === 'excluded') ? '; a tare file is given, so the run\'s wind-off points are not used as its tare' : '';
+    notices.push({
+      file: run.file,
+      line: p.line,
+      message: `point ${p.key} (line ${p.line}) skipped: wind-off (${label} ${q.toPrecision(4)} Pa, below ${WIND_OFF_FRACTION * 100} % of the run's median ${runMedian.toPrecision(4)} Pa); not reduced to coefficients${why}`,
+    });
   }
 
   // zero readings: loads minus the tare at their alpha give the shift
