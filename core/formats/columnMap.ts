@@ -20,7 +20,7 @@
 import { CHANNELS, CHANNEL_NAMES, POINT_COLUMN, isChannel, type Channel } from './channels.ts';
 import { InputError } from '../contract/messages.ts';
 import { lookupUnit } from '../physics/units.ts';
-import { detectDelimiter, splitHeaderCell, splitHeaderLine, splitWhitespace, unitsRow, WHITESPACE, type ColumnMapping, type HeaderCell } from './runFile.ts';
+import { detectDelimiter, joinUnitWords, splitHeaderCell, splitHeaderLine, splitWhitespace, unitsRow, WHITESPACE, type ColumnMapping, type HeaderCell } from './runFile.ts';
 import { jsonErrorOffset, nearest } from '../setup/schema.ts';
 
 export const COLUMN_MAP_FORMAT = 'sweepbook-columns';
@@ -181,7 +181,7 @@ export function inspectHeader(file: string, text: string): HeaderSketch {
   let j = i + 1;
   const next = lines[j];
   if (next !== undefined && next.trim() !== '') {
-    const units = unitsRow(split(next), delimiter === ';');
+    const units = unitsRow(delimiter === WHITESPACE ? joinUnitWords(split(next), cells.length) : split(next), delimiter === ';');
     if (units) {
       unitsLine = j + 1;
       units.forEach((u, k) => {

@@ -379,7 +379,7 @@ export class RunFileReader {
       this.bind(undefined);
       return;
     }
-    const cells = this.delimiter === WHITESPACE ? splitWhitespace(raw) : raw.indexOf('"') >= 0 ? Papa.parse<string[]>(raw, { delimiter: this.delimiter, newline: '\n' }).data[0] ?? [] : raw.split(this.delimiter);
+    const cells = this.delimiter === WHITESPACE ? joinUnitWords(splitWhitespace(raw), this.headerWidth) : raw.indexOf('"') >= 0 ? Papa.parse<string[]>(raw, { delimiter: this.delimiter, newline: '\n' }).data[0] ?? [] : raw.split(this.delimiter);
     const units = unitsRow(cells.map((c) => c.trim()), this.decimalComma);
     if (units === undefined) {
       this.bind(undefined);
@@ -810,6 +810,28 @@ export function splitWhitespace(line: string): string[] {
 }
 
 /**
+ * A whitespace-aligned units row splits units written with a space ("degr. C", "N m", "in lbf") into
+ * two cells: while there are more cells than header columns, the first neighbouring pair that makes a
+ * known unit together is joined.
+ */
+export function joinUnitWords(cells: string[], width: number): string[] {
+  const out = [...cells];
+  while (out.length > width) {
+    let joined = false;
+    for (let i = 0; i + 1 < out.length; i++) {
+      const both = `${out[i]} ${out[i + 1]}`;
+      if (lookupUnit(both) !== undefined) {
+        out.splice(i, 2, both);
+        joined = true;
+        break;
+      }
+    }
+    if (!joined) break;
+  }
+  return out;
+}
+
+/**
  * Header cells of a line. In a whitespace-aligned header a unit written apart from its name
  * (`alpha [deg]`, `AoA (deg)`) belongs to the name before it; names with inner spaces need a
  * delimited file or a column map.
@@ -919,7 +941,7 @@ function clip(cell: string): string {
 }
 
 /** Read a whole run file held in memory (tests, the browser host's small files). */
-export function readRunText(file: string, text: string, options?: { mapping?: ColumnMapping; limits?: Partial<ReaderLimits> }): RunData {
+export function readRunText(file: string, text: string, options?: { mapping?: ColumnMapping; limits?: Partial<ReaderLimits>; grouping?: GroupingOptions }): RunData {
   const reader = new RunFileReader(file, options);
   reader.push(text);
   return reader.finish();
