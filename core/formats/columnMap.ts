@@ -172,7 +172,7 @@ export function inspectHeader(file: string, text: string): HeaderSketch {
     }
     break;
   }
-  if (i >= lines.length) throw new InputError({ file, line: Math.max(1, lines.length), message: 'no header line found (the file is empty or holds only comments)' });
+  if (i >= lines.length) throw new InputError({ file, line: Math.max(1, lines.length - (lines[lines.length - 1] === '' ? 1 : 0)), message: 'no header line found (the file is empty or holds only comments)' });
   const headerLine = i + 1;
   const delimiter = detectDelimiter(lines[i]!);
   const split = (l: string) => (delimiter === WHITESPACE ? splitWhitespace(l) : l.split(delimiter).map((c) => c.trim()));
