@@ -1,5 +1,5 @@
 /**
- * Command line (DESIGN §3.3):
+ * Command line (docs/data-format.md, "Command line"):
  *   sweepbook reduce RUN.csv --setup SETUP.json [--tare WINDOFF.csv] [--format json|csv] [--out FILE] [--no-corrections]
  *   sweepbook reduce RUN1 RUN2 … --setup SETUP.json [--tare T] --out-dir DIR   (batch: app/cli/batch.ts)
  *   sweepbook columns RUN [--out MAP.json]                                     (app/cli/columns.ts)
@@ -87,7 +87,7 @@ async function reduceCommand(args: string[], io: { stdout: NodeJS.WritableStream
   }
   const format = values.format;
   if (format !== 'json' && format !== 'csv') throw new UsageError(`--format must be json or csv, not "${format}"`);
-  // Raw files are never written (DESIGN §5): `--out RUN.csv` would have replaced the run with its own table.
+  // Raw files are never written: `--out RUN.csv` would have replaced the run with its own table.
   if (values.out) {
     for (const input of [positionals[0]!, values.setup, values.tare, values.columns]) {
       if (input !== undefined && (await sameFile(values.out, input))) {

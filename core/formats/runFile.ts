@@ -1,5 +1,11 @@
 /**
- * Streaming reader for run files (data contract v1, DESIGN §3.1).
+ * Streaming reader for run files (docs/data-format.md): CSV (comma, semicolon with decimal comma,
+ * tab) and whitespace-aligned text; units in brackets, parentheses or a units row; columns assigned
+ * by name or by a column map; samples grouped by the point column or, without one, by set angle
+ * and wind state.
+ *
+ * Order of work: preamble (metadata) → header → units row or first data row → `bind` (each column's
+ * channel and conversion) → data rows, each ending in `fold`.
  *
  * Text arrives in chunks of any size (`push`), complete lines are read block by block, and each row
  * is folded straight into its point's running statistics, so memory grows with the number of points,
@@ -601,9 +607,7 @@ export class RunFileReader {
     const offset = this.offset;
     const delim = this.delimiter.charCodeAt(0);
     const decimalComma = this.decimalComma;
-    const acc = this.accumulator();
     const hasPoint = this.pointIndex >= 0;
-    const maxPoints = this.limits.maxPoints;
     let pos = from;
     while (pos < to) {
       const lineStart = pos;
@@ -689,11 +693,7 @@ export class RunFileReader {
         this.lastKeyRaw = text.slice(keyStart, keyEnd);
         key = this.lastKey = this.lastKeyRaw.trim();
       }
-      acc.add(key, lineNo, values);
-      if (acc.size > maxPoints) {
-        this.fail({ line: lineNo, message: `more than ${maxPoints} distinct points; is the "point" column a sample counter?` });
-      }
-      this.read++;
+      this.fold(key, lineNo, values);
     }
   }
 
@@ -740,8 +740,16 @@ export class RunFileReader {
       }
       values[b] = v * col.conv.scale + col.conv.offset;
     }
-    const acc = this.accumulator();
     const key = this.pointIndex >= 0 ? row[this.pointIndex]!.trim() : this.groupOf(lineNo, values);
+    this.fold(key, lineNo, values);
+  }
+
+  /**
+   * Every accepted sample passes here, from both paths, with its values in SI in channel order
+   * (`this.channels`): the one place for anything done per sample before it is averaged into its point.
+   */
+  private fold(key: string, lineNo: number, values: Float64Array): void {
+    const acc = this.accumulator();
     acc.add(key, lineNo, values);
     if (acc.size > this.limits.maxPoints) {
       this.fail({ line: lineNo, message: `more than ${this.limits.maxPoints} distinct points; is the "point" column a sample counter?` });

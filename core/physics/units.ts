@@ -1,9 +1,12 @@
 /**
- * Units accepted in run-file headers and their conversion to SI, applied once when a file is read.
+ * Units accepted in run files (headers, units rows, column maps) and their conversion to SI,
+ * applied once when a file is read.
  *
  * Factors: NIST Special Publication 811 (2008 ed.), Appendix B.8/B.9, unless noted.
- * Conventional water columns follow DESIGN §3.4 (inch of water 249.088 91 Pa, millimetre of water
- * 9.806 65 Pa, both at the conventional density 1000 kg/m³ and standard gravity).
+ * Conventional water columns: inch of water 249.088 91 Pa, millimetre of water 9.806 65 Pa, both at
+ * the conventional density 1000 kg/m³ and standard gravity; conventional mercury columns at
+ * 13 595.1 kg/m³. A load cell's kg or g reading is a mass indication, turned into force with standard
+ * gravity 9.806 65 m/s².
  */
 
 export type Quantity = 'pressure' | 'temperature' | 'force' | 'moment' | 'angle' | 'ratio' | 'time' | 'count';
