@@ -269,7 +269,12 @@ export function prepareRun(run: RunData, setup: Setup, tare: RunData | undefined
       return { ...p, mean, std };
     });
   if (on.length === 0) {
-    throw new InputError({ file: run.file, line: run.headerLine, message: `no wind-on point: every point's q is below ${WIND_OFF_FRACTION * 100} % of the run's median (is the pressure column right, and its unit?)` });
+    // named by the first point, as any run where no point reduces
+    const first = points[0]!;
+    const q = roughQ(source, first.mean[si]!, factor);
+    const why = q > 0 ? `${label} ${q.toPrecision(4)} Pa is below ${WIND_OFF_FRACTION * 100} % of the run's median` : `${label} ${q.toFixed(3)} Pa is not positive (wind off?)`;
+    const more = points.length > 1 ? ` (and ${points.length - 1} more points skipped)` : '';
+    throw new InputError({ file: run.file, line: first.line, message: `no point could be reduced: point ${first.key} (line ${first.line}) skipped: ${why}${more}; every point is wind-off (is the pressure column right, and its unit?)` });
   }
   if (source !== 'dp_pitot' && present.length === 1) notices.push({ file: run.file, message: `q is taken from "${source}"${source === 'dp_contraction' ? ` × flow.contraction_factor ${factor}` : ' as the facility logged it'}` });
   return { run: { ...run, channels, points: on }, embeddedTare, notices, source };
