@@ -95,3 +95,30 @@ describe('wall-correction methods', () => {
     expect(r.corrections).toMatchObject({ wake: 'maskell', method: '3d-maskell', fallback: null });
   });
 });
+
+describe('sample scatter resolved to lift', () => {
+  it('gives the standard error of CL from the scatter of the lift the body-axis samples resolve to', () => {
+    // Four samples of one point whose normal- and axial-force deviations follow orthogonal patterns (zero
+    // sample covariance), so the scatter of L_i = N_i cos α − A_i sin α is exactly √((s_N cos α)² + (s_A sin α)²).
+    const alphaDeg = 20;
+    const a = (alphaDeg * Math.PI) / 180;
+    const N = [100 + 2, 100 - 2, 100 + 2, 100 - 2];
+    const A = [10 + 0.1, 10 + 0.1, 10 - 0.1, 10 - 0.1];
+    const rows = ['point,alpha,dp_pitot,normal,axial', ...N.map((n, i) => `1,${alphaDeg},800,${n},${A[i]}`)];
+    const setup = validateSetup('s', {
+      model: { kind: '3d', area_m2: 0.2, chord_m: 0.2, span_m: 1 },
+      tunnel: { section: 'closed-rectangular', width_m: 1.2, height_m: 0.9 },
+      balance: { axes: 'body' },
+      ambient: { p_pa: 101325, t_c: 20, rh_pct: 50 },
+      corrections: { enabled: false },
+    }).setup;
+    const r = reduce({ run: readRunText('scatter.csv', rows.join('\n')), setup });
+    const lift = N.map((n, i) => n * Math.cos(a) - A[i]! * Math.sin(a));
+    const mean = lift.reduce((s, x) => s + x, 0) / lift.length;
+    const sdLift = Math.sqrt(lift.reduce((s, x) => s + (x - mean) ** 2, 0) / (lift.length - 1));
+    const p = r.points[0]!;
+    expect(p.cl_scatter).toBeCloseTo(sdLift / (p.q_uncorrected_pa * 0.2) / Math.sqrt(4), 12);
+    // swapping cos and sin would give about a third of this here: the check can fail
+    expect(sdLift).toBeGreaterThan(1.8);
+  });
+});
