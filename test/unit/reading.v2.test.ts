@@ -179,3 +179,23 @@ describe('column maps applied by the reader', () => {
     expect(run.channels).toEqual(['alpha', 'lift']);
   });
 });
+
+describe('aligned files and units rows stream alike whatever the chunking', () => {
+  it('gives the same points, units and warnings in chunks of any size, with LF or CRLF', async () => {
+    const { RunFileReader } = await import('../../core/formats/runFile.ts');
+    const body = ['# run: 8', 'AoA      dp_pitot   lift     drag', 'deg      mmH2O      lb       g', ...Array.from({ length: 40 }, (_, i) => `${(Math.floor(i / 4) * 2 + (i % 2) * 0.05).toFixed(2)}     ${(61 + (i % 3) * 0.1).toFixed(1)}       ${(i * 0.1).toFixed(2)}     ${i % 5 === 4 ? '0x1' : (10 + i).toString()}`)];
+    const whole = readRunText('s.txt', body.join('\n') + '\n', { mapping: { cells: { AoA: { channel: 'alpha' } } } });
+    expect(whole.unitsLine).toBe(3);
+    expect(whole.rowsSkipped).toBe(8);
+    for (const eol of ['\n', '\r\n']) {
+      const text = body.join(eol) + eol;
+      for (const size of [1, 2, 5, 13, 64]) {
+        const r = new RunFileReader('s.txt', { mapping: { cells: { AoA: { channel: 'alpha' } } } });
+        for (let i = 0; i < text.length; i += size) r.push(text.slice(i, i + size));
+        const got = r.finish();
+        expect(got.points.map((p) => [p.key, p.n, ...p.mean]), `chunks of ${size}`).toEqual(whole.points.map((p) => [p.key, p.n, ...p.mean]));
+        expect(got.warnings.map(formatNotice)).toEqual(whole.warnings.map(formatNotice));
+      }
+    }
+  });
+});
