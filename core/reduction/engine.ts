@@ -73,7 +73,7 @@ export function pointsCsv(result: ReductionResult, provenance?: Provenance): str
   const rows: Cell[][] = result.points.map((p) => POINT_COLUMNS.map((k) => p[k] as Cell));
   // raw comment lines (not CSV cells): what `comment='#'` readers such as pandas and our own reader skip
   // the run's name and configuration first, as `# key: value` metadata a run-file reader takes back
-  const meta = [`run: ${result.run.name}`, `configuration: ${result.run.configuration ?? ''}`];
+  const meta = [`run: ${result.run.name}`, ...(result.run.configuration !== null ? [`configuration: ${result.run.configuration}`] : [])];
   const lines = [...meta, ...(provenance ? provenanceLines(provenance) : [])];
   const head = lines.map((l) => `# ${l.replace(/[\r\n]+/g, ' ')}`).join('\n') + '\n';
   return head + toCsv(POINT_COLUMNS as string[], rows);
