@@ -846,12 +846,35 @@ export function joinUnitWords(cells: string[], width: number): string[] {
  */
 export function splitHeaderLine(raw: string, delimiter: string): string[] {
   if (delimiter !== WHITESPACE) return (Papa.parse<string[]>(raw, { delimiter, newline: '\n' }).data[0] ?? []).map((c) => c.trim());
+  // columns lined up with two or more spaces (or tabs) may hold single spaces in their names
+  const t = raw.trim();
+  if (/ {2,}|\t/.test(t)) {
+    const wide = t.split(/ {2,}|\t[ \t]*/).map((c) => c.trim());
+    // …unless a cell runs on past a unit ("dp [Pa] p [Pa]": two columns one space apart)
+    if (wide.every((c) => c !== '' && balanced(c) && !/[\])]\s+\S/.test(c))) return wide;
+  }
   const out: string[] = [];
+  let open = false; // inside a bracket begun by an earlier token
   for (const token of splitWhitespace(raw)) {
-    if (out.length > 0 && /^[[(].*[\])]$/.test(token)) out[out.length - 1] += ` ${token}`;
-    else out.push(token);
+    if (out.length > 0 && (open || /^[[(]/.test(token))) {
+      out[out.length - 1] += ` ${token}`;
+      open = !balanced(out[out.length - 1]!);
+    } else {
+      out.push(token);
+      open = !balanced(token);
+    }
   }
   return out;
+}
+
+/** True when every "[" and "(" of the text is closed. */
+function balanced(text: string): boolean {
+  let depth = 0;
+  for (const ch of text) {
+    if (ch === '[' || ch === '(') depth++;
+    else if ((ch === ']' || ch === ')') && depth > 0) depth--;
+  }
+  return depth === 0;
 }
 
 /**

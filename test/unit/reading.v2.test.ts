@@ -72,6 +72,13 @@ describe('whitespace-aligned files', () => {
     expect(ch(run, 'pitch', 1)).toBeCloseTo(-1.5 * 0.1129848290276167, 12);
   });
 
+  it('reads names holding single spaces when columns are two or more spaces apart, and units with spaces in brackets', async () => {
+    const { splitHeaderLine } = await import('../../core/formats/runFile.ts');
+    expect(splitHeaderLine('Angle of Attack   Lift force   Mz', WHITESPACE)).toEqual(['Angle of Attack', 'Lift force', 'Mz']);
+    expect(splitHeaderLine('point  alpha [deg]  dp_pitot [Pa] p_static [Pa]  pitch [N m]', WHITESPACE)).toEqual(['point', 'alpha [deg]', 'dp_pitot [Pa]', 'p_static [Pa]', 'pitch [N m]']);
+    expect(splitHeaderLine('alpha lift (N m)', WHITESPACE)).toEqual(['alpha', 'lift (N m)']);
+  });
+
   it('keeps a bracketed unit written apart from its name in an aligned header', () => {
     const run = readRunText('b.txt', 'alpha [deg]   lift (lbf)\n1   2\n');
     expect(run.headerCells.map((c) => c.text)).toEqual(['alpha [deg]', 'lift (lbf)']);
