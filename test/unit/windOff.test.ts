@@ -225,3 +225,27 @@ describe('missing required channel', () => {
     expect(refusal(text)).toMatch(/missing required column "alpha" \(angle of attack\); the file's columns: 1 "AoA \[deg\]", 2 "dp_pitot \[Pa\]", .*8 "pitch \[N m\]"; closest: "AoA \[deg\]" \(column 1\)/);
   });
 });
+
+describe('setup fields for reading tunnel files', () => {
+  const edit = (f: (s: Record<string, any>) => void) => {
+    const s = JSON.parse(setupText);
+    f(s);
+    return readSetup('setup.json', JSON.stringify(s));
+  };
+  it('defaults grouping.alpha_tol_deg to 0.2 and leaves contraction_factor unset', () => {
+    const r = edit(() => undefined);
+    expect(r.ok && r.value.setup.grouping).toEqual({ alpha_tol_deg: 0.2 });
+    expect(r.ok && r.value.setup.flow.contraction_factor).toBeUndefined();
+  });
+  it('refuses a tolerance or factor that is not a positive number, naming the field', () => {
+    for (const [f, field] of [
+      [(s: Record<string, any>) => (s.grouping = { alpha_tol_deg: 0 }), 'grouping.alpha_tol_deg'],
+      [(s: Record<string, any>) => (s.grouping = { alpha_tol_deg: 12 }), 'grouping.alpha_tol_deg'],
+      [(s: Record<string, any>) => (s.flow.contraction_factor = -1), 'flow.contraction_factor'],
+    ] as const) {
+      const r = edit(f);
+      expect(r.ok).toBe(false);
+      if (!r.ok) expect(r.errors[0]!.field).toBe(field);
+    }
+  });
+});
