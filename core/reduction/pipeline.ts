@@ -10,7 +10,8 @@ import { InputError, formatNotice, type Notice } from '../contract/messages.ts';
 import type { RunData } from '../formats/runFile.ts';
 import type { Setup } from '../setup/schema.ts';
 import { buildTare, tareAt, type TareTable } from './tare.ts';
-import { correct2d, exceedsValidatedBlockage } from '../walls/wall2d.ts';
+import { correct2d, exceedsValidatedBlockage, sigmaOfSection } from '../walls/wall2d.ts';
+import { mountingOf, tunnelSectionOf } from '../setup/schema.ts';
 import { correct3d, correctPoint3d, sortedOrder } from '../walls/wall3d.ts';
 import { propagatePoint, type Correct, type PointUncertainty } from '../uncertainty/propagation.ts';
 import { NO_FACTORS, RAD, type CorrectedPoint, type TunnelPoint, type WallFactors } from '../walls/types.ts';
@@ -246,6 +247,10 @@ export function reduce(input: ReduceInput): ReductionResult {
         width: setup.tunnel.width_m,
         volume: setup.model.volume_m3,
         k1: setup.corrections.solid_blockage_k,
+        floor: setup.tunnel.boundaries.floor,
+        ceiling: setup.tunnel.boundaries.ceiling,
+        fillet: setup.tunnel.fillet_m,
+        ...(setup.model.moment_ref_xc !== 0.25 ? { momentRefXc: setup.model.moment_ref_xc } : {}),
       };
       if (g.volume === null) notices.push({ field: 'model.volume_m3', message: 'not given: solid blockage is skipped (ε_solid = 0)' });
       if (!hasPitch) notices.push({ file: run.file, message: 'without a pitching moment the 2D angle correction uses the cl term alone' });
@@ -253,7 +258,7 @@ export function reduce(input: ReduceInput): ReductionResult {
       correctOne = (t) => correct2d(t, g);
       const over = corrected.filter(exceedsValidatedBlockage).length;
       if (over > 0) notices.push({ message: `${over} point(s) have a total blockage ε above 0.1, outside the range where the 2D corrections are validated; results are given but treat them with caution` });
-      factors = { sigma: ((Math.PI * Math.PI) / 48) * (c / g.height) ** 2, delta: null, tau1: null, tau2: null, solid_blockage_k: g.k1 };
+      factors = { sigma: sigmaOfSection(g), delta: null, tau1: null, tau2: null, solid_blockage_k: g.k1 };
     } else {
       const res = correct3d(tunnel, scatter, {
         area: S,
@@ -268,6 +273,11 @@ export function reduce(input: ReduceInput): ReductionResult {
         delta: setup.corrections.delta,
         tau1: setup.corrections.tau1,
         tau2: setup.corrections.tau2,
+        section: tunnelSectionOf(setup.tunnel),
+        mounting: mountingOf(setup.model),
+        ...(setup.model.moment_ref_xc !== 0.25 ? { momentRefXc: setup.model.moment_ref_xc } : {}),
+        tailArm: setup.model.tail_arm_m,
+        tailCmPerDeg: setup.model.tail_cm_per_deg,
       });
       corrected = res.points;
       factors = res.factors;

@@ -4,6 +4,8 @@
  */
 import { z } from 'zod';
 import { InputError, type Notice } from '../contract/messages.ts';
+import { checkMounting, type Boundaries, type Mounting, type TunnelSection, type Wall } from '../walls/sections.ts';
+import { DEFAULT_FINENESS_RATIO, shapeFactorK } from '../walls/shapeFactor.ts';
 
 const positive = (what: string) => z.number({ error: `expected a number (${what})` }).finite().positive({ error: `expected a positive number (${what})` });
 const finite = (what: string) => z.number({ error: `expected a number (${what})` }).finite();
@@ -20,6 +22,12 @@ const geometry = (what: string, unit: 'm' | 'm²' | 'm³') => {
 };
 const optionalFactor = (what: string) => z.number({ error: `expected a number or null (${what})` }).finite().nullable().optional();
 
+// ---- tunnels and mountings: names ----
+export const SECTIONS = ['closed-rectangular', 'open-rectangular', 'closed-circular', 'open-circular', 'rectangular'] as const;
+export type SectionName = (typeof SECTIONS)[number];
+const WALLS = ['floor', 'ceiling', 'left', 'right'] as const;
+// ---- end tunnels and mountings ----
+
 const modelSchema = z.strictObject({
   kind: z.enum(['2d', '3d'], { error: 'expected "2d" (a wing spanning the tunnel) or "3d"' }),
   name: z.string().optional(),
@@ -31,14 +39,28 @@ const modelSchema = z.strictObject({
     .strictObject({ x: finite('metres toward the nose'), z: finite('metres up') })
     .optional(),
   loading: z.enum(['elliptic', 'uniform'], { error: 'expected "elliptic" or "uniform"' }).optional(),
+  // ---- tunnels and mountings (sections, half models, moment reference, tail) ----
+  mounting: z.enum(['full', 'half'], { error: 'expected "full" or "half" (a half model on a reflection wall)' }).optional(),
+  reflection_wall: z.enum(WALLS, { error: 'expected "floor", "ceiling", "left" or "right"' }).optional(),
+  moment_ref_xc: finite('moment reference aft of the leading edge, in chords').min(-2, { error: 'expected -2 to 3 chords (moment reference aft of the leading edge)' }).max(3, { error: 'expected -2 to 3 chords (moment reference aft of the leading edge)' }).optional(),
+  fineness_ratio: finite('body length / diameter').min(1, { error: 'expected at least 1 (length / diameter of the equivalent body of revolution)' }).max(100, { error: 'expected at most 100 (length / diameter)' }).optional(),
+  tail_arm_m: geometry('tail arm, wing quarter chord to tail quarter chord', 'm').optional(),
+  tail_cm_per_deg: finite('∂Cm/∂α at the tail, per degree').optional(),
+  // ---- end tunnels and mountings ----
 });
 
+// ---- tunnels and mountings: sections ----
+const boundary = z.enum(['solid', 'free'], { error: 'expected "solid" or "free"' });
 const tunnelSchema = z.strictObject({
   name: z.string().optional(),
-  section: z.literal('closed-rectangular', { error: 'expected "closed-rectangular" (the only section supported so far)' }),
-  width_m: geometry('test-section width', 'm'),
-  height_m: geometry('test-section height', 'm'),
+  section: z.enum(SECTIONS, { error: `expected one of ${SECTIONS.map((s) => `"${s}"`).join(', ')}` }),
+  width_m: geometry('test-section width', 'm').optional(),
+  height_m: geometry('test-section height', 'm').optional(),
+  diameter_m: geometry('test-section diameter', 'm').optional(),
+  boundaries: z.strictObject({ floor: boundary, ceiling: boundary, left: boundary, right: boundary }).optional(),
+  fillet_m: finite('leg of the 45° corner fillets, m').nonnegative({ error: 'expected 0 or a positive number (leg of the 45° corner fillets, m)' }).max(1e3).optional(),
 });
+// ---- end tunnels and mountings ----
 
 const uncertaintySchema = z.strictObject({
   dp_pitot_pa: finite('Pa').nonnegative().optional(),
@@ -95,8 +117,17 @@ export interface Setup {
     volume_m3: number | null;
     moment_ref_offset_m: { x: number; z: number };
     loading: 'elliptic' | 'uniform';
+    /** Tunnels and mountings: "full" or "half"; the half model's reflection wall; moment reference x/c; tail. */
+    mounting: 'full' | 'half';
+    reflection_wall: Wall | null;
+    /** Moment reference aft of the reference chord's leading edge, in chords (default 0.25). */
+    moment_ref_xc: number;
+    fineness_ratio: number | null;
+    tail_arm_m: number | null;
+    tail_cm_per_deg: number | null;
   };
-  tunnel: { name?: string; section: 'closed-rectangular'; width_m: number; height_m: number };
+  /** width_m and height_m equal the diameter for a circular section, so every consumer finds a size. */
+  tunnel: { name?: string; section: SectionName; width_m: number; height_m: number; diameter_m: number | null; boundaries: Boundaries; fillet_m: number };
   balance: { axes: 'wind' | 'body' };
   flow: { gamma: number };
   ambient: { p_pa?: number; t_c?: number; rh_pct?: number };
@@ -111,8 +142,12 @@ export interface Setup {
   uncertainty: SetupInput['uncertainty'] | null;
 }
 
-/** Default solid-blockage shape factors: Barlow, Rae & Pope 3rd ed. §9.2 (K1 = 0.74, wing spanning the tunnel) and §10.1 (typical wing/body, 0.96 as in DESIGN §3.2). */
-export const DEFAULT_SOLID_BLOCKAGE_K = { '2d': 0.74, '3d': 0.96 } as const;
+/**
+ * Default solid-blockage shape factors: 2D Barlow, Rae & Pope 3rd ed. §9.2 (K1 = 0.74, wing spanning the
+ * tunnel); 3D K = 1 + k1 of a prolate spheroid of fineness ratio 6 (Lamb's added mass, on the point-doublet
+ * normalisation of the computed τ1; core/walls/shapeFactor.ts), or of `model.fineness_ratio` when given.
+ */
+export const DEFAULT_SOLID_BLOCKAGE_K = { '2d': 0.74, '3d': shapeFactorK(DEFAULT_FINENESS_RATIO) } as const;
 
 export interface SetupResult {
   setup: Setup;
@@ -146,9 +181,10 @@ export function validateSetup(file: string, json: unknown): SetupResult {
   const m = s.model;
   let area: number;
   let span: number;
+  const tunnel = checkTunnel(file, s, m.kind === '3d' ? m.span_m : undefined, warnings);
   if (m.kind === '2d') {
-    area = m.chord_m * s.tunnel.width_m;
-    span = s.tunnel.width_m;
+    area = m.chord_m * tunnel.width_m;
+    span = tunnel.width_m;
     if (m.area_m2 !== undefined && Math.abs(m.area_m2 - area) > 1e-6 * area) {
       warnings.push({
         file,
@@ -176,15 +212,21 @@ export function validateSetup(file: string, json: unknown): SetupResult {
         volume_m3: m.volume_m3 ?? null,
         moment_ref_offset_m: m.moment_ref_offset_m ?? { x: 0, z: 0 },
         loading: m.loading ?? 'elliptic',
+        mounting: m.mounting ?? 'full',
+        reflection_wall: m.reflection_wall ?? null,
+        moment_ref_xc: m.moment_ref_xc ?? 0.25,
+        fineness_ratio: m.fineness_ratio ?? null,
+        tail_arm_m: m.tail_arm_m ?? null,
+        tail_cm_per_deg: m.tail_cm_per_deg ?? null,
       },
-      tunnel: s.tunnel,
+      tunnel,
       balance: s.balance,
       flow: { gamma: s.flow?.gamma ?? 1.4 },
       ambient: s.ambient ?? {},
       corrections: {
         enabled: c.enabled ?? true,
         wake: c.wake ?? 'classic',
-        solid_blockage_k: c.solid_blockage_k ?? DEFAULT_SOLID_BLOCKAGE_K[m.kind],
+        solid_blockage_k: c.solid_blockage_k ?? (m.kind === '3d' && m.fineness_ratio !== undefined ? shapeFactorK(m.fineness_ratio) : DEFAULT_SOLID_BLOCKAGE_K[m.kind]),
         delta: c.delta ?? null,
         tau1: c.tau1 ?? null,
         tau2: c.tau2 ?? null,
@@ -193,6 +235,66 @@ export function validateSetup(file: string, json: unknown): SetupResult {
     },
   };
 }
+
+// ---- tunnels and mountings: checks ----
+/** The section and mounting as the wall corrections take them, from a setup's tunnel and model. */
+export function tunnelSectionOf(t: Setup['tunnel']): TunnelSection {
+  if (t.section === 'closed-circular' || t.section === 'open-circular') {
+    return { shape: 'circular', diameter: t.diameter_m ?? t.width_m, boundary: t.section === 'closed-circular' ? 'solid' : 'free' };
+  }
+  return { shape: 'rectangular', width: t.width_m, height: t.height_m, boundaries: t.boundaries, fillet: t.fillet_m };
+}
+export function mountingOf(m: Setup['model']): Mounting {
+  return m.mounting === 'half' && m.reflection_wall ? { kind: 'half', wall: m.reflection_wall } : { kind: 'full' };
+}
+
+/** Size, boundaries, fillets and mounting checked together; refusals name the field, cautions become warnings. */
+function checkTunnel(file: string, s: SetupInput, span: number | undefined, warnings: Notice[]): Setup['tunnel'] {
+  const t = s.tunnel;
+  const m = s.model;
+  const refuse = (field: string, message: string): never => {
+    throw new InputError({ file, field, message });
+  };
+  const circular = t.section === 'closed-circular' || t.section === 'open-circular';
+  let width: number;
+  let height: number;
+  let diameter: number | null = null;
+  if (circular) {
+    if (t.diameter_m === undefined) refuse('tunnel.diameter_m', `required for a ${t.section} section (diameter, m)`);
+    diameter = t.diameter_m!;
+    for (const k of ['width_m', 'height_m'] as const) {
+      if (t[k] !== undefined && t[k] !== diameter) refuse(`tunnel.${k}`, `a circular section is sized by tunnel.diameter_m (${diameter} m); ${t[k]} m here disagrees — remove it`);
+    }
+    if (t.fillet_m) refuse('tunnel.fillet_m', 'corner fillets apply to rectangular sections only');
+    width = height = diameter;
+  } else {
+    if (t.width_m === undefined) refuse('tunnel.width_m', `required for a ${t.section} section (width along the span, m)`);
+    if (t.height_m === undefined) refuse('tunnel.height_m', `required for a ${t.section} section (height, m)`);
+    if (t.diameter_m !== undefined) refuse('tunnel.diameter_m', `only for circular sections; a ${t.section} section is sized by width_m and height_m`);
+    width = t.width_m!;
+    height = t.height_m!;
+  }
+  let boundaries: Boundaries;
+  if (t.section === 'rectangular') {
+    if (!t.boundaries) refuse('tunnel.boundaries', 'required for section "rectangular": { "floor", "ceiling", "left", "right" }, each "solid" or "free"');
+    boundaries = t.boundaries!;
+  } else {
+    if (t.boundaries) refuse('tunnel.boundaries', `only for section "rectangular"; "${t.section}" fixes every boundary (use "rectangular" to set each side)`);
+    const kind = t.section.startsWith('open') ? 'free' : 'solid';
+    boundaries = { floor: kind, ceiling: kind, left: kind, right: kind };
+  }
+  if (m.mounting !== 'half' && m.reflection_wall !== undefined) refuse('model.reflection_wall', 'applies to a half model only (set model.mounting to "half")');
+  if (m.mounting === 'half' && m.reflection_wall === undefined) refuse('model.reflection_wall', 'required for a half model: the wall it stands on, "floor", "ceiling", "left" or "right"');
+  if (m.tail_cm_per_deg !== undefined && m.tail_arm_m === undefined) warnings.push({ file, field: 'model.tail_cm_per_deg', message: 'given without model.tail_arm_m: no tail-on correction is made' });
+  const out: Setup['tunnel'] = { ...(t.name !== undefined ? { name: t.name } : {}), section: t.section, width_m: width, height_m: height, diameter_m: diameter, boundaries, fillet_m: t.fillet_m ?? 0 };
+  const section = tunnelSectionOf(out);
+  const mounting: Mounting = m.mounting === 'half' ? { kind: 'half', wall: m.reflection_wall! } : { kind: 'full' };
+  const { errors, cautions } = checkMounting(section, mounting, m.kind, span);
+  if (errors.length > 0) refuse(errors[0]!.field, errors[0]!.message);
+  for (const c of cautions) warnings.push({ file, field: c.field, message: c.message });
+  return out;
+}
+// ---- end tunnels and mountings ----
 
 function round(x: number): string {
   return Number(x.toPrecision(6)).toString();
