@@ -90,13 +90,16 @@ export function pairKernel(s: number, sec: RectImageSection): number {
   for (let m = 1; m < 100000; m++) {
     const sgn = m % 2 === 0 ? 1 : -1;
     let col = 0;
+    let size = 0; // the terms' size without their factors: with one solid and one free side the odd columns cancel exactly
     for (const mm of [m, -m]) {
       const f = imageFactor(mm, fLo, fHi);
       const c = mm * sec.B;
-      col += f * (rowSum(c + sgn * s, sec.H, kind) - rowSum(c - sgn * s, sec.H, kind));
+      const d = rowSum(c + sgn * s, sec.H, kind) - rowSum(c - sgn * s, sec.H, kind);
+      col += f * d;
+      size += Math.abs(d);
     }
     t += col;
-    if (Math.abs(col) < 1e-17 * Math.abs(t) || (Math.abs(col) === 0 && m > 4)) break;
+    if (size < 1e-17 * Math.abs(t) || size === 0) break;
   }
   return -t / (2 * Math.PI);
 }
@@ -114,9 +117,14 @@ export function deltaVanishingSpan(sec: RectImageSection): number {
   for (let m = 1; m < 100000; m++) {
     const sgn = m % 2 === 0 ? 1 : -1;
     let col = 0;
-    for (const mm of [m, -m]) col += imageFactor(mm, fLo, fHi) * 2 * sgn * rowSumSlope(mm * sec.B, sec.H, kind);
+    let size = 0;
+    for (const mm of [m, -m]) {
+      const d = 2 * sgn * rowSumSlope(mm * sec.B, sec.H, kind);
+      col += imageFactor(mm, fLo, fHi) * d;
+      size += Math.abs(d);
+    }
     t += col;
-    if (Math.abs(col) < 1e-17 * Math.abs(t)) break;
+    if (size < 1e-17 * Math.abs(t) || size === 0) break;
   }
   const slope = -t / (2 * Math.PI);
   return (sec.B * sec.H * slope) / 8;
