@@ -4,7 +4,7 @@
  */
 import { z } from 'zod';
 import { InputError, type Notice } from '../contract/messages.ts';
-import { checkMounting, type Boundaries, type Mounting, type TunnelSection, type Wall } from '../walls/sections.ts';
+import { checkMounting, tunnelSectionOf, type Boundaries, type Mounting, type Wall } from '../walls/sections.ts';
 import { DEFAULT_FINENESS_RATIO, shapeFactorK } from '../walls/shapeFactor.ts';
 
 const positive = (what: string) => z.number({ error: `expected a number (${what})` }).finite().positive({ error: `expected a positive number (${what})` });
@@ -237,16 +237,7 @@ export function validateSetup(file: string, json: unknown): SetupResult {
 }
 
 // ---- tunnels and mountings: checks ----
-/** The section and mounting as the wall corrections take them, from a setup's tunnel and model. */
-export function tunnelSectionOf(t: Setup['tunnel']): TunnelSection {
-  if (t.section === 'closed-circular' || t.section === 'open-circular') {
-    return { shape: 'circular', diameter: t.diameter_m ?? t.width_m, boundary: t.section === 'closed-circular' ? 'solid' : 'free' };
-  }
-  return { shape: 'rectangular', width: t.width_m, height: t.height_m, boundaries: t.boundaries, fillet: t.fillet_m };
-}
-export function mountingOf(m: Setup['model']): Mounting {
-  return m.mounting === 'half' && m.reflection_wall ? { kind: 'half', wall: m.reflection_wall } : { kind: 'full' };
-}
+export { tunnelSectionOf, mountingOf } from '../walls/sections.ts';
 
 /** Size, boundaries, fillets and mounting checked together; refusals name the field, cautions become warnings. */
 function checkTunnel(file: string, s: SetupInput, span: number | undefined, warnings: Notice[]): Setup['tunnel'] {

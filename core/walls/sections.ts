@@ -142,3 +142,16 @@ export function checkMounting(t: TunnelSection, m: Mounting, kind: '2d' | '3d', 
   }
   return { errors, cautions };
 }
+
+/** The section of a setup's (validated) tunnel block. */
+export function tunnelSectionOf(t: { section: string; width_m: number; height_m: number; diameter_m: number | null; boundaries: Boundaries; fillet_m: number }): TunnelSection {
+  if (t.section === 'closed-circular' || t.section === 'open-circular') {
+    return { shape: 'circular', diameter: t.diameter_m ?? t.width_m, boundary: t.section === 'closed-circular' ? 'solid' : 'free' };
+  }
+  return { shape: 'rectangular', width: t.width_m, height: t.height_m, boundaries: t.boundaries, fillet: t.fillet_m };
+}
+
+/** The mounting of a setup's (validated) model block. */
+export function mountingOf(m: { mounting: 'full' | 'half'; reflection_wall: Wall | null }): Mounting {
+  return m.mounting === 'half' && m.reflection_wall ? { kind: 'half', wall: m.reflection_wall } : { kind: 'full' };
+}

@@ -7,12 +7,15 @@
 import { findLinearRange } from '../fits/characteristics.ts';
 import { type Loading } from './imageSums.ts';
 import { fitPolynomial } from '../fits/leastSquares.ts';
+import { sortedOrder } from '../physics/numbers.ts';
 import { MAX_VALIDATED_EPSILON, MAX_VALIDATED_SPAN_RATIO, RAD, type CorrectedPoint, type TunnelPoint, type WallFactors } from './types.ts';
 import { sectionFactors, wakeBlockageApplies } from './sectionFactors.ts';
-import { imageProblem, sectionArea, type Mounting, type TunnelSection } from './sections.ts';
+import { hasFreeBoundary, imageProblem, mountingOf, sectionArea, tunnelSectionOf, type Mounting, type TunnelSection } from './sections.ts';
 import { tau2Rect } from './rectImages.ts';
 import { tau2Circ } from './circular.ts';
 import { streamlineCurvatureTau2 } from './imageSums.ts';
+import type { Setup } from '../setup/schema.ts';
+import type { PreparedWall, WallInput, WallMethod } from './method.ts';
 
 export interface Geometry3d {
   area: number;
@@ -85,6 +88,8 @@ export interface Correction3dResult {
   warnings: string[];
   /** What was fixed for the run: reused to correct perturbed points in the uncertainty propagation. */
   context: Context3d;
+  /** Set when Maskell's wake blockage was asked for but the classic one had to be used, with the reason. */
+  maskellFallback: string | null;
 }
 
 /** Run-level quantities of the 3D corrections: the factors, the solid blockage, the wake model, the curvature slope. */
@@ -161,7 +166,7 @@ export function correctPoint3d(p: TunnelPoint, ctx: Context3d): CorrectedPoint {
  * wake term its drag polar, so the whole run is corrected together).
  * @param scatter standard error of each point's CL from its sample scatter, for the linear-range rule
  */
-export function correct3d(points: TunnelPoint[], scatter: number[], g: Geometry3d): Correction3dResult {
+export function correct3d(points: readonly TunnelPoint[], scatter: readonly number[], g: Geometry3d): Correction3dResult {
   const warnings: string[] = [];
   const f = factors3d(g);
   const section = sectionOf(g);
@@ -183,6 +188,7 @@ export function correct3d(points: TunnelPoint[], scatter: number[], g: Geometry3
   else epsSolid = (g.k * f.tau1 * g.volume) / Math.pow(C, 1.5); // BRP eq. 10.2
 
   let maskellPolar: Context3d['maskellPolar'] = null;
+  let maskellFallback: string | null = null;
   if (g.wake === 'maskell' && !wake) warnings.push("Maskell's wake blockage is derived for closed sections; with a free boundary no wake blockage is applied");
   if (g.wake === 'maskell' && wake) {
     const order = sortedOrder(points.map((p) => p.alphaDeg));
@@ -192,8 +198,10 @@ export function correct3d(points: TunnelPoint[], scatter: number[], g: Geometry3
     const polar = range
       ? fitPolynomial(cl.slice(range.from, range.to).map((c) => c * c), order.slice(range.from, range.to).map((i) => points[i]!.cd), 1)
       : undefined;
-    if (!polar) warnings.push('Maskell wake blockage needs an attached-flow drag polar, and none could be fitted: the classic wake blockage is used instead');
-    else maskellPolar = { cd0: polar[0]!, k: polar[1]! };
+    if (!polar) {
+      maskellFallback = 'Maskell wake blockage needs an attached-flow drag polar, and none could be fitted: the classic wake blockage is used instead';
+      warnings.push(maskellFallback);
+    } else maskellPolar = { cd0: polar[0]!, k: polar[1]! };
   }
 
   // lift-curve slope of the blockage- and upwash-corrected data, for the curvature terms
@@ -234,10 +242,83 @@ export function correct3d(points: TunnelPoint[], scatter: number[], g: Geometry3
     factors: { sigma: null, delta: f.delta, tau1: f.tau1, tau2: f.tau2, solid_blockage_k: g.k },
     warnings,
     context,
+    maskellFallback,
   };
 }
 
-/** Indices that sort the values ascending (stable). */
-export function sortedOrder(values: number[]): number[] {
-  return values.map((v, i) => ({ v, i })).sort((x, y) => x.v - y.v || x.i - y.i).map((x) => x.i);
+/** The 3D geometry of a setup (closed rectangular section). */
+export function geometry3dOf(setup: Setup, wake: 'classic' | 'maskell'): Geometry3d {
+  return {
+    area: setup.model.area_m2,
+    span: setup.model.span_m,
+    chord: setup.model.chord_m,
+    width: setup.tunnel.width_m,
+    height: setup.tunnel.height_m,
+    volume: setup.model.volume_m3,
+    k: setup.corrections.solid_blockage_k,
+    loading: setup.model.loading,
+    wake,
+    delta: setup.corrections.delta,
+    tau1: setup.corrections.tau1,
+    tau2: setup.corrections.tau2,
+    section: tunnelSectionOf(setup.tunnel),
+    mounting: mountingOf(setup.model),
+    ...(setup.model.moment_ref_xc !== 0.25 ? { momentRefXc: setup.model.moment_ref_xc } : {}),
+    tailArm: setup.model.tail_arm_m,
+    tailCmPerDeg: setup.model.tail_cm_per_deg,
+  };
 }
+
+/** True when the setup's section has a free boundary (an open or partly open jet). */
+export function isFreeJet(setup: Setup): boolean {
+  return hasFreeBoundary(tunnelSectionOf(setup.tunnel));
+}
+
+function prepare3d(input: WallInput, wake: 'classic' | 'maskell'): PreparedWall {
+  const free = isFreeJet(input.setup);
+  const res = correct3d(input.points, input.clScatter, geometry3dOf(input.setup, free ? 'classic' : wake));
+  const ctx = res.context;
+  const freeFallback = wake === 'maskell' && free ? "Maskell's wake blockage is derived for closed sections; this section has a free boundary, so the free-jet corrections (no wake blockage) are used" : null;
+  return {
+    method: free ? '3d-free-jet' : ctx.maskellPolar ? '3d-maskell' : '3d-classic',
+    factors: res.factors,
+    correct: (p) => correctPoint3d(p, ctx),
+    warnings: [...(freeFallback ? [freeFallback] : []), ...res.warnings].map((message) => ({ message })),
+    fallback: freeFallback ? { requested: '3d-maskell', reason: freeFallback } : res.maskellFallback ? { requested: '3d-maskell', reason: res.maskellFallback } : null,
+  };
+}
+
+const accepts3d = (setup: Setup): string | undefined =>
+  setup.model.kind === '3d' ? undefined : 'the 3D corrections are for a model in the test section (model.kind "3d")';
+
+/**
+ * 3D corrections in a section with at least one free boundary (open jet, jet over a ground board, open
+ * circular jet): lift interference, solid blockage and curvature by the free-jet images (sectionFactors.ts),
+ * no wake blockage (Glauert R&M 1566; Barlow, Rae & Pope 3rd ed., open-jet boundary corrections).
+ */
+export const freeJet3dMethod: WallMethod = {
+  id: '3d-free-jet',
+  label: '3D, section with a free boundary (open or partly open jet), full or half model',
+  source: 'Glauert, ARC R&M 1566 (1933); Barlow, Rae & Pope, Low-Speed Wind Tunnel Testing, 3rd ed. (1999), 3D boundary corrections for open jets',
+  accepts: (setup) => accepts3d(setup) ?? (isFreeJet(setup) ? undefined : 'every boundary of this section is solid: the closed-section methods apply'),
+  prepare: (input) => prepare3d(input, 'classic'),
+};
+
+/** 3D corrections with the classic wake blockage (S/4C)·CD_u: Barlow, Rae & Pope 3rd ed. §10; Glauert R&M 1566. */
+export const classic3dMethod: WallMethod = {
+  id: '3d-classic',
+  label: '3D, closed section (rectangular, filleted or circular; full or half model), classic wake blockage',
+  source: 'Barlow, Rae & Pope, Low-Speed Wind Tunnel Testing, 3rd ed. (1999) §10; Glauert, ARC R&M 1566 (1933)',
+  accepts: accepts3d,
+  prepare: (input) => prepare3d(input, 'classic'),
+};
+
+/** 3D corrections with Maskell's separated-flow wake blockage (ARC R&M 3400); classic when no attached polar can be fitted. */
+export const maskell3dMethod: WallMethod = {
+  id: '3d-maskell',
+  label: '3D, closed section (rectangular, filleted or circular; full or half model), Maskell wake blockage',
+  source: 'Maskell, ARC R&M 3400 (1963); Barlow, Rae & Pope 3rd ed. §10; Glauert, ARC R&M 1566 (1933)',
+  accepts: accepts3d,
+  prepare: (input) => prepare3d(input, 'maskell'),
+};
+
