@@ -251,7 +251,7 @@ function checkTunnel(file: string, s: SetupInput, span: number | undefined, warn
   let height: number;
   let diameter: number | null = null;
   if (circular) {
-    if (t.diameter_m === undefined) refuse('tunnel.diameter_m', `required for a ${t.section} section (diameter, m)`);
+    if (t.diameter_m === undefined) refuse('tunnel.diameter_m', `required for an ${t.section} section (diameter, m)`);
     diameter = t.diameter_m!;
     for (const k of ['width_m', 'height_m'] as const) {
       if (t[k] !== undefined && t[k] !== diameter) refuse(`tunnel.${k}`, `a circular section is sized by tunnel.diameter_m (${diameter} m); ${t[k]} m here disagrees — remove it`);

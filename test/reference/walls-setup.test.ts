@@ -34,7 +34,7 @@ describe('setup: tunnels and mountings', () => {
   it('refuses a circular section without a diameter, naming tunnel.diameter_m', () => {
     const s = base();
     s.tunnel = { section: 'open-circular' };
-    expect(refusedField(s)).toMatch(/^tunnel\.diameter_m: required for a open-circular section/);
+    expect(refusedField(s)).toMatch(/^tunnel\.diameter_m: required for an open-circular section/);
   });
 
   it('refuses a span that does not fit, naming model.span_m', () => {
