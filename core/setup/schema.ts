@@ -239,6 +239,8 @@ export function validateSetup(file: string, json: unknown): SetupResult {
 // ---- tunnels and mountings: checks ----
 export { tunnelSectionOf, mountingOf } from '../walls/sections.ts';
 
+const article = (word: string) => (/^[aeiou]/.test(word) ? 'an' : 'a');
+
 /** Size, boundaries, fillets and mounting checked together; refusals name the field, cautions become warnings. */
 function checkTunnel(file: string, s: SetupInput, span: number | undefined, warnings: Notice[]): Setup['tunnel'] {
   const t = s.tunnel;
@@ -251,7 +253,7 @@ function checkTunnel(file: string, s: SetupInput, span: number | undefined, warn
   let height: number;
   let diameter: number | null = null;
   if (circular) {
-    if (t.diameter_m === undefined) refuse('tunnel.diameter_m', `required for an ${t.section} section (diameter, m)`);
+    if (t.diameter_m === undefined) refuse('tunnel.diameter_m', `required for ${article(t.section)} ${t.section} section (diameter, m)`);
     diameter = t.diameter_m!;
     for (const k of ['width_m', 'height_m'] as const) {
       if (t[k] !== undefined && t[k] !== diameter) refuse(`tunnel.${k}`, `a circular section is sized by tunnel.diameter_m (${diameter} m); ${t[k]} m here disagrees — remove it`);
@@ -259,8 +261,8 @@ function checkTunnel(file: string, s: SetupInput, span: number | undefined, warn
     if (t.fillet_m) refuse('tunnel.fillet_m', 'corner fillets apply to rectangular sections only');
     width = height = diameter;
   } else {
-    if (t.width_m === undefined) refuse('tunnel.width_m', `required for a ${t.section} section (width along the span, m)`);
-    if (t.height_m === undefined) refuse('tunnel.height_m', `required for a ${t.section} section (height, m)`);
+    if (t.width_m === undefined) refuse('tunnel.width_m', `required for ${article(t.section)} ${t.section} section (width along the span, m)`);
+    if (t.height_m === undefined) refuse('tunnel.height_m', `required for ${article(t.section)} ${t.section} section (height, m)`);
     if (t.diameter_m !== undefined) refuse('tunnel.diameter_m', `only for circular sections; a ${t.section} section is sized by width_m and height_m`);
     width = t.width_m!;
     height = t.height_m!;
