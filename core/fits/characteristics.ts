@@ -204,7 +204,8 @@ export function fitPolar(input: FitInput): { fit: FitResult; warnings: string[] 
       fit.cm_alpha_per_deg = fitLine(a, cm, from, to).slope;
       const dcmdcl = fitLine(clr, cm.slice(from, to)).slope;
       fit.cm_cl_slope = dcmdcl;
-      if (input.kind === '3d') fit.x_ac_aft_of_ref_c = -dcmdcl;
+      // aerodynamic centre aft of the moment reference, 3D and 2D alike (for a section: x_ac/c = x_ref/c − dcm/dcl)
+      fit.x_ac_aft_of_ref_c = -dcmdcl;
     }
   }
 
