@@ -117,17 +117,21 @@ export interface Setup {
     volume_m3: number | null;
     moment_ref_offset_m: { x: number; z: number };
     loading: 'elliptic' | 'uniform';
-    /** Tunnels and mountings: "full" or "half"; the half model's reflection wall; moment reference x/c; tail. */
-    mounting: 'full' | 'half';
-    reflection_wall: Wall | null;
-    /** Moment reference aft of the reference chord's leading edge, in chords (default 0.25). */
-    moment_ref_xc: number;
-    fineness_ratio: number | null;
-    tail_arm_m: number | null;
-    tail_cm_per_deg: number | null;
+    // Tunnels and mountings: present only when the setup gives them (so a classic setup reads back unchanged).
+    /** "full" when absent; "half" with its reflection wall. */
+    mounting?: 'full' | 'half';
+    reflection_wall?: Wall;
+    /** Moment reference aft of the reference chord's leading edge, in chords (0.25 when absent). */
+    moment_ref_xc?: number;
+    fineness_ratio?: number;
+    tail_arm_m?: number;
+    tail_cm_per_deg?: number;
   };
-  /** width_m and height_m equal the diameter for a circular section, so every consumer finds a size. */
-  tunnel: { name?: string; section: SectionName; width_m: number; height_m: number; diameter_m: number | null; boundaries: Boundaries; fillet_m: number };
+  /**
+   * width_m and height_m equal the diameter for a circular section, so every consumer finds a size;
+   * boundaries only for section "rectangular" (tunnelSectionOf derives the others), fillet_m when given.
+   */
+  tunnel: { name?: string; section: SectionName; width_m: number; height_m: number; diameter_m?: number; boundaries?: Boundaries; fillet_m?: number };
   balance: { axes: 'wind' | 'body' };
   flow: { gamma: number };
   ambient: { p_pa?: number; t_c?: number; rh_pct?: number };
@@ -212,12 +216,7 @@ export function validateSetup(file: string, json: unknown): SetupResult {
         volume_m3: m.volume_m3 ?? null,
         moment_ref_offset_m: m.moment_ref_offset_m ?? { x: 0, z: 0 },
         loading: m.loading ?? 'elliptic',
-        mounting: m.mounting ?? 'full',
-        reflection_wall: m.reflection_wall ?? null,
-        moment_ref_xc: m.moment_ref_xc ?? 0.25,
-        fineness_ratio: m.fineness_ratio ?? null,
-        tail_arm_m: m.tail_arm_m ?? null,
-        tail_cm_per_deg: m.tail_cm_per_deg ?? null,
+        ...definedOnly({ mounting: m.mounting, reflection_wall: m.reflection_wall, moment_ref_xc: m.moment_ref_xc, fineness_ratio: m.fineness_ratio, tail_arm_m: m.tail_arm_m, tail_cm_per_deg: m.tail_cm_per_deg }),
       },
       tunnel,
       balance: s.balance,
@@ -238,6 +237,11 @@ export function validateSetup(file: string, json: unknown): SetupResult {
 
 // ---- tunnels and mountings: checks ----
 export { tunnelSectionOf, mountingOf } from '../walls/sections.ts';
+
+/** The entries whose value is not undefined. */
+function definedOnly<T extends Record<string, unknown>>(o: T): Partial<{ [K in keyof T]: Exclude<T[K], undefined> }> {
+  return Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined)) as Partial<{ [K in keyof T]: Exclude<T[K], undefined> }>;
+}
 
 const article = (word: string) => (/^[aeiou]/.test(word) ? 'an' : 'a');
 
@@ -279,7 +283,13 @@ function checkTunnel(file: string, s: SetupInput, span: number | undefined, warn
   if (m.mounting !== 'half' && m.reflection_wall !== undefined) refuse('model.reflection_wall', 'applies to a half model only (set model.mounting to "half")');
   if (m.mounting === 'half' && m.reflection_wall === undefined) refuse('model.reflection_wall', 'required for a half model: the wall it stands on, "floor", "ceiling", "left" or "right"');
   if (m.tail_cm_per_deg !== undefined && m.tail_arm_m === undefined) warnings.push({ file, field: 'model.tail_cm_per_deg', message: 'given without model.tail_arm_m: no tail-on correction is made' });
-  const out: Setup['tunnel'] = { ...(t.name !== undefined ? { name: t.name } : {}), section: t.section, width_m: width, height_m: height, diameter_m: diameter, boundaries, fillet_m: t.fillet_m ?? 0 };
+  const out: Setup['tunnel'] = {
+    ...(t.name !== undefined ? { name: t.name } : {}),
+    section: t.section,
+    width_m: width,
+    height_m: height,
+    ...definedOnly({ diameter_m: diameter ?? undefined, boundaries: t.section === 'rectangular' ? boundaries : undefined, fillet_m: t.fillet_m }),
+  };
   const section = tunnelSectionOf(out);
   const mounting: Mounting = m.mounting === 'half' ? { kind: 'half', wall: m.reflection_wall! } : { kind: 'full' };
   const { errors, cautions } = checkMounting(section, mounting, m.kind, span);

@@ -144,14 +144,15 @@ export function checkMounting(t: TunnelSection, m: Mounting, kind: '2d' | '3d', 
 }
 
 /** The section of a setup's (validated) tunnel block. */
-export function tunnelSectionOf(t: { section: string; width_m: number; height_m: number; diameter_m: number | null; boundaries: Boundaries; fillet_m: number }): TunnelSection {
+export function tunnelSectionOf(t: { section: string; width_m: number; height_m: number; diameter_m?: number; boundaries?: Boundaries; fillet_m?: number }): TunnelSection {
   if (t.section === 'closed-circular' || t.section === 'open-circular') {
     return { shape: 'circular', diameter: t.diameter_m ?? t.width_m, boundary: t.section === 'closed-circular' ? 'solid' : 'free' };
   }
-  return { shape: 'rectangular', width: t.width_m, height: t.height_m, boundaries: t.boundaries, fillet: t.fillet_m };
+  const all: Boundary = t.section === 'open-rectangular' ? 'free' : 'solid';
+  return { shape: 'rectangular', width: t.width_m, height: t.height_m, boundaries: t.boundaries ?? { floor: all, ceiling: all, left: all, right: all }, fillet: t.fillet_m ?? 0 };
 }
 
 /** The mounting of a setup's (validated) model block. */
-export function mountingOf(m: { mounting: 'full' | 'half'; reflection_wall: Wall | null }): Mounting {
+export function mountingOf(m: { mounting?: 'full' | 'half'; reflection_wall?: Wall }): Mounting {
   return m.mounting === 'half' && m.reflection_wall ? { kind: 'half', wall: m.reflection_wall } : { kind: 'full' };
 }

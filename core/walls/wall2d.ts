@@ -5,7 +5,7 @@
  */
 import { MAX_VALIDATED_EPSILON, RAD, type CorrectedPoint, type TunnelPoint } from './types.ts';
 import { factors2dBySection } from './sectionFactors.ts';
-import type { Boundary } from './sections.ts';
+import { tunnelSectionOf, type Boundary } from './sections.ts';
 import type { Notice } from '../contract/messages.ts';
 import type { Setup } from '../setup/schema.ts';
 import type { WallMethod } from './method.ts';
@@ -100,6 +100,17 @@ export function exceedsValidatedBlockage(p: CorrectedPoint): boolean {
 }
 
 /** The 2D geometry of a setup. */
+/** Floor, ceiling and fillets of the setup's section, only where they differ from the closed plain rectangle. */
+function sectionBoundaries2d(setup: Setup): Pick<Geometry2d, 'floor' | 'ceiling' | 'fillet'> {
+  const t = tunnelSectionOf(setup.tunnel);
+  if (t.shape !== 'rectangular') return {};
+  return {
+    ...(t.boundaries.floor !== 'solid' ? { floor: t.boundaries.floor } : {}),
+    ...(t.boundaries.ceiling !== 'solid' ? { ceiling: t.boundaries.ceiling } : {}),
+    ...(t.fillet > 0 ? { fillet: t.fillet } : {}),
+  };
+}
+
 export function geometry2dOf(setup: Setup): Geometry2d {
   return {
     chord: setup.model.chord_m,
@@ -107,10 +118,8 @@ export function geometry2dOf(setup: Setup): Geometry2d {
     width: setup.tunnel.width_m,
     volume: setup.model.volume_m3,
     k1: setup.corrections.solid_blockage_k,
-    floor: setup.tunnel.boundaries.floor,
-    ceiling: setup.tunnel.boundaries.ceiling,
-    fillet: setup.tunnel.fillet_m,
-    ...(setup.model.moment_ref_xc !== 0.25 ? { momentRefXc: setup.model.moment_ref_xc } : {}),
+    ...sectionBoundaries2d(setup),
+    ...(setup.model.moment_ref_xc !== undefined && setup.model.moment_ref_xc !== 0.25 ? { momentRefXc: setup.model.moment_ref_xc } : {}),
   };
 }
 

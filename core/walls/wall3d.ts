@@ -263,9 +263,9 @@ export function geometry3dOf(setup: Setup, wake: 'classic' | 'maskell'): Geometr
     tau2: setup.corrections.tau2,
     section: tunnelSectionOf(setup.tunnel),
     mounting: mountingOf(setup.model),
-    ...(setup.model.moment_ref_xc !== 0.25 ? { momentRefXc: setup.model.moment_ref_xc } : {}),
-    tailArm: setup.model.tail_arm_m,
-    tailCmPerDeg: setup.model.tail_cm_per_deg,
+    ...(setup.model.moment_ref_xc !== undefined && setup.model.moment_ref_xc !== 0.25 ? { momentRefXc: setup.model.moment_ref_xc } : {}),
+    tailArm: setup.model.tail_arm_m ?? null,
+    tailCmPerDeg: setup.model.tail_cm_per_deg ?? null,
   };
 }
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { validateSetup } from '../../core/setup/schema.ts';
+import { validateSetup, tunnelSectionOf } from '../../core/setup/schema.ts';
 import { InputError } from '../../core/contract/messages.ts';
 
 const base = () => ({
@@ -20,15 +20,23 @@ function refusedField(setup: unknown): string {
 }
 
 describe('setup: tunnels and mountings', () => {
-  it('accepts every section kind and fills the boundaries it implies', () => {
+  it('accepts every section kind, and the section it describes has the boundaries its name implies', () => {
     const s = base();
     s.tunnel = { section: 'open-rectangular', width_m: 1.2, height_m: 0.9 };
-    expect(validateSetup('f', s).setup.tunnel.boundaries).toEqual({ floor: 'free', ceiling: 'free', left: 'free', right: 'free' });
+    expect(tunnelSectionOf(validateSetup('f', s).setup.tunnel)).toEqual({ shape: 'rectangular', width: 1.2, height: 0.9, boundaries: { floor: 'free', ceiling: 'free', left: 'free', right: 'free' }, fillet: 0 });
     s.tunnel = { section: 'closed-circular', diameter_m: 1.5 };
     const c = validateSetup('f', s).setup.tunnel;
     expect([c.width_m, c.height_m, c.diameter_m]).toEqual([1.5, 1.5, 1.5]);
+    expect(tunnelSectionOf(c)).toEqual({ shape: 'circular', diameter: 1.5, boundary: 'solid' });
     s.tunnel = { section: 'rectangular', width_m: 1.2, height_m: 0.9, boundaries: { floor: 'solid', ceiling: 'free', left: 'free', right: 'free' }, fillet_m: 0.1 };
-    expect(validateSetup('f', s).setup.tunnel.fillet_m).toBe(0.1);
+    expect(tunnelSectionOf(validateSetup('f', s).setup.tunnel)).toMatchObject({ fillet: 0.1, boundaries: { floor: 'solid', ceiling: 'free' } });
+  });
+
+  it('reads a classic setup back without any of the new keys (so its canonical form and provenance do not change)', () => {
+    const s = base();
+    const t = validateSetup('f', s).setup;
+    expect(Object.keys(t.tunnel).sort()).toEqual(['height_m', 'section', 'width_m']);
+    expect(['mounting', 'reflection_wall', 'moment_ref_xc', 'fineness_ratio', 'tail_arm_m', 'tail_cm_per_deg'].filter((k) => k in t.model)).toEqual([]);
   });
 
   it('refuses a circular section without a diameter, naming tunnel.diameter_m', () => {
