@@ -292,6 +292,9 @@ function checkTunnel(file: string, s: SetupInput, span: number | undefined, warn
   };
   const section = tunnelSectionOf(out);
   const mounting: Mounting = m.mounting === 'half' ? { kind: 'half', wall: m.reflection_wall! } : { kind: 'full' };
+  if (m.kind === '2d' && t.section === 'open-rectangular') {
+    refuse('tunnel.section', 'a 2d model spans the width between solid side walls; for free floor and ceiling between solid sides use section "rectangular" with boundaries');
+  }
   const { errors, cautions } = checkMounting(section, mounting, m.kind, span);
   if (errors.length > 0) refuse(errors[0]!.field, errors[0]!.message);
   for (const c of cautions) warnings.push({ file, field: c.field, message: c.message });

@@ -76,6 +76,15 @@ describe('setup: tunnels and mountings', () => {
     expect(refusedField(s)).toMatch(/^tunnel\.diameter_m:/);
   });
 
+  it('refuses a 2D wing in an open rectangular jet (no side walls to hold it), naming tunnel.section, and accepts free floor and ceiling between solid sides', () => {
+    const s = base();
+    s.model = { kind: '2d', chord_m: 0.3, volume_m3: 0.004 };
+    s.tunnel = { section: 'open-rectangular', width_m: 1.2, height_m: 0.9 };
+    expect(refusedField(s)).toMatch(/^tunnel\.section: a 2d model spans the width between solid side walls/);
+    s.tunnel = { section: 'rectangular', width_m: 1.2, height_m: 0.9, boundaries: { floor: 'free', ceiling: 'free', left: 'solid', right: 'solid' } };
+    expect(validateSetup('f', s).setup.model.kind).toBe('2d');
+  });
+
   it('cautions, without refusing, a span above 0.8 of the width', () => {
     const s = base();
     s.model.span_m = 1.0;
