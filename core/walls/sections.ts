@@ -18,8 +18,7 @@ export interface Boundaries {
 }
 
 export type TunnelSection =
-  | { shape: 'rectangular'; width: number; height: number; boundaries: Boundaries; fillet: number }
-  | { shape: 'circular'; diameter: number; boundary: Boundary };
+  { shape: 'rectangular'; width: number; height: number; boundaries: Boundaries; fillet: number } | { shape: 'circular'; diameter: number; boundary: Boundary };
 
 export type Mounting = { kind: 'full' } | { kind: 'half'; wall: Wall };
 
@@ -102,32 +101,53 @@ export const MAX_FILLET_AREA_FRACTION = 0.1;
  * Geometry checks of a model in a section: errors refuse the setup, cautions are reported with the
  * results. `kind` is the model kind; `span` the 3D span (semi-span for a half model).
  */
-export function checkMounting(t: TunnelSection, m: Mounting, kind: '2d' | '3d', span: number | undefined): { errors: SectionNotice[]; cautions: SectionNotice[] } {
+export function checkMounting(
+  t: TunnelSection,
+  m: Mounting,
+  kind: '2d' | '3d',
+  span: number | undefined,
+): { errors: SectionNotice[]; cautions: SectionNotice[] } {
   const errors: SectionNotice[] = [];
   const cautions: SectionNotice[] = [];
   if (t.shape === 'rectangular') {
     const f = t.fillet;
     if (f > 0 && 2 * f >= Math.min(t.width, t.height)) {
-      errors.push({ field: 'tunnel.fillet_m', message: `${f} m corner fillets leave no flat wall between them in a ${t.width} m × ${t.height} m section (each leg must be under half the shorter side, ${Math.min(t.width, t.height) / 2} m)` });
+      errors.push({
+        field: 'tunnel.fillet_m',
+        message: `${f} m corner fillets leave no flat wall between them in a ${t.width} m × ${t.height} m section (each leg must be under half the shorter side, ${Math.min(t.width, t.height) / 2} m)`,
+      });
     } else if ((2 * f * f) / (t.width * t.height) > MAX_FILLET_AREA_FRACTION) {
-      cautions.push({ field: 'tunnel.fillet_m', message: `the fillets take ${((200 * f * f) / (t.width * t.height)).toFixed(1)} % of the section area; the factors come from the images of the plain rectangle, which is only approximate for fillets this large` });
+      cautions.push({
+        field: 'tunnel.fillet_m',
+        message: `the fillets take ${((200 * f * f) / (t.width * t.height)).toFixed(1)} % of the section area; the factors come from the images of the plain rectangle, which is only approximate for fillets this large`,
+      });
     }
   }
   if (kind === '2d') {
-    if (t.shape === 'circular') errors.push({ field: 'tunnel.section', message: 'a 2d model (a wing spanning the tunnel between its side walls) needs a rectangular section' });
+    if (t.shape === 'circular')
+      errors.push({ field: 'tunnel.section', message: 'a 2d model (a wing spanning the tunnel between its side walls) needs a rectangular section' });
     else if (t.boundaries.left === 'free' || t.boundaries.right === 'free') {
-      errors.push({ field: `tunnel.boundaries.${t.boundaries.left === 'free' ? 'left' : 'right'}`, message: 'a 2d model spans the width between solid side walls; a free side boundary cannot hold it' });
+      errors.push({
+        field: `tunnel.boundaries.${t.boundaries.left === 'free' ? 'left' : 'right'}`,
+        message: 'a 2d model spans the width between solid side walls; a free side boundary cannot hold it',
+      });
     }
     if (m.kind === 'half') errors.push({ field: 'model.mounting', message: 'a 2d model spans the whole width; "half" applies to 3d models only' });
     return { errors, cautions };
   }
   if (m.kind === 'half') {
     if (t.shape === 'circular') {
-      errors.push({ field: 'model.mounting', message: 'a half model needs a flat reflection wall: use a rectangular section (a circular section has no flat wall)' });
+      errors.push({
+        field: 'model.mounting',
+        message: 'a half model needs a flat reflection wall: use a rectangular section (a circular section has no flat wall)',
+      });
       return { errors, cautions };
     }
     if (t.boundaries[m.wall] === 'free') {
-      errors.push({ field: 'model.reflection_wall', message: `the ${m.wall} is a free boundary in this section; a half model must stand on a solid reflection wall` });
+      errors.push({
+        field: 'model.reflection_wall',
+        message: `the ${m.wall} is a free boundary in this section; a half model must stand on a solid reflection wall`,
+      });
       return { errors, cautions };
     }
   }
@@ -136,20 +156,39 @@ export function checkMounting(t: TunnelSection, m: Mounting, kind: '2d' | '3d', 
   const what = t.shape === 'circular' ? 'the diameter' : m.kind === 'full' ? 'the tunnel width' : `the distance from the ${m.wall} to the opposite wall`;
   const ratio = span / room;
   if (ratio >= 1) {
-    errors.push({ field: 'model.span_m', message: `${m.kind === 'half' ? 'the semi-span' : 'the span'} ${span} m does not fit: it must be less than ${what}, ${room} m` });
+    errors.push({
+      field: 'model.span_m',
+      message: `${m.kind === 'half' ? 'the semi-span' : 'the span'} ${span} m does not fit: it must be less than ${what}, ${room} m`,
+    });
   } else if (ratio > MAX_SPAN_RATIO) {
-    cautions.push({ field: 'model.span_m', message: `the ${m.kind === 'half' ? 'semi-span' : 'span'} is ${ratio.toFixed(2)} of ${what}, above the ${MAX_SPAN_RATIO} for which the lift-interference correction is validated; results are given but treat them with caution` });
+    cautions.push({
+      field: 'model.span_m',
+      message: `the ${m.kind === 'half' ? 'semi-span' : 'span'} is ${ratio.toFixed(2)} of ${what}, above the ${MAX_SPAN_RATIO} for which the lift-interference correction is validated; results are given but treat them with caution`,
+    });
   }
   return { errors, cautions };
 }
 
 /** The section of a setup's (validated) tunnel block. */
-export function tunnelSectionOf(t: { section: string; width_m: number; height_m: number; diameter_m?: number; boundaries?: Boundaries; fillet_m?: number }): TunnelSection {
+export function tunnelSectionOf(t: {
+  section: string;
+  width_m: number;
+  height_m: number;
+  diameter_m?: number;
+  boundaries?: Boundaries;
+  fillet_m?: number;
+}): TunnelSection {
   if (t.section === 'closed-circular' || t.section === 'open-circular') {
     return { shape: 'circular', diameter: t.diameter_m ?? t.width_m, boundary: t.section === 'closed-circular' ? 'solid' : 'free' };
   }
   const all: Boundary = t.section === 'open-rectangular' ? 'free' : 'solid';
-  return { shape: 'rectangular', width: t.width_m, height: t.height_m, boundaries: t.boundaries ?? { floor: all, ceiling: all, left: all, right: all }, fillet: t.fillet_m ?? 0 };
+  return {
+    shape: 'rectangular',
+    width: t.width_m,
+    height: t.height_m,
+    boundaries: t.boundaries ?? { floor: all, ceiling: all, left: all, right: all },
+    fillet: t.fillet_m ?? 0,
+  };
 }
 
 /** The mounting of a setup's (validated) model block. */

@@ -43,7 +43,13 @@ describe('sections and mountings through the reduction stages (no pipeline chang
   it('a half model gets the mirrored full model’s factors and the same S/C, V/C as its own', () => {
     const setup = withSetup((s) => Object.assign(s.model, { mounting: 'half', reflection_wall: 'floor', span_m: 0.45, area_m2: 0.10125, volume_m3: 0.00105 }));
     const r = reduce({ run, setup });
-    const mirrored = sectionFactors({ tunnel: { shape: 'rectangular', width: 1.8, height: 1.2, boundaries: { floor: 'solid', ceiling: 'solid', left: 'solid', right: 'solid' }, fillet: 0 }, mounting: { kind: 'full' }, span: 0.9, chord: 0.225, loading: 'elliptic' });
+    const mirrored = sectionFactors({
+      tunnel: { shape: 'rectangular', width: 1.8, height: 1.2, boundaries: { floor: 'solid', ceiling: 'solid', left: 'solid', right: 'solid' }, fillet: 0 },
+      mounting: { kind: 'full' },
+      span: 0.9,
+      chord: 0.225,
+      loading: 'elliptic',
+    });
     expect(r.factors.delta).toBeCloseTo(mirrored.delta, 12);
     expect(r.factors.tau2).toBeCloseTo(mirrored.tau2, 12);
     // ε_sb of the half model in the real section = that of the mirrored model (2V in 2C)

@@ -14,27 +14,57 @@ import type { TunnelPoint } from '../../core/walls/types.ts';
 /** Independent image sums (test/fixtures/walls/generate.py: rows by complex cot/csc, Bessel functions from scipy). */
 const ref = JSON.parse(readFileSync(new URL('../fixtures/walls/reference.json', import.meta.url), 'utf8'));
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.max(Math.abs(b), 1e-12);
-const rect = (B: number, H: number, w: { spanLo: string; spanHi: string; liftLo: string; liftHi: string }): RectImageSection => ({ shape: 'rectangular', B, H, ...(w as Omit<RectImageSection, 'shape' | 'B' | 'H'>) });
+const rect = (B: number, H: number, w: { spanLo: string; spanHi: string; liftLo: string; liftHi: string }): RectImageSection => ({
+  shape: 'rectangular',
+  B,
+  H,
+  ...(w as Omit<RectImageSection, 'shape' | 'B' | 'H'>),
+});
 const SOLID: Boundaries = { floor: 'solid', ceiling: 'solid', left: 'solid', right: 'solid' };
 const FREE: Boundaries = { floor: 'free', ceiling: 'free', left: 'free', right: 'free' };
-const tunnelRect = (width: number, height: number, boundaries: Boundaries = SOLID, fillet = 0): TunnelSection => ({ shape: 'rectangular', width, height, boundaries, fillet });
+const tunnelRect = (width: number, height: number, boundaries: Boundaries = SOLID, fillet = 0): TunnelSection => ({
+  shape: 'rectangular',
+  width,
+  height,
+  boundaries,
+  fillet,
+});
 
 describe('held-out values of δ at vanishing span', () => {
   it('closed circular section: δ = 0.125 (Glauert, ARC R&M 1566; Barlow, Rae & Pope 3rd ed.)', () => {
-    const f = sectionFactors({ tunnel: { shape: 'circular', diameter: 2, boundary: 'solid' }, mounting: { kind: 'full' }, span: 1e-6, chord: 0.1, loading: 'elliptic' });
+    const f = sectionFactors({
+      tunnel: { shape: 'circular', diameter: 2, boundary: 'solid' },
+      mounting: { kind: 'full' },
+      span: 1e-6,
+      chord: 0.1,
+      loading: 'elliptic',
+    });
     expect(f.delta).toBeCloseTo(0.125, 10);
     expect(deltaCirc({ shape: 'circular', R: 1, boundary: 'solid' }, 0, 'uniform')).toBe(0.125);
   });
 
   it('open circular jet: δ = −0.125 (Glauert, ARC R&M 1566; Barlow, Rae & Pope 3rd ed.)', () => {
-    const f = sectionFactors({ tunnel: { shape: 'circular', diameter: 2, boundary: 'free' }, mounting: { kind: 'full' }, span: 1e-6, chord: 0.1, loading: 'uniform' });
+    const f = sectionFactors({
+      tunnel: { shape: 'circular', diameter: 2, boundary: 'free' },
+      mounting: { kind: 'full' },
+      span: 1e-6,
+      chord: 0.1,
+      loading: 'uniform',
+    });
     expect(f.delta).toBeCloseTo(-0.125, 10);
   });
 
   it('closed square section: δ = 0.137 (DESIGN closed form; Barlow, Rae & Pope classic tabulated value), also from the generic image sum', () => {
     expect(deltaVanishingSpan(rect(1, 1, { spanLo: 'solid', spanHi: 'solid', liftLo: 'solid', liftHi: 'solid' }))).toBeCloseTo(0.1368, 4);
-    for (const [B, H] of [[1, 1], [1.2, 0.9], [2, 1], [1, 1.6]] as const) {
-      expect(rel(deltaVanishingSpan(rect(B, H, { spanLo: 'solid', spanHi: 'solid', liftLo: 'solid', liftHi: 'solid' })), deltaSmallSpan({ B, H }))).toBeLessThan(1e-12);
+    for (const [B, H] of [
+      [1, 1],
+      [1.2, 0.9],
+      [2, 1],
+      [1, 1.6],
+    ] as const) {
+      expect(
+        rel(deltaVanishingSpan(rect(B, H, { spanLo: 'solid', spanHi: 'solid', liftLo: 'solid', liftHi: 'solid' })), deltaSmallSpan({ B, H })),
+      ).toBeLessThan(1e-12);
     }
   });
 
@@ -101,7 +131,10 @@ describe('circular sections against the independent Bessel-function integrals (s
   });
 
   it('τ2 at five distances behind the wing, closed and open; 0 at the wing and 1 far downstream', () => {
-    for (const [b, sec] of [['solid', closed], ['free', open]] as const) {
+    for (const [b, sec] of [
+      ['solid', closed],
+      ['free', open],
+    ] as const) {
       for (const c of ref.circular[b].tau2) expect(Math.abs(tau2Circ(sec, c.lam) - c.tau2), `${b} λ=${c.lam}`).toBeLessThan(2e-5);
       expect(tau2Circ(sec, 0)).toBe(0);
       expect(tau2Circ(sec, 40)).toBeCloseTo(1, 2);
@@ -145,7 +178,7 @@ describe('solid blockage: K and τ1 on one normalisation', () => {
   });
 
   it('the sphere in an open circular jet gets the opposite sign, ε = −0.206 (d/D)³ (Glauert R&M 1566 §5 — from memory)', () => {
-    const eps = (1.5 * tau1Circ({ shape: 'circular', R: 0.5, boundary: 'free' }) * (Math.PI / 6) * 0.2 ** 3) / ((Math.PI / 4) ** 1.5);
+    const eps = (1.5 * tau1Circ({ shape: 'circular', R: 0.5, boundary: 'free' }) * (Math.PI / 6) * 0.2 ** 3) / (Math.PI / 4) ** 1.5;
     expect(eps / 0.2 ** 3).toBeCloseTo(-0.206, 3);
   });
 });
@@ -153,7 +186,13 @@ describe('solid blockage: K and τ1 on one normalisation', () => {
 describe('half models on a reflection plane', () => {
   it('δ of a floor-mounted half model equals the independent sum over its tip vortex images in the real section (uniform loading)', () => {
     for (const c of ref.half_model) {
-      const f = sectionFactors({ tunnel: tunnelRect(c.width, c.height, c.walls), mounting: { kind: 'half', wall: 'floor' }, span: c.semispan, chord: 0.1, loading: 'uniform' });
+      const f = sectionFactors({
+        tunnel: tunnelRect(c.width, c.height, c.walls),
+        mounting: { kind: 'half', wall: 'floor' },
+        span: c.semispan,
+        chord: 0.1,
+        loading: 'uniform',
+      });
       expect(Math.abs(f.delta - c.delta_uniform), JSON.stringify(c)).toBeLessThan(1e-8);
     }
   });
@@ -165,7 +204,7 @@ describe('half models on a reflection plane', () => {
     expect(half.delta).toBeCloseTo(full.delta, 12);
     expect(half.tau2).toBeCloseTo(full.tau2, 12);
     // ε = K·τ1·V/C^1.5 with the half model's V and the real C equals the mirrored model's 2V in 2C
-    expect(half.tau1 * 1 / 1.08 ** 1.5).toBeCloseTo((full.tau1 * 2) / 2.16 ** 1.5, 12);
+    expect((half.tau1 * 1) / 1.08 ** 1.5).toBeCloseTo((full.tau1 * 2) / 2.16 ** 1.5, 12);
     const side = sectionFactors({ tunnel: tunnelRect(0.9, 1.2), mounting: { kind: 'half', wall: 'left' }, span: 0.5, chord: 0.2, loading: 'elliptic' });
     expect(side.delta).toBeCloseTo(full.delta, 12);
   });
@@ -188,8 +227,33 @@ describe('half models on a reflection plane', () => {
 describe('corner fillets', () => {
   it('take 2f² from the section area and raise the wake blockage (S/4C)·CD by BH/C', () => {
     expect(sectionArea(tunnelRect(1.2, 0.9, SOLID, 0.15))).toBeCloseTo(1.08 - 0.045, 12);
-    const p: TunnelPoint = { alphaDeg: 2, cl: 0.3, cd: 0.05, cm: Number.NaN, cy: Number.NaN, cRoll: Number.NaN, cYaw: Number.NaN, q: 600, V: 31, mach: 0.09, Re: 4.7e5 };
-    const g = { area: 0.2, span: 0.9, chord: 0.22, width: 1.2, height: 0.9, volume: null, k: 1, loading: 'elliptic' as const, wake: 'classic' as const, delta: 0.12, tau1: 0.75, tau2: 0.1 };
+    const p: TunnelPoint = {
+      alphaDeg: 2,
+      cl: 0.3,
+      cd: 0.05,
+      cm: Number.NaN,
+      cy: Number.NaN,
+      cRoll: Number.NaN,
+      cYaw: Number.NaN,
+      q: 600,
+      V: 31,
+      mach: 0.09,
+      Re: 4.7e5,
+    };
+    const g = {
+      area: 0.2,
+      span: 0.9,
+      chord: 0.22,
+      width: 1.2,
+      height: 0.9,
+      volume: null,
+      k: 1,
+      loading: 'elliptic' as const,
+      wake: 'classic' as const,
+      delta: 0.12,
+      tau1: 0.75,
+      tau2: 0.1,
+    };
     const plain = correct3d([p], [0], { ...g, section: tunnelRect(1.2, 0.9) }).points[0]!;
     const filleted = correct3d([p], [0], { ...g, section: tunnelRect(1.2, 0.9, SOLID, 0.15) }).points[0]!;
     expect(plain.epsWake).toBeCloseTo((0.2 / (4 * 1.08)) * 0.05, 14);
@@ -203,8 +267,33 @@ describe('corner fillets', () => {
 });
 
 describe('free jets in the 3D correction', () => {
-  const p: TunnelPoint = { alphaDeg: 4, cl: 0.5, cd: 0.04, cm: -0.02, cy: Number.NaN, cRoll: Number.NaN, cYaw: Number.NaN, q: 600, V: 31, mach: 0.09, Re: 4.7e5 };
-  const g = { area: 0.2025, span: 0.9, chord: 0.225, width: 1.2, height: 0.9, volume: 0.0021, k: 1.045, loading: 'elliptic' as const, wake: 'classic' as const, delta: null, tau1: null, tau2: null };
+  const p: TunnelPoint = {
+    alphaDeg: 4,
+    cl: 0.5,
+    cd: 0.04,
+    cm: -0.02,
+    cy: Number.NaN,
+    cRoll: Number.NaN,
+    cYaw: Number.NaN,
+    q: 600,
+    V: 31,
+    mach: 0.09,
+    Re: 4.7e5,
+  };
+  const g = {
+    area: 0.2025,
+    span: 0.9,
+    chord: 0.225,
+    width: 1.2,
+    height: 0.9,
+    volume: 0.0021,
+    k: 1.045,
+    loading: 'elliptic' as const,
+    wake: 'classic' as const,
+    delta: null,
+    tau1: null,
+    tau2: null,
+  };
 
   it('an open jet has no wake blockage, a negative solid blockage and a negative angle correction, and says so', () => {
     const res = correct3d([p, { ...p, alphaDeg: 6 }], [0, 0], { ...g, section: tunnelRect(1.2, 0.9, FREE) });
@@ -225,13 +314,50 @@ describe('free jets in the 3D correction', () => {
 });
 
 describe('pitching moment about the actual reference and with the tail on', () => {
-  const pts: TunnelPoint[] = [-2, 0, 2, 4, 6].map((a) => ({ alphaDeg: a, cl: 0.08 * (a + 2), cd: 0.02, cm: -0.02, cy: Number.NaN, cRoll: Number.NaN, cYaw: Number.NaN, q: 600, V: 31, mach: 0.09, Re: 4.7e5 }));
-  const g = { area: 0.2025, span: 0.9, chord: 0.225, width: 1.2, height: 0.9, volume: null, k: 1, loading: 'elliptic' as const, wake: 'classic' as const, delta: 0.12, tau1: 0.75, tau2: 0.1 };
+  const pts: TunnelPoint[] = [-2, 0, 2, 4, 6].map((a) => ({
+    alphaDeg: a,
+    cl: 0.08 * (a + 2),
+    cd: 0.02,
+    cm: -0.02,
+    cy: Number.NaN,
+    cRoll: Number.NaN,
+    cYaw: Number.NaN,
+    q: 600,
+    V: 31,
+    mach: 0.09,
+    Re: 4.7e5,
+  }));
+  const g = {
+    area: 0.2025,
+    span: 0.9,
+    chord: 0.225,
+    width: 1.2,
+    height: 0.9,
+    volume: null,
+    k: 1,
+    loading: 'elliptic' as const,
+    wake: 'classic' as const,
+    delta: 0.12,
+    tau1: 0.75,
+    tau2: 0.1,
+  };
 
   it('puts the curvature lift at the half chord: about 0.25c the term is −0.25·ΔCL_sc (BRP eq. 10.62), about 0.5c it vanishes, about 0.35c it is −0.15·ΔCL_sc', () => {
-    const qc = correct3d(pts, pts.map(() => 0), g).points;
-    const half = correct3d(pts, pts.map(() => 0), { ...g, momentRefXc: 0.5 }).points;
-    const x35 = correct3d(pts, pts.map(() => 0), { ...g, momentRefXc: 0.35 }).points;
+    const qc = correct3d(
+      pts,
+      pts.map(() => 0),
+      g,
+    ).points;
+    const half = correct3d(
+      pts,
+      pts.map(() => 0),
+      { ...g, momentRefXc: 0.5 },
+    ).points;
+    const x35 = correct3d(
+      pts,
+      pts.map(() => 0),
+      { ...g, momentRefXc: 0.35 },
+    ).points;
     qc.forEach((k, i) => {
       const base = pts[i]!.cm / (1 + k.epsSolid + k.epsWake) ** 2;
       const dClSc = (k.cm - base) / -0.25;
@@ -241,27 +367,55 @@ describe('pitching moment about the actual reference and with the tail on', () =
   });
 
   it('with a tail arm and ∂Cm/∂α_t, removes the moment of the extra upwash at the tail: ΔCm_t = −(∂Cm/∂α_t)·δ·τ2(l_t)·(S/C)·CL_w', () => {
-    const base = correct3d(pts, pts.map(() => 0), g);
-    const tail = correct3d(pts, pts.map(() => 0), { ...g, tailArm: 0.6, tailCmPerDeg: -0.02 });
+    const base = correct3d(
+      pts,
+      pts.map(() => 0),
+      g,
+    );
+    const tail = correct3d(
+      pts,
+      pts.map(() => 0),
+      { ...g, tailArm: 0.6, tailCmPerDeg: -0.02 },
+    );
     const t2 = streamlineCurvatureTau2({ B: 1.2, H: 0.9 }, (Math.PI / 4) * 0.9, 0.6);
     tail.points.forEach((k, i) => {
       const clW = pts[i]!.cl / (1 + k.epsWake) ** 2;
       expect(k.cm - base.points[i]!.cm).toBeCloseTo(0.02 * (180 / Math.PI) * 0.12 * t2 * (0.2025 / 1.08) * clW, 12);
     });
     expect(tail.warnings.join('\n')).toMatch(/τ2 at the tail arm 0\.6 m/);
-    expect(correct3d(pts, pts.map(() => 0), { ...g, tailArm: 0.6 }).warnings.join('\n')).toMatch(/tail_cm_per_deg/);
+    expect(
+      correct3d(
+        pts,
+        pts.map(() => 0),
+        { ...g, tailArm: 0.6 },
+      ).warnings.join('\n'),
+    ).toMatch(/tail_cm_per_deg/);
   });
 });
 
 describe('2D models in sections with a free floor or ceiling', () => {
-  const p: TunnelPoint = { alphaDeg: 4, cl: 0.5, cd: 0.012, cm: -0.05, cy: Number.NaN, cRoll: Number.NaN, cYaw: Number.NaN, q: 500, V: 29, mach: 0.085, Re: 6e5 };
+  const p: TunnelPoint = {
+    alphaDeg: 4,
+    cl: 0.5,
+    cd: 0.012,
+    cm: -0.05,
+    cy: Number.NaN,
+    cRoll: Number.NaN,
+    cYaw: Number.NaN,
+    q: 500,
+    V: 29,
+    mach: 0.085,
+    Re: 6e5,
+  };
   const g = { chord: 0.3, height: 0.9, width: 1.2, volume: 0.004, k1: 0.74 };
 
   it('scales σ by −2 and ε_sb by −1/2 between two free boundaries, by 1/4 and −1/8 with one of each, and drops the wake blockage (image sums Σ′c_n/n²)', () => {
     expect(factors2dBySection('free', 'free')).toEqual({ sigma: -2, solid: -0.5, wake: false });
     expect(factors2dBySection('solid', 'free')).toEqual({ sigma: 0.25, solid: -0.125, wake: false });
     // the sums themselves: Σ′(−1)^n/n² = −π²/6, Σ′1/n² = π²/3, one wall of each: Σ over even n of (−1)^(n/2)/n² = −π²/24
-    let alt = 0, same = 0, mixed = 0;
+    let alt = 0,
+      same = 0,
+      mixed = 0;
     for (let n = 1; n < 200000; n++) {
       alt += (2 * (n % 2 ? -1 : 1)) / (n * n);
       same += 2 / (n * n);
@@ -285,18 +439,26 @@ describe('2D models in sections with a free floor or ceiling', () => {
 
   it('refuses a 2D model in a circular section or between free side boundaries', () => {
     expect(checkMounting({ shape: 'circular', diameter: 1, boundary: 'solid' }, { kind: 'full' }, '2d', undefined).errors[0]?.field).toBe('tunnel.section');
-    expect(checkMounting(tunnelRect(1.2, 0.9, { ...SOLID, right: 'free' }), { kind: 'full' }, '2d', undefined).errors[0]?.field).toBe('tunnel.boundaries.right');
+    expect(checkMounting(tunnelRect(1.2, 0.9, { ...SOLID, right: 'free' }), { kind: 'full' }, '2d', undefined).errors[0]?.field).toBe(
+      'tunnel.boundaries.right',
+    );
   });
 });
 
 describe('image problems', () => {
   it('maps a side-wall half model to a section twice as wide bounded by the opposite wall on both span ends', () => {
     const p = imageProblem(tunnelRect(1.2, 0.9, { floor: 'solid', ceiling: 'free', left: 'solid', right: 'free' }), { kind: 'half', wall: 'left' }, 0.5);
-    expect(p).toEqual({ section: { shape: 'rectangular', B: 2.4, H: 0.9, spanLo: 'free', spanHi: 'free', liftLo: 'solid', liftHi: 'free' }, span: 1, mirror: 2 });
+    expect(p).toEqual({
+      section: { shape: 'rectangular', B: 2.4, H: 0.9, spanLo: 'free', spanHi: 'free', liftLo: 'solid', liftHi: 'free' },
+      span: 1,
+      mirror: 2,
+    });
   });
 
   it('refuses a full model whose span does not fit and cautions above 0.8 of the width or diameter', () => {
     expect(checkMounting(tunnelRect(1.2, 0.9), { kind: 'full' }, '3d', 1.2).errors[0]?.field).toBe('model.span_m');
-    expect(checkMounting({ shape: 'circular', diameter: 1, boundary: 'free' }, { kind: 'full' }, '3d', 0.85).cautions[0]?.message).toMatch(/0\.85 of the diameter/);
+    expect(checkMounting({ shape: 'circular', diameter: 1, boundary: 'free' }, { kind: 'full' }, '3d', 0.85).cautions[0]?.message).toMatch(
+      /0\.85 of the diameter/,
+    );
   });
 });

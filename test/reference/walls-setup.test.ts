@@ -23,12 +23,24 @@ describe('setup: tunnels and mountings', () => {
   it('accepts every section kind, and the section it describes has the boundaries its name implies', () => {
     const s = base();
     s.tunnel = { section: 'open-rectangular', width_m: 1.2, height_m: 0.9 };
-    expect(tunnelSectionOf(validateSetup('f', s).setup.tunnel)).toEqual({ shape: 'rectangular', width: 1.2, height: 0.9, boundaries: { floor: 'free', ceiling: 'free', left: 'free', right: 'free' }, fillet: 0 });
+    expect(tunnelSectionOf(validateSetup('f', s).setup.tunnel)).toEqual({
+      shape: 'rectangular',
+      width: 1.2,
+      height: 0.9,
+      boundaries: { floor: 'free', ceiling: 'free', left: 'free', right: 'free' },
+      fillet: 0,
+    });
     s.tunnel = { section: 'closed-circular', diameter_m: 1.5 };
     const c = validateSetup('f', s).setup.tunnel;
     expect([c.width_m, c.height_m, c.diameter_m]).toEqual([1.5, 1.5, 1.5]);
     expect(tunnelSectionOf(c)).toEqual({ shape: 'circular', diameter: 1.5, boundary: 'solid' });
-    s.tunnel = { section: 'rectangular', width_m: 1.2, height_m: 0.9, boundaries: { floor: 'solid', ceiling: 'free', left: 'free', right: 'free' }, fillet_m: 0.1 };
+    s.tunnel = {
+      section: 'rectangular',
+      width_m: 1.2,
+      height_m: 0.9,
+      boundaries: { floor: 'solid', ceiling: 'free', left: 'free', right: 'free' },
+      fillet_m: 0.1,
+    };
     expect(tunnelSectionOf(validateSetup('f', s).setup.tunnel)).toMatchObject({ fillet: 0.1, boundaries: { floor: 'solid', ceiling: 'free' } });
   });
 

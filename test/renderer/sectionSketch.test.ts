@@ -6,7 +6,18 @@ import SectionSketch from '../../renderer/src/components/SectionSketch.vue';
 import { sectionSketch, type SketchInput } from '../../renderer/src/logic/sectionSketch.ts';
 import { draftFrom, setupFrom, checkSetup } from '../../renderer/src/logic/setupForm.ts';
 
-const base: SketchInput = { section: 'closed-rectangular', width: 1.2, height: 0.9, diameter: null, boundaries: {}, fillet: null, kind: '3d', span: 0.9, mounting: '', reflectionWall: '' };
+const base: SketchInput = {
+  section: 'closed-rectangular',
+  width: 1.2,
+  height: 0.9,
+  diameter: null,
+  boundaries: {},
+  fillet: null,
+  kind: '3d',
+  span: 0.9,
+  mounting: '',
+  reflectionWall: '',
+};
 
 describe('cross-section sketch', () => {
   it('draws a closed rectangle with four solid sides and the span to scale (0.75 of the width)', () => {
@@ -19,7 +30,14 @@ describe('cross-section sketch', () => {
   });
 
   it('dashes the free sides of a jet over a ground board and draws a half model up from the floor', () => {
-    const s = sectionSketch({ ...base, section: 'rectangular', boundaries: { floor: 'solid', ceiling: 'free', left: 'free', right: 'free' }, mounting: 'half', reflectionWall: 'floor', span: 0.45 });
+    const s = sectionSketch({
+      ...base,
+      section: 'rectangular',
+      boundaries: { floor: 'solid', ceiling: 'free', left: 'free', right: 'free' },
+      mounting: 'half',
+      reflectionWall: 'floor',
+      span: 0.45,
+    });
     expect(Object.fromEntries(s.walls.map((w) => [w.label, w.kind]))).toEqual({ ceiling: 'free', right: 'free', floor: 'solid', left: 'free' });
     const m = s.model!;
     expect(m.x1).toBe(m.x2); // vertical
@@ -44,7 +62,11 @@ describe('cross-section sketch', () => {
 
 describe('setup form: sections and mountings', () => {
   it('sends only what the chosen section takes, so switching to a circular section does not leave a stale width', () => {
-    const original = { model: { kind: '3d', area_m2: 0.2, chord_m: 0.2, span_m: 0.8 }, tunnel: { section: 'closed-rectangular', width_m: 1.2, height_m: 0.9 }, balance: { axes: 'wind' } };
+    const original = {
+      model: { kind: '3d', area_m2: 0.2, chord_m: 0.2, span_m: 0.8 },
+      tunnel: { section: 'closed-rectangular', width_m: 1.2, height_m: 0.9 },
+      balance: { axes: 'wind' },
+    };
     const d = draftFrom(original);
     d['tunnel.section'] = 'open-circular';
     d['tunnel.diameter_m'] = '1.2';
@@ -54,7 +76,11 @@ describe('setup form: sections and mountings', () => {
   });
 
   it('places a half model on a free wall under the reflection-wall field', () => {
-    const original = { model: { kind: '3d', area_m2: 0.1, chord_m: 0.2, span_m: 0.4, mounting: 'half', reflection_wall: 'floor' }, tunnel: { section: 'open-rectangular', width_m: 1.2, height_m: 0.9 }, balance: { axes: 'wind' } };
+    const original = {
+      model: { kind: '3d', area_m2: 0.1, chord_m: 0.2, span_m: 0.4, mounting: 'half', reflection_wall: 'floor' },
+      tunnel: { section: 'open-rectangular', width_m: 1.2, height_m: 0.9 },
+      balance: { axes: 'wind' },
+    };
     const c = checkSetup('s', setupFrom(original, draftFrom(original)));
     expect(c.byField['model.reflection_wall']).toMatch(/free boundary/);
   });

@@ -52,7 +52,14 @@ const fmt = (m: number) => `${Number(m.toPrecision(3))} m`;
 /** The sketch for the form's current values; never throws on half-typed input. */
 export function sectionSketch(inp: SketchInput): Sketch {
   const circular = inp.section === 'closed-circular' || inp.section === 'open-circular';
-  const blank = (why: string): Sketch => ({ viewBox: `${-LEFT} 0 ${VIEW + 2 * PAD + LEFT} ${VIEW + 2 * PAD}`, walls: [], model: null, dims: [], empty: why, summary: why });
+  const blank = (why: string): Sketch => ({
+    viewBox: `${-LEFT} 0 ${VIEW + 2 * PAD + LEFT} ${VIEW + 2 * PAD}`,
+    walls: [],
+    model: null,
+    dims: [],
+    empty: why,
+    summary: why,
+  });
   if (circular) {
     const D = num(inp.diameter);
     if (D === null) return blank('Enter the diameter to see the section.');
@@ -60,10 +67,19 @@ export function sectionSketch(inp: SketchInput): Sketch {
     const cx = PAD + r;
     const cy = PAD + r;
     const k: Kind = inp.section === 'closed-circular' ? 'solid' : 'free';
-    const walls: SketchSegment[] = [{ d: `M ${cx - r} ${cy} A ${r} ${r} 0 1 0 ${cx + r} ${cy} A ${r} ${r} 0 1 0 ${cx - r} ${cy}`, kind: k, label: k === 'solid' ? 'solid wall' : 'free jet boundary' }];
+    const walls: SketchSegment[] = [
+      {
+        d: `M ${cx - r} ${cy} A ${r} ${r} 0 1 0 ${cx + r} ${cy} A ${r} ${r} 0 1 0 ${cx - r} ${cy}`,
+        kind: k,
+        label: k === 'solid' ? 'solid wall' : 'free jet boundary',
+      },
+    ];
     const s = num(inp.span);
     const scale = VIEW / D;
-    const model = s !== null && inp.kind !== '2d' ? { x1: cx - (s * scale) / 2, y1: cy, x2: cx + (s * scale) / 2, y2: cy, label: `span ${fmt(s)} = ${(s / D).toFixed(2)} D` } : null;
+    const model =
+      s !== null && inp.kind !== '2d'
+        ? { x1: cx - (s * scale) / 2, y1: cy, x2: cx + (s * scale) / 2, y2: cy, label: `span ${fmt(s)} = ${(s / D).toFixed(2)} D` }
+        : null;
     return {
       viewBox: `${-LEFT} 0 ${VIEW + 2 * PAD + LEFT} ${VIEW + 2 * PAD}`,
       walls,
@@ -115,7 +131,13 @@ export function sectionSketch(inp: SketchInput): Sketch {
       else if (wall === 'right') model = { x1: x0 + w, y1: cy, x2: x0 + w - Math.min(L, w), y2: cy, label };
     } else {
       const half = Math.min(L, w) / 2;
-      model = { x1: cx - half, y1: cy, x2: cx + half, y2: cy, label: inp.kind === '2d' ? 'wing spanning the width' : `span ${fmt(s)} = ${(s / B).toFixed(2)} B` };
+      model = {
+        x1: cx - half,
+        y1: cy,
+        x2: cx + half,
+        y2: cy,
+        label: inp.kind === '2d' ? 'wing spanning the width' : `span ${fmt(s)} = ${(s / B).toFixed(2)} B`,
+      };
     }
   }
   const free = walls.filter((x) => x.kind === 'free' && x.label !== 'fillet').map((x) => x.label);
