@@ -6,7 +6,7 @@ import { attempt, InputError, type Outcome } from '../contract/messages.ts';
 import { reduce, type ReductionResult, type PointResult } from './pipeline.ts';
 import { RunFileReader, type ColumnMapping, type RunData } from '../formats/runFile.ts';
 import { parseSetup, type SetupResult } from '../setup/schema.ts';
-import { toCsv, type Cell } from '../formats/csvWriter.ts';
+import { commentLine, toCsv, type Cell } from '../formats/csvWriter.ts';
 import { provenanceLines, type Provenance } from '../formats/provenance.ts';
 
 export type { ReductionResult, PointResult } from './pipeline.ts';
@@ -61,7 +61,8 @@ export const POINT_COLUMNS: readonly (keyof PointResult)[] = [
 /** The point table of a result as CSV, headed by `# ` provenance lines when given. */
 export function pointsCsv(result: ReductionResult, provenance?: Provenance): string {
   const rows: Cell[][] = result.points.map((p) => POINT_COLUMNS.map((k) => p[k] as Cell));
-  // raw comment lines (not CSV cells): what `comment='#'` readers such as pandas and our own reader skip
-  const head = provenance ? provenanceLines(provenance).map((l) => `# ${l.replace(/[\r\n]+/g, ' ')}`).join('\n') + '\n' : '';
+  // comment lines (not CSV cells), skipped by `comment='#'` readers such as pandas and our own reader,
+  // escaped with the cells' formula rule for spreadsheets that split them at commas
+  const head = provenance ? provenanceLines(provenance).map(commentLine).join('\n') + '\n' : '';
   return head + toCsv(POINT_COLUMNS as string[], rows);
 }
