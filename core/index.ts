@@ -9,6 +9,7 @@ export * from './fits/characteristics.ts';
 export * from './formats/campaign.ts';
 export * from './formats/channels.ts';
 export * from './formats/csvWriter.ts';
+export * from './formats/limits.ts';
 export * from './formats/provenance.ts';
 export * from './formats/runFile.ts';
 export * from './fullscale/stallSpeed.ts';

@@ -6,11 +6,11 @@
  */
 import { createHash, type Hash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
-import { basename, resolve } from 'node:path';
+import { basename, dirname, resolve } from 'node:path';
 import { StringDecoder } from 'node:string_decoder';
 import { readFile, stat } from 'node:fs/promises';
 import { parseArgs } from 'node:util';
-import { pointsCsv, readRun, readSetup, reduceRun } from '../../core/index.ts';
+import { pointsCsv, readRun, readSetup, reduceRun, SETUP_MAX_BYTES, setupTooLarge } from '../../core/index.ts';
 import { attempt, formatNotice, InputError, type Notice } from '../../core/index.ts';
 import { projectStallSpeed } from '../../core/index.ts';
 import { provenanceOf, reductionTime, type InputFile, type Provenance } from '../../core/index.ts';
@@ -76,13 +76,16 @@ async function reduceCommand(args: string[], io: { stdout: NodeJS.WritableStream
       }
     }
   }
+  const refused = values.out ? await outTargetProblem(values.out) : undefined;
+  if (refused) return failWith(say, [refused]);
   const loaded = await loadAndReduce(positionals[0]!, values.setup, values.tare, values['no-corrections'], say);
   if (typeof loaded === 'number') return loaded;
   const { result, provenance } = loaded;
   for (const w of result.warnings) say(`warning: ${w}`);
   const text = format === 'json' ? JSON.stringify({ ...result, provenance }, null, 2) + '\n' : pointsCsv(result, provenance);
   if (values.out) {
-    await writeFileAtomic(values.out, text);
+    const failed = await writeOut(values.out, text);
+    if (failed) return failWith(say, [failed]);
     say(`wrote ${values.out}`);
   } else {
     io.stdout.write(text);
@@ -226,6 +229,8 @@ async function sameFile(a: string, b: string): Promise<boolean> {
 
 async function readText(path: string): Promise<string | Notice> {
   try {
+    const size = (await stat(path)).size;
+    if (size > SETUP_MAX_BYTES) return { file: path, message: setupTooLarge(size) };
     return await readFile(path, 'utf8');
   } catch (err) {
     return { file: path, message: describeFsError(err) };
@@ -236,10 +241,50 @@ function describeFsError(err: unknown): string {
   const code = (err as { code?: string }).code;
   if (code === 'ENOENT') return 'no such file';
   if (code === 'EISDIR') return 'is a folder, not a file';
-  if (code === 'EACCES') return 'permission denied';
+  if (code === 'EACCES' || code === 'EPERM') return 'permission denied';
+  if (code === 'ENOTREGULAR') return 'not a regular file (a pipe, socket or device)';
+  if (code === 'EROFS') return 'read-only file system';
+  if (code === 'ENOSPC') return 'no space left on the disk';
+  if (code === 'ENOTDIR') return 'a part of the path is not a folder';
   return (err as Error).message;
 }
 
 function fileError(path: string, err: unknown): InputError {
   return new InputError({ file: path, message: describeFsError(err) });
+}
+
+// --- where --out may write ------------------------------------------------------------------------
+// Only a regular file or a new name in an existing folder: a folder, a FIFO or a device node is
+// refused before anything is reduced, and a write that fails names the path the user gave.
+
+/** Why `--out path` cannot be written, or undefined when it can be tried. */
+async function outTargetProblem(path: string): Promise<Notice | undefined> {
+  try {
+    const s = await stat(path);
+    if (s.isDirectory()) return { file: path, message: '--out names a folder; give a file name inside it' };
+    if (!s.isFile()) return { file: path, message: '--out is not a regular file (a pipe, socket or device); refused, nothing was written' };
+    return undefined;
+  } catch (err) {
+    if ((err as { code?: string }).code !== 'ENOENT') return { file: path, message: `cannot write --out: ${describeFsError(err)}` };
+  }
+  try {
+    if (!(await stat(dirname(resolve(path)))).isDirectory()) return { file: path, message: `cannot write --out: ${dirname(path)} is not a folder` };
+  } catch {
+    return { file: path, message: `cannot write --out: the folder ${dirname(path)} does not exist` };
+  }
+  return undefined;
+}
+
+/** Write the output atomically; a failure becomes a message naming the user's path, not the temp file. */
+async function writeOut(path: string, text: string): Promise<Notice | undefined> {
+  try {
+    await writeFileAtomic(path, text);
+    return undefined;
+  } catch (err) {
+    const code = (err as { code?: string }).code;
+    const known = describeFsError(err);
+    // an unknown error's message names the hidden temp file; the user gave `path`
+    const why = known === (err as Error).message ? `write failed${code ? ` (${code})` : ''}` : known;
+    return { file: path, message: `cannot write --out: ${why}; nothing was written` };
+  }
 }

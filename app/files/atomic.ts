@@ -107,8 +107,12 @@ export async function writeFileAtomic(path: string, data: string | Uint8Array, o
   await removeStaleTemps(path);
   let mode: number | undefined;
   try {
-    mode = (await stat(path)).mode & 0o777; // keep the file's permissions across the rename
-  } catch {
+    const s = await stat(path);
+    // a folder, FIFO or device node is never replaced by a file (renaming over it would)
+    if (!s.isFile()) throw Object.assign(new Error(`${path} is not a regular file; refused, nothing was written`), { code: s.isDirectory() ? 'EISDIR' : 'ENOTREGULAR' });
+    mode = s.mode & 0o777; // keep the file's permissions across the rename
+  } catch (err) {
+    if ((err as { code?: string }).code !== 'ENOENT') throw err;
     mode = undefined;
   }
   const tmp = await writeTemp(path, (h) => h.writeFile(data), mode);

@@ -8,6 +8,7 @@ import { RunFileReader, type ColumnMapping, type RunData } from '../formats/runF
 import { parseSetup, type SetupResult } from '../setup/schema.ts';
 import { commentLine, toCsv, type Cell } from '../formats/csvWriter.ts';
 import { provenanceLines, type Provenance } from '../formats/provenance.ts';
+import { SETUP_MAX_BYTES, setupTooLarge } from '../formats/limits.ts';
 
 export type { ReductionResult, PointResult } from './pipeline.ts';
 
@@ -23,6 +24,8 @@ export async function readRun(file: string, source: TextSource, mapping?: Column
 }
 
 export function readSetup(file: string, text: string): Outcome<SetupResult> {
+  // UTF-16 code units; one per byte for the ASCII a setup is written in, so a fair stand-in for its size
+  if (text.length > SETUP_MAX_BYTES) return { ok: false, errors: [{ file, message: setupTooLarge(text.length) }] };
   return attempt(() => parseSetup(file, text));
 }
 
