@@ -10,11 +10,20 @@ const host: SweepbookHost & { adoptDroppedFile(file: File): Promise<ChosenFile> 
   chooseRunFiles: () => ipcRenderer.invoke('runs:choose'),
   readChunks: async (id, onChunk, chunkBytes) => {
     const stream: string = await ipcRenderer.invoke('file:open-stream', id, chunkBytes);
-    for (;;) {
-      const chunk: string | null = await ipcRenderer.invoke('file:next-chunk', stream);
-      if (chunk === null) return;
-      // a renderer that returns a promise gets back-pressure: the next chunk waits for it
-      await (onChunk(chunk) as unknown);
+    let finished = false;
+    try {
+      for (;;) {
+        const chunk: string | null = await ipcRenderer.invoke('file:next-chunk', stream);
+        if (chunk === null) {
+          finished = true;
+          return;
+        }
+        // pulled one at a time: a renderer that returns a promise holds back the next read (back-pressure)
+        await (onChunk(chunk) as unknown);
+      }
+    } finally {
+      // a reader that gave up (an error in onChunk) frees the main process's file handle at once
+      if (!finished) void ipcRenderer.invoke('file:close-stream', stream).catch(() => undefined);
     }
   },
   sha256: (id) => ipcRenderer.invoke('file:sha256', id),

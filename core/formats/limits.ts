@@ -11,6 +11,9 @@ export const SETUP_MAX_BYTES = 1 << 20;
 /** A campaign file above this is refused (64 MiB: room for tens of thousands of runs with their setups). */
 export const CAMPAIGN_MAX_BYTES = 64 << 20;
 
+/** A run or tare file a campaign names is opened only up to this size (4 GiB; a million-point run is about 30 MB). */
+export const CAMPAIGN_RUN_MAX_BYTES = 4 * 1024 ** 3;
+
 /** A campaign names at most this many runs and tares. */
 export const CAMPAIGN_MAX_FILES = 100_000;
 
