@@ -18,7 +18,28 @@ const geometry = (what: string, unit: 'm' | 'm²' | 'm³') => {
   const error = `expected ${lo} to ${hi} ${unit} (${what})`;
   return positive(`${what}, ${unit}`).min(lo, { error }).max(hi, { error });
 };
-const optionalFactor = (what: string) => z.number({ error: `expected a number or null (${what})` }).finite().nullable().optional();
+/**
+ * Sane ranges for the numbers a person types into a setup (common sense, no published bound): wide
+ * enough for every closed test section and model, narrow enough that a slipped decimal point (δ = 11.5
+ * for 0.115) gets a message naming the field instead of a reduction with α of 130°. Typical values, from
+ * memory of Barlow, Rae & Pope, Low-Speed Wind Tunnel Testing (3rd ed.) ch. 9–10: δ 0.1–0.14 for closed
+ * rectangular sections (negative only for open jets), τ1 0.8–0.95, τ2 0–0.3, K 0.74 (2D) to about 1.
+ */
+export const SETUP_RANGES = {
+  delta: [-0.5, 0.5],
+  tau1: [0, 2],
+  tau2: [0, 1],
+  solid_blockage_k: [0.1, 2],
+  /** Moment-reference offset, in reference chords either way. */
+  moment_ref_offset_chords: 10,
+  p_pa: [1e3, 5e6],
+} as const;
+const ranged = (what: string, [lo, hi]: readonly [number, number]) => {
+  const error = `expected ${lo} to ${hi} (${what})`;
+  return z.number({ error: `expected a number or null (${what})` }).finite().min(lo, { error }).max(hi, { error }).nullable().optional();
+};
+/** A standard uncertainty: zero or more, and at most `hi` (far beyond any instrument worth the name). */
+const uncertain = (what: string, hi: number) => finite(what).nonnegative().max(hi, { error: `expected 0 to ${hi} (${what})` }).optional();
 
 const modelSchema = z.strictObject({
   kind: z.enum(['2d', '3d'], { error: 'expected "2d" (a wing spanning the tunnel) or "3d"' }),
@@ -31,6 +52,15 @@ const modelSchema = z.strictObject({
     .strictObject({ x: finite('metres toward the nose'), z: finite('metres up') })
     .optional(),
   loading: z.enum(['elliptic', 'uniform'], { error: 'expected "elliptic" or "uniform"' }).optional(),
+}).superRefine((m, ctx) => {
+  // the moment reference lies on or near the model: within SETUP_RANGES.moment_ref_offset_chords chords of the balance centre
+  const limit = SETUP_RANGES.moment_ref_offset_chords * m.chord_m;
+  for (const axis of ['x', 'z'] as const) {
+    const v = m.moment_ref_offset_m?.[axis];
+    if (v !== undefined && Math.abs(v) > limit) {
+      ctx.addIssue({ code: 'custom', path: ['moment_ref_offset_m', axis], message: `expected within ±${limit.toPrecision(3)} m (${SETUP_RANGES.moment_ref_offset_chords} reference chords of ${m.chord_m} m)` });
+    }
+  }
 });
 
 const tunnelSchema = z.strictObject({
@@ -41,15 +71,15 @@ const tunnelSchema = z.strictObject({
 });
 
 const uncertaintySchema = z.strictObject({
-  dp_pitot_pa: finite('Pa').nonnegative().optional(),
-  p_static_pa: finite('Pa').nonnegative().optional(),
-  t_total_c: finite('K or °C difference').nonnegative().optional(),
-  rh_pct: finite('% RH').nonnegative().optional(),
-  force_n: finite('N').nonnegative().optional(),
-  moment_nm: finite('N m').nonnegative().optional(),
-  alpha_deg: finite('deg').nonnegative().optional(),
-  area_rel: finite('relative, e.g. 0.002').nonnegative().optional(),
-  chord_rel: finite('relative, e.g. 0.002').nonnegative().optional(),
+  dp_pitot_pa: uncertain('Pa', 1e4),
+  p_static_pa: uncertain('Pa', 1e5),
+  t_total_c: uncertain('K or °C difference', 50),
+  rh_pct: uncertain('% RH', 100),
+  force_n: uncertain('N', 1e5),
+  moment_nm: uncertain('N m', 1e5),
+  alpha_deg: uncertain('deg', 10),
+  area_rel: uncertain('relative, e.g. 0.002', 0.5),
+  chord_rel: uncertain('relative, e.g. 0.002', 0.5),
 });
 
 export const setupSchema = z.strictObject({
@@ -61,7 +91,7 @@ export const setupSchema = z.strictObject({
   flow: z.strictObject({ gamma: finite('ratio of specific heats').min(1.0001).max(2) }).optional(),
   ambient: z
     .strictObject({
-      p_pa: positive('static pressure, Pa').optional(),
+      p_pa: positive('static pressure, Pa').min(SETUP_RANGES.p_pa[0], { error: `expected ${SETUP_RANGES.p_pa[0]} to ${SETUP_RANGES.p_pa[1]} Pa (static pressure)` }).max(SETUP_RANGES.p_pa[1], { error: `expected ${SETUP_RANGES.p_pa[0]} to ${SETUP_RANGES.p_pa[1]} Pa (static pressure)` }).optional(),
       t_c: finite('°C').min(-100).max(200).optional(),
       rh_pct: finite('%').min(0).max(100).optional(),
     })
@@ -70,10 +100,10 @@ export const setupSchema = z.strictObject({
     .strictObject({
       enabled: z.boolean({ error: 'expected true or false' }).optional(),
       wake: z.enum(['classic', 'maskell'], { error: 'expected "classic" or "maskell"' }).optional(),
-      solid_blockage_k: optionalFactor('solid-blockage shape factor'),
-      delta: optionalFactor('lift-interference factor δ'),
-      tau1: optionalFactor('solid-blockage tunnel factor τ1'),
-      tau2: optionalFactor('streamline-curvature factor τ2'),
+      solid_blockage_k: ranged('solid-blockage shape factor K', SETUP_RANGES.solid_blockage_k),
+      delta: ranged('lift-interference factor δ', SETUP_RANGES.delta),
+      tau1: ranged('solid-blockage tunnel factor τ1', SETUP_RANGES.tau1),
+      tau2: ranged('streamline-curvature factor τ2', SETUP_RANGES.tau2),
     })
     .optional(),
   uncertainty: uncertaintySchema.optional(),
