@@ -7,7 +7,6 @@
 import { createHash, type Hash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
 import { basename, dirname, resolve } from 'node:path';
-import { StringDecoder } from 'node:string_decoder';
 import { readFile, stat } from 'node:fs/promises';
 import { parseArgs } from 'node:util';
 import { pointsCsv, readRun, readSetup, reduceRun, SETUP_MAX_BYTES, setupTooLarge } from '../../core/index.ts';
@@ -16,6 +15,7 @@ import { projectStallSpeed } from '../../core/index.ts';
 import { provenanceOf, reductionTime, type InputFile, type Provenance } from '../../core/index.ts';
 import type { ReductionResult } from '../../core/index.ts';
 import { writeFileAtomic } from '../files/atomic.ts';
+import { chunkDecoder } from '../files/textDecoding.ts';
 import { VERSION } from '../version.ts';
 
 const USAGE = `usage:
@@ -202,7 +202,7 @@ async function projectCommand(args: string[], io: { stdout: NodeJS.WritableStrea
  */
 async function* textStream(path: string, hash?: Hash): AsyncGenerator<string> {
   const stream = createReadStream(path, { flags: 'r', highWaterMark: 1 << 20 });
-  const decoder = new StringDecoder('utf8');
+  const decoder = chunkDecoder(); // UTF-8, or UTF-16 after its byte-order mark
   try {
     for await (const chunk of stream) {
       hash?.update(chunk as Buffer);
@@ -231,7 +231,8 @@ async function readText(path: string): Promise<string | Notice> {
   try {
     const size = (await stat(path)).size;
     if (size > SETUP_MAX_BYTES) return { file: path, message: setupTooLarge(size) };
-    return await readFile(path, 'utf8');
+    const decoder = chunkDecoder(); // UTF-8, or UTF-16 after its byte-order mark
+    return decoder.write(await readFile(path)) + decoder.end();
   } catch (err) {
     return { file: path, message: describeFsError(err) };
   }

@@ -9,8 +9,8 @@ import { createHash, type Hash } from 'node:crypto';
 import { constants } from 'node:fs';
 import { open, realpath, type FileHandle } from 'node:fs/promises';
 import { dirname, resolve, sep } from 'node:path';
-import { StringDecoder } from 'node:string_decoder';
 import { CAMPAIGN_RUN_MAX_BYTES, campaignPathProblem } from '../../core/index.ts';
+import { chunkDecoder } from '../files/textDecoding.ts';
 
 /** An error whose message is meant for the user, prefixed "refused:". */
 export function refused(message: string): Error {
@@ -86,13 +86,13 @@ export interface StreamDigest {
 }
 
 /**
- * A file read chunk by chunk on demand. `next()` reads one chunk (UTF-8, split safely between
- * characters) or returns null at the end, after which the handle is closed and `digest` is set.
+ * A file read chunk by chunk on demand. `next()` reads one chunk (UTF-8 or UTF-16 with its mark,
+ * split safely between characters) or returns null at the end, after which the handle is closed and `digest` is set.
  * `close()` may be called at any time and is idempotent.
  */
 export class PullStream {
   private position = 0;
-  private readonly decoder = new StringDecoder('utf8');
+  private readonly decoder = chunkDecoder(); // UTF-8, or UTF-16 after its byte-order mark
   private readonly hash: Hash = createHash('sha256');
   private closed = false;
   private reading: Promise<string | null> | undefined;

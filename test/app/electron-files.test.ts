@@ -194,6 +194,16 @@ describe('pulled streams', () => {
     expect(await h.call('file:sha256', id)).toBe(createHash('sha256').update(text).digest('hex'));
   });
 
+  it('streams a UTF-16 file with its byte-order mark as text', async () => {
+    const text = 'alpha,lift\n' + '1,2µ\n'.repeat(5000);
+    const { h, run, id } = await chosenRun('');
+    writeFileSync(run, Buffer.from('\ufeff' + text, 'utf16le'));
+    const stream = await h.call('file:open-stream', id, 4097); // odd: code units split across chunks
+    let got = '';
+    for (let c = await h.call('file:next-chunk', stream); c !== null; c = await h.call('file:next-chunk', stream)) got += c as string;
+    expect(got).toBe(text);
+  });
+
   it('refuses to stream a FIFO or device the user dropped, without hanging', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'sweepbook-fifo-'));
     const fifo = join(dir, 'run.csv');
