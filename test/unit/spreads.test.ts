@@ -12,11 +12,6 @@ import { describe, expect, it } from 'vitest';
  */
 const ROOT = resolve(__dirname, '../..');
 const MARK = /bounded spread:/;
-/**
- * Files left to their current rewrite, whose finding is known: the reduction's maximum Mach number is
- * taken with `Math.max(...points)` there. Remove an entry as soon as the file is rewritten.
- */
-const KNOWN: readonly string[] = ['core/reduction/pipeline.ts'];
 
 function sources(dir: string): string[] {
   const out: string[] = [];
@@ -82,9 +77,7 @@ describe('no spread of unbounded arrays into calls', () => {
   });
 
   it.each(['core', 'app', 'renderer/src'])('%s has none', (dir) => {
-    const found = sources(dir)
-      .filter((p) => !KNOWN.includes(relative(ROOT, p).split('\\').join('/')))
-      .flatMap((p) => unboundedSpreads(p, readFileSync(p, 'utf8')));
+    const found = sources(dir).flatMap((p) => unboundedSpreads(p, readFileSync(p, 'utf8')));
     expect(found).toEqual([]);
   });
 });

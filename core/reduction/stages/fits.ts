@@ -31,7 +31,7 @@ export const fitsStage: Stage = {
       aspectRatio: (ctx.setup.model.span_m * ctx.setup.model.span_m) / ctx.setup.model.area_m2,
     });
     ctx.fit = f.fit ?? { ...EMPTY_FIT };
-    ctx.notices.push(...f.warnings.map((message) => ({ message })));
+    for (const message of f.warnings) ctx.notices.push({ message });
   },
 };
 
