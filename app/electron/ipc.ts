@@ -38,7 +38,7 @@ const schemas = {
   id: z.string().uuid(),
   chunkBytes: z.number().int().min(4096).max(64 << 20).optional(),
   saveCampaign: z.tuple([
-    z.string().max(64 << 20),
+    z.string().max(CAMPAIGN_MAX_BYTES),
     z.strictObject({ id: z.string().uuid().optional(), saveAs: z.boolean().optional(), suggestedName: z.string().max(255).optional() }),
   ]),
   saveExport: z.tuple([z.string().min(1).max(255), z.union([z.string().max(256 << 20), z.instanceof(Uint8Array)]), z.string().max(100)]),
