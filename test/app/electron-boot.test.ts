@@ -1,9 +1,17 @@
-import { existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, rmdirSync, rmSync, writeFileSync } from 'node:fs';
 import Module, { createRequire } from 'node:module';
 import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it, vi } from 'vitest';
 import { buildElectron, electronBuild } from '../../electron.config.ts';
+
+function rmdirSafe(dir: string): void {
+  try {
+    rmdirSync(dir); // fails, and keeps it, when another process has built into it meanwhile
+  } catch {
+    // not empty: leave it
+  }
+}
 
 /**
  * The bundled main process (dist/electron/main.cjs) booted with `electron` replaced by a recording
@@ -91,7 +99,9 @@ describe('main process boot (electron mocked)', () => {
       expect((await handler(new Request('app://sweepbook/..%2F..%2Fpackage.json'))).status).toBe(404);
       expect(netFetch).not.toHaveBeenCalled();
     } finally {
-      rmSync(made ? rendererRoot : join(rendererRoot, probe), { recursive: true, force: true });
+      // only what this test made: the probe, and the folder if it made it and it is still empty
+      rmSync(join(rendererRoot, probe), { force: true });
+      if (made) rmdirSafe(rendererRoot);
     }
   }, 60_000);
 });
