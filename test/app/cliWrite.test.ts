@@ -73,6 +73,16 @@ describe('reduce: sizes and names of inputs', () => {
     expect(r.stdout).toBe('');
   });
 
+  it('refuses δ = 11.5 (a slipped decimal point) with exit 1 naming the setup field, instead of reducing to α of 130°', async () => {
+    const setup = JSON.parse(readFileSync(SETUP, 'utf8'));
+    const bad = join(dir(), 'setup-typo.json');
+    writeFileSync(bad, JSON.stringify({ ...setup, corrections: { ...setup.corrections, delta: 11.5 } }));
+    const r = await runCli('reduce', RUN, '--setup', bad);
+    expect(r.code).toBe(1);
+    expect(r.stderr).toContain('corrections.delta');
+    expect(r.stdout).toBe('');
+  });
+
   it('writes a run file named like a formula into the CSV provenance without a live formula cell', async () => {
     const d = dir();
     const run = join(d, 'a,=1+2;@SUM(A1),-2+3.csv');
