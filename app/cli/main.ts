@@ -9,13 +9,14 @@ import { createReadStream } from 'node:fs';
 import { basename, dirname, resolve } from 'node:path';
 import { readFile, stat } from 'node:fs/promises';
 import { parseArgs } from 'node:util';
-import { pointsCsv, readRun, readSetup, reduceRun, SETUP_MAX_BYTES, setupTooLarge } from '../../core/index.ts';
+import { pointsCsvChunks, readRun, readSetup, reduceRun, SETUP_MAX_BYTES, setupTooLarge } from '../../core/index.ts';
 import { attempt, formatNotice, InputError, type Notice } from '../../core/index.ts';
 import { projectStallSpeed } from '../../core/index.ts';
 import { provenanceOf, reductionTime, type InputFile, type Provenance } from '../../core/index.ts';
 import type { ReductionResult } from '../../core/index.ts';
 import { writeFileAtomic } from '../files/atomic.ts';
 import { chunkDecoder } from '../files/textDecoding.ts';
+import { jsonChunks, writeChunks } from './output.ts';
 import { VERSION } from '../version.ts';
 
 const USAGE = `usage:
@@ -82,13 +83,14 @@ async function reduceCommand(args: string[], io: { stdout: NodeJS.WritableStream
   if (typeof loaded === 'number') return loaded;
   const { result, provenance } = loaded;
   for (const w of result.warnings) say(`warning: ${w}`);
-  const text = format === 'json' ? JSON.stringify({ ...result, provenance }, null, 2) + '\n' : pointsCsv(result, provenance);
+  // written in pieces: a million-point document is too long for one string
+  const chunks = () => (format === 'json' ? jsonChunks({ ...result, provenance }) : pointsCsvChunks(result, provenance));
   if (values.out) {
-    const failed = await writeOut(values.out, text);
+    const failed = await writeOut(values.out, chunks());
     if (failed) return failWith(say, [failed]);
     say(`wrote ${values.out}`);
   } else {
-    io.stdout.write(text);
+    await writeChunks(io.stdout, chunks());
   }
   return 0;
 }
@@ -277,7 +279,7 @@ async function outTargetProblem(path: string): Promise<Notice | undefined> {
 }
 
 /** Write the output atomically; a failure becomes a message naming the user's path, not the temp file. */
-async function writeOut(path: string, text: string): Promise<Notice | undefined> {
+async function writeOut(path: string, text: Iterable<string>): Promise<Notice | undefined> {
   try {
     await writeFileAtomic(path, text);
     return undefined;

@@ -103,7 +103,8 @@ async function syncFolder(dir: string): Promise<void> {
   }
 }
 
-export async function writeFileAtomic(path: string, data: string | Uint8Array, options: { backup?: boolean } = {}): Promise<void> {
+/** Write `data` (text, bytes, or text in pieces for documents too long for one string) atomically. */
+export async function writeFileAtomic(path: string, data: string | Uint8Array | Iterable<string>, options: { backup?: boolean } = {}): Promise<void> {
   await removeStaleTemps(path);
   let mode: number | undefined;
   try {
@@ -115,7 +116,15 @@ export async function writeFileAtomic(path: string, data: string | Uint8Array, o
     if ((err as { code?: string }).code !== 'ENOENT') throw err;
     mode = undefined;
   }
-  const tmp = await writeTemp(path, (h) => h.writeFile(data), mode);
+  const tmp = await writeTemp(
+    path,
+    async (h) => {
+      if (typeof data === 'string' || data instanceof Uint8Array) return h.writeFile(data);
+      // writeFile on an open handle writes from the current position, all of it
+      for (const chunk of data) await h.writeFile(chunk);
+    },
+    mode,
+  );
   let bakTmp: string | undefined;
   try {
     if (options.backup && mode !== undefined) {

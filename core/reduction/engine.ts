@@ -6,7 +6,7 @@ import { attempt, InputError, type Outcome } from '../contract/messages.ts';
 import { reduce, reduceBases, type ReductionResult, type PointResult } from './pipeline.ts';
 import { RunFileReader, type ColumnMapping, type RunData } from '../formats/runFile.ts';
 import { parseSetup, type SetupResult } from '../setup/schema.ts';
-import { commentLine, toCsv, type Cell } from '../formats/csvWriter.ts';
+import { commentLine, csvCell, csvLine, type Cell } from '../formats/csvWriter.ts';
 import { provenanceLines, type Provenance } from '../formats/provenance.ts';
 import { SETUP_MAX_BYTES, setupTooLarge } from '../formats/limits.ts';
 
@@ -73,9 +73,32 @@ export const POINT_COLUMNS: readonly (keyof PointResult)[] = [
 
 /** The point table of a result as CSV, headed by `# ` provenance lines when given. */
 export function pointsCsv(result: ReductionResult, provenance?: Provenance): string {
-  const rows: Cell[][] = result.points.map((p) => POINT_COLUMNS.map((k) => p[k] as Cell));
+  let text = '';
+  for (const chunk of pointsCsvChunks(result, provenance)) text += chunk;
+  return text;
+}
+
+/** Rows per chunk of `pointsCsvChunks`. */
+const ROWS_PER_CHUNK = 2048;
+
+/**
+ * `pointsCsv` in pieces of a few thousand lines, for hosts that write a large table as it is made:
+ * a million-point table is about 450 million characters, near the longest string a JavaScript engine
+ * holds, so it is never built whole there.
+ */
+export function* pointsCsvChunks(result: ReductionResult, provenance?: Provenance): Generator<string> {
   // comment lines (not CSV cells), skipped by `comment='#'` readers such as pandas and our own reader,
   // escaped with the cells' formula rule for spreadsheets that split them at commas
-  const head = provenance ? provenanceLines(provenance).map(commentLine).join('\n') + '\n' : '';
-  return head + toCsv(POINT_COLUMNS as string[], rows);
+  if (provenance) yield provenanceLines(provenance).map(commentLine).join('\n') + '\n';
+  yield csvLine(POINT_COLUMNS as string[]) + '\n';
+  const points = result.points;
+  for (let start = 0; start < points.length; start += ROWS_PER_CHUNK) {
+    let block = '';
+    const end = Math.min(points.length, start + ROWS_PER_CHUNK);
+    for (let i = start; i < end; i++) {
+      const p = points[i]!;
+      block += POINT_COLUMNS.map((k) => csvCell(p[k] as Cell)).join(',') + '\n';
+    }
+    yield block;
+  }
 }
