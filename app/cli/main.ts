@@ -232,7 +232,7 @@ async function sameFile(a: string, b: string): Promise<boolean> {
 async function readText(path: string): Promise<string | Notice> {
   try {
     const size = (await stat(path)).size;
-    if (size > SETUP_MAX_BYTES) return { file: path, message: setupTooLarge(size) };
+    if (size > SETUP_MAX_BYTES) return { file: path, field: '(file size)', message: setupTooLarge(size) };
     const decoder = chunkDecoder(); // UTF-8, or UTF-16 after its byte-order mark
     return decoder.write(await readFile(path)) + decoder.end();
   } catch (err) {

@@ -25,7 +25,7 @@ export async function readRun(file: string, source: TextSource, mapping?: Column
 
 export function readSetup(file: string, text: string): Outcome<SetupResult> {
   // UTF-16 code units; one per byte for the ASCII a setup is written in, so a fair stand-in for its size
-  if (text.length > SETUP_MAX_BYTES) return { ok: false, errors: [{ file, message: setupTooLarge(text.length) }] };
+  if (text.length > SETUP_MAX_BYTES) return { ok: false, errors: [{ file, field: '(file size)', message: setupTooLarge(text.length) }] };
   return attempt(() => parseSetup(file, text));
 }
 
