@@ -18,3 +18,4 @@ export * from './physics/units.ts';
 export * from './reduction/engine.ts';
 export * from './reduction/pipeline.ts';
 export * from './setup/schema.ts';
+export * from './setup/fields.ts';

@@ -11,6 +11,7 @@ import { CAMPAIGN_MAX_BYTES, campaignFiles, campaignTooLarge, parseCampaign, typ
 import { writeFileAtomic } from '../files/atomic.ts';
 import { FileGrants } from './grants.ts';
 import type { RecentList } from './recent.ts';
+import { INVOKE, type InvokeChannel } from './ipcChannels.ts';
 import { confinedCampaignFile, PullStream, readRegularText, refused, sha256Regular } from './safeFiles.ts';
 import { isAppUrl } from './security.ts';
 
@@ -51,7 +52,7 @@ type Handler = (event: IpcMainInvokeEvent, ...args: unknown[]) => unknown;
 export function registerIpc(deps: IpcDeps): Map<string, Handler> {
   const handlers = new Map<string, Handler>();
   const streams = new Map<string, { stream: PullStream; grantId: string }>();
-  const on = (channel: string, fn: (...args: unknown[]) => unknown) => {
+  const on = (channel: InvokeChannel, fn: (...args: unknown[]) => unknown) => {
     const handler: Handler = (event, ...args) => {
       const url = event.senderFrame?.url ?? '';
       if (!isAppUrl(url)) throw new Error(`refused: IPC from a page that is not the app (${url || 'unknown'})`);
@@ -72,7 +73,7 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
     return { id: g.id, name: g.name, size };
   };
 
-  on('runs:choose', async () => {
+  on(INVOKE.chooseRunFiles, async () => {
     const win = deps.window();
     const opts = {
       title: 'Import run files',
@@ -86,7 +87,7 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
     return r.canceled ? [] : Promise.all(r.filePaths.map(chosen));
   });
 
-  on('file:adopt-dropped', async (path) => {
+  on(INVOKE.adoptDroppedFile, async (path) => {
     const p = schemas.droppedPath.parse(path);
     if (!RUN_EXTENSIONS.includes(extname(p).toLowerCase())) throw new Error(`refused: ${p} is not a run file (${RUN_EXTENSIONS.join(', ')})`);
     return chosen(p);
@@ -110,7 +111,7 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
   };
 
   // Pull-based: each file:next-chunk reads one chunk, so the page's pace holds back the reading.
-  on('file:open-stream', async (id, chunkBytes) => {
+  on(INVOKE.openStream, async (id, chunkBytes) => {
     const g = deps.grants.get(schemas.id.parse(id), 'read');
     await sweepStreams(1);
     const stream = await PullStream.open(g.path, schemas.chunkBytes.parse(chunkBytes) ?? 1 << 20);
@@ -119,7 +120,7 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
     return streamId;
   });
 
-  on('file:next-chunk', async (streamId) => {
+  on(INVOKE.nextChunk, async (streamId) => {
     const entry = streams.get(String(streamId));
     if (!entry) throw refused('unknown or closed stream');
     let chunk: string | null;
@@ -138,14 +139,14 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
     return chunk;
   });
 
-  on('file:close-stream', async (streamId) => {
+  on(INVOKE.closeStream, async (streamId) => {
     const entry = streams.get(String(streamId));
     streams.delete(String(streamId));
     await entry?.stream.close();
     return null;
   });
 
-  on('file:sha256', async (id) => {
+  on(INVOKE.sha256, async (id) => {
     const g = deps.grants.get(schemas.id.parse(id), 'read');
     if (g.digest) {
       try {
@@ -188,7 +189,7 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
       }
     }
     await deps.recent.add(g.path);
-    let backupAvailable = false;
+    let backupAvailable: boolean;
     try {
       backupAvailable = (await stat(`${g.path}.bak`)).isFile();
     } catch {
@@ -197,13 +198,13 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
     return { id: g.id, name: g.name, text, runs, backupAvailable };
   };
 
-  on('campaign:sample', async () => {
+  on(INVOKE.openSampleCampaign, async () => {
     const opened = await openCampaignAt(deps.sampleCampaignPath);
     // the bundled sample is never overwritten: saving it asks for a new place
     return { ...opened, id: `sample:${opened.id}` };
   });
 
-  on('campaign:open', async () => {
+  on(INVOKE.openCampaign, async () => {
     const win = deps.window();
     const opts = { title: 'Open campaign', properties: ['openFile'] as 'openFile'[], filters: [{ name: 'Sweepbook campaign', extensions: ['json'] }] };
     const r = win ? await deps.dialog.showOpenDialog(win, opts) : await deps.dialog.showOpenDialog(opts);
@@ -211,19 +212,19 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
     return openCampaignAt(r.filePaths[0]!);
   });
 
-  on('campaign:open-recent', async (path) => {
+  on(INVOKE.openRecentCampaign, async (path) => {
     const p = schemas.droppedPath.parse(path);
     if (!(await deps.recent.list()).includes(p)) throw new Error('refused: not a recent campaign');
     return openCampaignAt(p);
   });
 
   // the previous version kept beside a campaign: opened in its place after the user agreed; saving writes the campaign file
-  on('campaign:open-backup', async (id) => {
+  on(INVOKE.openCampaignBackup, async (id) => {
     const g = deps.grants.get(schemas.id.parse(id), 'write');
     return openCampaignAt(g.path, `${g.path}.bak`);
   });
 
-  on('campaign:save', async (...args) => {
+  on(INVOKE.saveCampaign, async (...args) => {
     const [text, options] = schemas.saveCampaign.parse(args);
     let path: string | undefined;
     if (options.id && !options.saveAs) path = deps.grants.get(options.id, 'write').path;
@@ -242,7 +243,7 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
     return { id: g.id, name: g.name };
   });
 
-  on('export:save', async (...args) => {
+  on(INVOKE.saveExport, async (...args) => {
     const [name, data] = schemas.saveExport.parse(args);
     const win = deps.window();
     const opts = { title: 'Export', defaultPath: name };
@@ -255,9 +256,9 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
     return true;
   });
 
-  on('recent:list', async () => (await deps.recent.list()).map((p) => ({ id: p, name: p.split(/[\\/]/).pop() ?? p })));
-  on('app:set-dirty', async (dirty) => deps.setDirty(schemas.dirty.parse(dirty)));
-  on('app:print', async () => deps.print());
+  on(INVOKE.recentCampaigns, async () => (await deps.recent.list()).map((p) => ({ id: p, name: p.split(/[\\/]/).pop() ?? p })));
+  on(INVOKE.setDirty, async (dirty) => deps.setDirty(schemas.dirty.parse(dirty)));
+  on(INVOKE.print, async () => deps.print());
   return handlers;
 }
 

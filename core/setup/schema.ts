@@ -1,11 +1,22 @@
 /**
- * The setup file (data contract v1, DESIGN §3.2): model geometry, tunnel section, balance axes, gas,
- * ambient defaults, wall-correction choices. Validated with zod; every problem names its field.
+ * The setup file (docs/data-format.md §4): model geometry, tunnel section, balance axes, gas, ambient
+ * defaults, wall-correction choices. Described once, here: each field's validation, default and
+ * metadata (label, unit, help; the sane range is its zod check) live in one entry, and from them come
+ * the `Setup` type, the window's setup form (core/setup/fields.ts), docs/setup.md and
+ * docs/setup.schema.json (`npm run docs:setup`). Validated with zod; every problem names its field.
+ *
+ * Adding a field is adding one entry to its block below, with `.meta({ label, unit, help })` and a
+ * `.default(...)` that keeps existing setups unchanged (DEVELOPERS.md, "Adding a setup field").
  */
 import { z } from 'zod';
 import { InputError, type Notice } from '../contract/messages.ts';
+import './fieldMeta.ts';
 
-const positive = (what: string) => z.number({ error: `expected a number (${what})` }).finite().positive({ error: `expected a positive number (${what})` });
+const positive = (what: string) =>
+  z
+    .number({ error: `expected a number (${what})` })
+    .finite()
+    .positive({ error: `expected a positive number (${what})` });
 const finite = (what: string) => z.number({ error: `expected a number (${what})` }).finite();
 /**
  * Geometry within a sanity range (common sense, no published source): no wind-tunnel model or test section
@@ -17,6 +28,11 @@ const geometry = (what: string, unit: 'm' | 'm²' | 'm³') => {
   const [lo, hi] = unit === 'm' ? [1e-4, 1e3] : unit === 'm²' ? [1e-8, 1e6] : [1e-12, 1e9];
   const error = `expected ${lo} to ${hi} ${unit} (${what})`;
   return positive(`${what}, ${unit}`).min(lo, { error }).max(hi, { error });
+};
+/** A number within a sane range; out of range, the message gives the range (not just "expected a number"). */
+const inRange = (what: string, lo: number, hi: number, unit: string) => {
+  const error = unit ? `expected ${lo} to ${hi}${unit}` : `expected ${lo} to ${hi} (${what})`;
+  return finite(what).min(lo, { error }).max(hi, { error });
 };
 /**
  * Sane ranges for the numbers a person types into a setup (common sense, no published bound): wide
@@ -34,114 +50,236 @@ export const SETUP_RANGES = {
   moment_ref_offset_chords: 10,
   p_pa: [1e3, 5e6],
 } as const;
-const ranged = (what: string, [lo, hi]: readonly [number, number]) => {
-  const error = `expected ${lo} to ${hi} (${what})`;
-  return z.number({ error: `expected a number or null (${what})` }).finite().min(lo, { error }).max(hi, { error }).nullable().optional();
-};
 /** A standard uncertainty: zero or more, and at most `hi` (far beyond any instrument worth the name). */
-const uncertain = (what: string, hi: number) => finite(what).nonnegative().max(hi, { error: `expected 0 to ${hi} (${what})` }).optional();
+const uncertainty = (what: string, hi: number) =>
+  finite(what)
+    .nonnegative({ error: `expected zero or more (${what})` })
+    .max(hi, { error: `expected 0 to ${hi} (${what})` });
+/** A wall-correction factor within its sane range: a number overrides, `null` (the default) means computed for this tunnel and model. */
+const optionalFactor = (what: string, [lo, hi]: readonly [number, number]) =>
+  z
+    .number({ error: `expected a number or null (${what})` })
+    .finite()
+    .min(lo, { error: `expected ${lo} to ${hi} (${what})` })
+    .max(hi, { error: `expected ${lo} to ${hi} (${what})` })
+    .nullable()
+    .default(null);
 
-const modelSchema = z.strictObject({
-  kind: z.enum(['2d', '3d'], { error: 'expected "2d" (a wing spanning the tunnel) or "3d"' }),
-  name: z.string().optional(),
-  area_m2: geometry('reference area', 'm²').optional(),
-  chord_m: geometry('reference chord', 'm'),
-  span_m: geometry('span', 'm').optional(),
-  volume_m3: geometry('model volume', 'm³').nullable().optional(),
-  moment_ref_offset_m: z
-    .strictObject({ x: finite('metres toward the nose'), z: finite('metres up') })
-    .optional(),
-  loading: z.enum(['elliptic', 'uniform'], { error: 'expected "elliptic" or "uniform"' }).optional(),
-}).superRefine((m, ctx) => {
-  // the moment reference lies on or near the model: within SETUP_RANGES.moment_ref_offset_chords chords of the balance centre
-  const limit = SETUP_RANGES.moment_ref_offset_chords * m.chord_m;
-  for (const axis of ['x', 'z'] as const) {
-    const v = m.moment_ref_offset_m?.[axis];
-    if (v !== undefined && Math.abs(v) > limit) {
-      ctx.addIssue({ code: 'custom', path: ['moment_ref_offset_m', axis], message: `expected within ±${limit.toPrecision(3)} m (${SETUP_RANGES.moment_ref_offset_chords} reference chords of ${m.chord_m} m)` });
+const modelSchema = z
+  .strictObject({
+    kind: z.enum(['2d', '3d'], { error: 'expected "2d" (a wing spanning the tunnel) or "3d"' }).meta({
+      label: 'Model',
+      details: '`2d`: a wing section spanning the tunnel width. `3d`: a model in the closed section; needs `area_m2`, `chord_m` and `span_m`.',
+      choices: { '3d': '3D model in the closed section', '2d': '2D wing spanning the section' },
+    }),
+    name: z.string().optional().meta({ label: 'Name', details: 'For people; not used by the reduction.' }),
+    area_m2: geometry('reference area', 'm²').optional().meta({
+      label: 'Reference area S',
+      unit: 'm²',
+      help: '3D only; a 2D model uses chord × tunnel width',
+      details: 'Required for a 3D model. For a 2D model the reference area is chord × tunnel width; a value that disagrees gets a warning and is not used.',
+    }),
+    chord_m: geometry('reference chord', 'm').meta({
+      label: 'Reference chord c',
+      unit: 'm',
+      details: 'Reynolds number and the pitching-moment coefficient are based on it.',
+    }),
+    span_m: geometry('span', 'm')
+      .optional()
+      .meta({ label: 'Span b', unit: 'm', help: '3D only', details: 'Required for a 3D model; a 2D model spans the tunnel width.' }),
+    volume_m3: geometry('model volume', 'm³')
+      .nullable()
+      .default(null)
+      .meta({
+        label: 'Model volume',
+        unit: 'm³',
+        help: 'for solid blockage; empty skips it',
+        details: 'Without it solid blockage is skipped, with a warning.',
+      }),
+    moment_ref_offset_m: z
+      .strictObject({
+        x: finite('metres toward the nose').meta({
+          label: 'Moment reference ahead of balance centre, x',
+          unit: 'm',
+          details:
+            'The moment reference centre relative to the balance moment centre, x toward the nose, z up: M_ref = M_bmc − N·x − A·z (body axes). For a 2D model put it at the quarter chord.',
+        }),
+        z: finite('metres up').meta({
+          label: 'Moment reference above balance centre, z',
+          unit: 'm',
+          details: 'Up is the lift direction at zero angle of attack.',
+        }),
+      })
+      .default({ x: 0, z: 0 }),
+    loading: z
+      .enum(['elliptic', 'uniform'], { error: 'expected "elliptic" or "uniform"' })
+      .default('elliptic')
+      .meta({ label: 'Span loading', help: 'for the computed lift-interference factor δ', form: false }),
+    // ── model fields added by later work go below this line, one entry each ──
+  })
+  .superRefine((m, ctx) => {
+    // the moment reference lies on or near the model: within SETUP_RANGES.moment_ref_offset_chords chords of the balance centre
+    const limit = SETUP_RANGES.moment_ref_offset_chords * m.chord_m;
+    for (const axis of ['x', 'z'] as const) {
+      const v = m.moment_ref_offset_m[axis];
+      if (Math.abs(v) > limit) {
+        ctx.addIssue({
+          code: 'custom',
+          path: ['moment_ref_offset_m', axis],
+          message: `expected within ±${limit.toPrecision(3)} m (${SETUP_RANGES.moment_ref_offset_chords} reference chords of ${m.chord_m} m)`,
+        });
+      }
     }
-  }
-});
+  })
+  .meta({ group: 'Model' });
 
-const tunnelSchema = z.strictObject({
-  name: z.string().optional(),
-  section: z.literal('closed-rectangular', { error: 'expected "closed-rectangular" (the only section supported so far)' }),
-  width_m: geometry('test-section width', 'm'),
-  height_m: geometry('test-section height', 'm'),
-});
+const tunnelSchema = z
+  .strictObject({
+    name: z.string().optional().meta({ label: 'Tunnel name', help: 'for people; not used by the reduction', form: false }),
+    section: z
+      .literal('closed-rectangular', { error: 'expected "closed-rectangular" (the only section supported so far)' })
+      .meta({ label: 'Test section', help: 'the shape and walls of the test section', form: false }),
+    width_m: geometry('test-section width', 'm').meta({ label: 'Test-section width B', unit: 'm', details: 'Along the model span.' }),
+    height_m: geometry('test-section height', 'm').meta({ label: 'Test-section height H', unit: 'm' }),
+    // ── tunnel fields added by later work go below this line, one entry each ──
+  })
+  .meta({ group: 'Tunnel' });
 
-const uncertaintySchema = z.strictObject({
-  dp_pitot_pa: uncertain('Pa', 1e4),
-  p_static_pa: uncertain('Pa', 1e5),
-  t_total_c: uncertain('K or °C difference', 50),
-  rh_pct: uncertain('% RH', 100),
-  force_n: uncertain('N', 1e5),
-  moment_nm: uncertain('N m', 1e5),
-  alpha_deg: uncertain('deg', 10),
-  area_rel: uncertain('relative, e.g. 0.002', 0.5),
-  chord_rel: uncertain('relative, e.g. 0.002', 0.5),
-});
+const balanceSchema = z
+  .strictObject({
+    axes: z.enum(['wind', 'body'], { error: 'expected "wind" (lift/drag columns) or "body" (normal/axial columns)' }).meta({
+      label: 'Balance axes',
+      choices: { wind: 'wind axes (lift, drag)', body: 'body axes (normal, axial)' },
+    }),
+    // ── balance fields added by later work go below this line, one entry each ──
+  })
+  .meta({ group: 'Balance' });
+
+const flowSchema = z
+  .strictObject({
+    gamma: inRange('ratio of specific heats', 1.0001, 2, '').default(1.4).meta({ label: 'Ratio of specific heats γ', unit: '–', form: false }),
+    // ── flow fields added by later work go below this line, one entry each ──
+  })
+  .prefault({})
+  .meta({ group: 'Flow' });
+
+const ambientSchema = z
+  .strictObject({
+    p_pa: inRange('static pressure, Pa', SETUP_RANGES.p_pa[0], SETUP_RANGES.p_pa[1], ' Pa').optional().meta({ label: 'Static pressure p', unit: 'Pa' }),
+    t_c: inRange('°C', -100, 200, ' °C').optional().meta({ label: 'Stagnation temperature T₀', unit: '°C' }),
+    rh_pct: inRange('%', 0, 100, ' %').optional().meta({ label: 'Relative humidity', unit: '%' }),
+  })
+  .prefault({})
+  .meta({ group: 'Ambient (when the run has no column)', details: 'Used for a run file that lacks the `p_static`, `t_total` or `rh` column.' });
+
+const correctionsSchema = z
+  .strictObject({
+    enabled: z
+      .boolean({ error: 'expected true or false' })
+      .default(true)
+      .meta({ label: 'Apply wall corrections', details: "The command line's `--no-corrections` turns them off for one run." }),
+    wake: z
+      .enum(['classic', 'maskell'], { error: 'expected "classic" or "maskell"' })
+      .default('classic')
+      .meta({
+        label: 'Wake blockage',
+        details: "Maskell's separated-flow blockage applies to 3D models.",
+        choices: { classic: 'classic', maskell: 'Maskell' },
+      }),
+    solid_blockage_k: z
+      .number({ error: 'expected a number or null (solid-blockage shape factor)' })
+      .finite()
+      .min(SETUP_RANGES.solid_blockage_k[0], { error: `expected ${SETUP_RANGES.solid_blockage_k[0]} to ${SETUP_RANGES.solid_blockage_k[1]} (solid-blockage shape factor K)` })
+      .max(SETUP_RANGES.solid_blockage_k[1], { error: `expected ${SETUP_RANGES.solid_blockage_k[0]} to ${SETUP_RANGES.solid_blockage_k[1]} (solid-blockage shape factor K)` })
+      .nullable()
+      .optional()
+      .meta({
+        label: 'Solid-blockage shape factor K',
+        unit: '–',
+        help: 'empty: 0.96 (3D) or 0.74 (2D)',
+        defaultText: '0.74 (2D), 0.96 (3D)',
+        formKind: 'auto-number',
+      }),
+    delta: optionalFactor('lift-interference factor δ', SETUP_RANGES.delta).meta({
+      label: 'Lift-interference factor δ',
+      unit: '–',
+      help: 'empty: computed for this tunnel and model',
+      formKind: 'auto-number',
+    }),
+    tau1: optionalFactor('solid-blockage tunnel factor τ1', SETUP_RANGES.tau1).meta({
+      label: 'Solid-blockage tunnel factor τ1',
+      unit: '–',
+      help: 'empty: computed',
+      formKind: 'auto-number',
+    }),
+    tau2: optionalFactor('streamline-curvature factor τ2', SETUP_RANGES.tau2).meta({
+      label: 'Streamline-curvature factor τ2',
+      unit: '–',
+      help: 'empty: computed',
+      formKind: 'auto-number',
+    }),
+    // ── correction fields added by later work go below this line, one entry each ──
+  })
+  .prefault({})
+  .meta({ group: 'Wall corrections', details: 'Methods and the factors computed when a factor is null: docs/methods.md §6 and §7.' });
+
+const uncertaintySchema = z
+  .strictObject({
+    dp_pitot_pa: uncertainty('Pa', 1e4)
+      .optional()
+      .meta({ label: 'Pitot differential pressure', unit: 'Pa', help: 'all empty: no uncertainties, fits unweighted' }),
+    p_static_pa: uncertainty('Pa', 1e5).optional().meta({ label: 'Static pressure', unit: 'Pa' }),
+    t_total_c: uncertainty('K or °C difference', 50).optional().meta({ label: 'Stagnation temperature', unit: 'K' }),
+    rh_pct: uncertainty('% RH', 100).optional().meta({ label: 'Relative humidity', unit: '% RH' }),
+    force_n: uncertainty('N', 1e5).optional().meta({ label: 'Each balance force', unit: 'N' }),
+    moment_nm: uncertainty('N m', 1e5).optional().meta({ label: 'Pitching moment', unit: 'N m' }),
+    alpha_deg: uncertainty('deg', 10).optional().meta({ label: 'Angle of attack', unit: 'deg' }),
+    area_rel: uncertainty('relative, e.g. 0.002', 0.5)
+      .optional()
+      .meta({ label: 'Reference area, relative', unit: '–', help: 'a fraction: 0.002 for 0.2 %' }),
+    chord_rel: uncertainty('relative, e.g. 0.002', 0.5)
+      .optional()
+      .meta({ label: 'Reference chord, relative', unit: '–', help: 'a fraction: 0.002 for 0.2 %' }),
+  })
+  .optional()
+  .meta({
+    group: 'Instrument uncertainties (standard, k = 1; optional)',
+    details:
+      'Standard uncertainties (k = 1) of the instruments. With the block every point carries `u_*` fields and the fits are weighted (docs/methods.md §9); an instrument uncertainty applies to the `ambient` value too when the column is absent.',
+  });
 
 export const setupSchema = z.strictObject({
-  $schema: z.string().optional(),
-  note: z.string().optional(),
+  $schema: z.string().optional().meta({ label: 'JSON Schema', help: 'for editors: the path or address of setup.schema.json; ignored', form: false }),
+  note: z.string().optional().meta({ label: 'Note', help: 'free text; not used by the reduction', form: false }),
   model: modelSchema,
   tunnel: tunnelSchema,
-  balance: z.strictObject({ axes: z.enum(['wind', 'body'], { error: 'expected "wind" (lift/drag columns) or "body" (normal/axial columns)' }) }),
-  flow: z.strictObject({ gamma: finite('ratio of specific heats').min(1.0001).max(2) }).optional(),
-  ambient: z
-    .strictObject({
-      p_pa: positive('static pressure, Pa').min(SETUP_RANGES.p_pa[0], { error: `expected ${SETUP_RANGES.p_pa[0]} to ${SETUP_RANGES.p_pa[1]} Pa (static pressure)` }).max(SETUP_RANGES.p_pa[1], { error: `expected ${SETUP_RANGES.p_pa[0]} to ${SETUP_RANGES.p_pa[1]} Pa (static pressure)` }).optional(),
-      t_c: finite('°C').min(-100).max(200).optional(),
-      rh_pct: finite('%').min(0).max(100).optional(),
-    })
-    .optional(),
-  corrections: z
-    .strictObject({
-      enabled: z.boolean({ error: 'expected true or false' }).optional(),
-      wake: z.enum(['classic', 'maskell'], { error: 'expected "classic" or "maskell"' }).optional(),
-      solid_blockage_k: ranged('solid-blockage shape factor K', SETUP_RANGES.solid_blockage_k),
-      delta: ranged('lift-interference factor δ', SETUP_RANGES.delta),
-      tau1: ranged('solid-blockage tunnel factor τ1', SETUP_RANGES.tau1),
-      tau2: ranged('streamline-curvature factor τ2', SETUP_RANGES.tau2),
-    })
-    .optional(),
-  uncertainty: uncertaintySchema.optional(),
+  balance: balanceSchema,
+  flow: flowSchema,
+  ambient: ambientSchema,
+  corrections: correctionsSchema,
+  uncertainty: uncertaintySchema,
+  // ── blocks added by later work go below this line ──
 });
 
-export type SetupInput = z.infer<typeof setupSchema>;
+/** The setup file as written (every field with a default may be left out). */
+export type SetupInput = z.input<typeof setupSchema>;
+type Parsed = z.output<typeof setupSchema>;
+type Simplify<T> = { [K in keyof T]: T[K] } & {};
 
-/** The setup with defaults filled in; what the engine works from. */
-export interface Setup {
-  note?: string;
-  model: {
-    kind: '2d' | '3d';
-    name?: string;
-    /** Reference area used for coefficients, m² (chord × tunnel width for 2D). */
-    area_m2: number;
-    chord_m: number;
-    /** Model span (3D) or tunnel width (2D), m. */
-    span_m: number;
-    volume_m3: number | null;
-    moment_ref_offset_m: { x: number; z: number };
-    loading: 'elliptic' | 'uniform';
-  };
-  tunnel: { name?: string; section: 'closed-rectangular'; width_m: number; height_m: number };
-  balance: { axes: 'wind' | 'body' };
-  flow: { gamma: number };
-  ambient: { p_pa?: number; t_c?: number; rh_pct?: number };
-  corrections: {
-    enabled: boolean;
-    wake: 'classic' | 'maskell';
-    solid_blockage_k: number;
-    delta: number | null;
-    tau1: number | null;
-    tau2: number | null;
-  };
-  uncertainty: SetupInput['uncertainty'] | null;
-}
+/**
+ * The setup with defaults filled in; what the engine works from. Derived from the schema; only what
+ * depends on other fields is stated here: a 2D model's area and span (chord × tunnel width, tunnel
+ * width), the shape factor K by model kind, and `uncertainty` null when the block is absent.
+ */
+export type Setup = Simplify<
+  Omit<Parsed, '$schema' | 'model' | 'corrections' | 'uncertainty'> & {
+    model: Simplify<Omit<Parsed['model'], 'area_m2' | 'span_m'> & { area_m2: number; span_m: number }>;
+    corrections: Simplify<Omit<Parsed['corrections'], 'solid_blockage_k'> & { solid_blockage_k: number }>;
+    uncertainty: Parsed['uncertainty'] | null;
+  }
+>;
 
-/** Default solid-blockage shape factors: Barlow, Rae & Pope 3rd ed. §9.2 (K1 = 0.74, wing spanning the tunnel) and §10.1 (typical wing/body, 0.96 as in DESIGN §3.2). */
+/** Default solid-blockage shape factors: Barlow, Rae & Pope 3rd ed. §9.2 (K1 = 0.74, wing spanning the tunnel) and §10.1 (typical wing/body, 0.96). */
 export const DEFAULT_SOLID_BLOCKAGE_K = { '2d': 0.74, '3d': 0.96 } as const;
 
 export interface SetupResult {
@@ -171,7 +309,7 @@ export function validateSetup(file: string, json: unknown): SetupResult {
     const issue = parsed.error.issues[0]!;
     throw new InputError({ file, field: fieldPath(issue.path) || '(top level)', message: describeIssue(issue, json) });
   }
-  const s = parsed.data;
+  const { $schema: _editorHint, ...s } = parsed.data;
   const warnings: Notice[] = [];
   const m = s.model;
   let area: number;
@@ -192,33 +330,12 @@ export function validateSetup(file: string, json: unknown): SetupResult {
     area = m.area_m2;
     span = m.span_m;
   }
-  const c = s.corrections ?? {};
   return {
     warnings,
     setup: {
-      note: s.note,
-      model: {
-        kind: m.kind,
-        name: m.name,
-        area_m2: area,
-        chord_m: m.chord_m,
-        span_m: span,
-        volume_m3: m.volume_m3 ?? null,
-        moment_ref_offset_m: m.moment_ref_offset_m ?? { x: 0, z: 0 },
-        loading: m.loading ?? 'elliptic',
-      },
-      tunnel: s.tunnel,
-      balance: s.balance,
-      flow: { gamma: s.flow?.gamma ?? 1.4 },
-      ambient: s.ambient ?? {},
-      corrections: {
-        enabled: c.enabled ?? true,
-        wake: c.wake ?? 'classic',
-        solid_blockage_k: c.solid_blockage_k ?? DEFAULT_SOLID_BLOCKAGE_K[m.kind],
-        delta: c.delta ?? null,
-        tau1: c.tau1 ?? null,
-        tau2: c.tau2 ?? null,
-      },
+      ...s,
+      model: { ...m, area_m2: area, span_m: span },
+      corrections: { ...s.corrections, solid_blockage_k: s.corrections.solid_blockage_k ?? DEFAULT_SOLID_BLOCKAGE_K[m.kind] },
       uncertainty: s.uncertainty ?? null,
     },
   };
@@ -248,7 +365,7 @@ function knownKeys(path: ReadonlyArray<PropertyKey>): string[] {
 
 function unwrap(schema: z.ZodType): z.ZodType {
   let s: z.ZodType = schema;
-  while (s instanceof z.ZodOptional || s instanceof z.ZodNullable) s = s.unwrap() as z.ZodType;
+  while (s instanceof z.ZodOptional || s instanceof z.ZodNullable || s instanceof z.ZodDefault || s instanceof z.ZodPrefault) s = s.unwrap() as z.ZodType;
   return s;
 }
 
@@ -263,7 +380,9 @@ function describeIssue(issue: z.core.$ZodIssue, json: unknown): string {
   // (fuzz finding: "chord_m": "0.2" read as missing); look the value up in the parsed JSON instead
   if (issue.code === 'invalid_type') {
     const found = valueAt(json, issue.path);
-    return found.present ? `${issue.message}, not ${describeValue(found.value)}` : `missing; ${issue.message}`;
+    // a block (model, tunnel, ...) has no message of its own; zod's default reads "Invalid input: expected object, received null"
+    const expected = issue.expected === 'object' ? 'expected an object of fields, { ... }' : issue.message;
+    return found.present ? `${expected}, not ${describeValue(found.value)}` : `missing; ${expected}`;
   }
   return issue.message;
 }
