@@ -76,7 +76,8 @@ export class FileGrants {
     }
     if (s.isDirectory()) return `${abs} is a folder`;
     if (!s.isFile()) return `${abs} is not a regular file`;
-    if (s.ino !== 0 && this.readIdentities.has(`${s.dev}:${s.ino}`)) return `${abs} is another name for a raw run file (or a setup or tare), which is never overwritten`;
+    if (s.ino !== 0 && this.readIdentities.has(`${s.dev}:${s.ino}`))
+      return `${abs} is another name for a raw run file (or a setup or tare), which is never overwritten`;
     return undefined;
   }
 

@@ -64,7 +64,7 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
   };
   const chosen = async (path: string): Promise<ChosenFile> => {
     const g = await deps.grants.grantRead(path);
-    let size = 0;
+    let size: number;
     try {
       size = (await stat(g.path)).size;
     } catch {

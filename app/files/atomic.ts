@@ -110,7 +110,8 @@ export async function writeFileAtomic(path: string, data: string | Uint8Array | 
   try {
     const s = await stat(path);
     // a folder, FIFO or device node is never replaced by a file (renaming over it would)
-    if (!s.isFile()) throw Object.assign(new Error(`${path} is not a regular file; refused, nothing was written`), { code: s.isDirectory() ? 'EISDIR' : 'ENOTREGULAR' });
+    if (!s.isFile())
+      throw Object.assign(new Error(`${path} is not a regular file; refused, nothing was written`), { code: s.isDirectory() ? 'EISDIR' : 'ENOTREGULAR' });
     mode = s.mode & 0o777; // keep the file's permissions across the rename
   } catch (err) {
     if ((err as { code?: string }).code !== 'ENOENT') throw err;

@@ -57,7 +57,20 @@ function hostileFolder() {
   execFileSync('mkfifo', [join(dir, 'fifo.csv')]);
   symlinkSync('/etc/passwd', join(dir, 'link.csv'));
   symlinkSync(join(dir, 'ok.csv'), join(dir, 'inner-link.csv'));
-  const files = ['ok.csv', 'sub/deeper.csv', 'inner-link.csv', '../outside.csv', '/etc/passwd', '/dev/zero', 'fifo.csv', 'link.csv', '\\\\host\\share\\run.csv', 'C:/runs/run.csv', 'sub/../../outside.csv', 'missing.csv'];
+  const files = [
+    'ok.csv',
+    'sub/deeper.csv',
+    'inner-link.csv',
+    '../outside.csv',
+    '/etc/passwd',
+    '/dev/zero',
+    'fifo.csv',
+    'link.csv',
+    '\\\\host\\share\\run.csv',
+    'C:/runs/run.csv',
+    'sub/../../outside.csv',
+    'missing.csv',
+  ];
   const campaign = join(dir, 'c.json');
   writeFileSync(campaign, campaignText(files));
   return { parent, dir, campaign, files };
@@ -71,7 +84,11 @@ describe('campaign paths are confined to the campaign folder', () => {
     const by = Object.fromEntries(opened.runs.map((r) => [r.file, r]));
     for (const ok of ['ok.csv', 'sub/deeper.csv', 'inner-link.csv']) {
       expect(by[ok]!.id, ok).not.toBeNull();
-      expect(by[ok]!.sha256).toBe(createHash('sha256').update(readFileSync(join(f.dir, 'ok.csv'))).digest('hex'));
+      expect(by[ok]!.sha256).toBe(
+        createHash('sha256')
+          .update(readFileSync(join(f.dir, 'ok.csv')))
+          .digest('hex'),
+      );
     }
     expect(by['../outside.csv']!.refused).toMatch(/leaves the campaign folder/);
     expect(by['sub/../../outside.csv']!.refused).toMatch(/leaves the campaign folder/);

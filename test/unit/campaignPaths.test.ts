@@ -27,7 +27,17 @@ describe('campaign paths (relative, inside the campaign folder)', () => {
   });
 
   it('lists every run and tare file once, in order of first mention', () => {
-    const c = { ...emptyCampaign(), runs: [{ file: 'b.csv', sha256: null, setup: 's', tare: 't.csv' }, { file: 'a.csv', sha256: null, setup: 's', tare: 't.csv' }], tares: [{ file: 't.csv', sha256: null }, { file: 'u.csv', sha256: null }] };
+    const c = {
+      ...emptyCampaign(),
+      runs: [
+        { file: 'b.csv', sha256: null, setup: 's', tare: 't.csv' },
+        { file: 'a.csv', sha256: null, setup: 's', tare: 't.csv' },
+      ],
+      tares: [
+        { file: 't.csv', sha256: null },
+        { file: 'u.csv', sha256: null },
+      ],
+    };
     expect(campaignFiles(c)).toEqual(['b.csv', 'a.csv', 't.csv', 'u.csv']);
   });
 });
@@ -39,7 +49,12 @@ describe('campaign size limits', () => {
   });
 
   it('refuses a campaign naming more files than the limit', () => {
-    const c = { ...emptyCampaign(), setups: {}, runs: [], tares: Array.from({ length: CAMPAIGN_MAX_FILES + 1 }, (_, i) => ({ file: `t${i}.csv`, sha256: null })) };
+    const c = {
+      ...emptyCampaign(),
+      setups: {},
+      runs: [],
+      tares: Array.from({ length: CAMPAIGN_MAX_FILES + 1 }, (_, i) => ({ file: `t${i}.csv`, sha256: null })),
+    };
     expect(() => parseCampaign('many.json', JSON.stringify(c))).toThrow(/at most 100000/);
   });
 });

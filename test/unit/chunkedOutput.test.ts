@@ -34,7 +34,10 @@ describe('documents written in pieces (a million-point result is too long for on
   it('the CSV in pieces equals the table written whole', async () => {
     const result = await sampleResult();
     const many = { ...result, points: Array.from({ length: 5000 }, (_, i) => result.points[i % result.points.length]!) };
-    const whole = toCsv(POINT_COLUMNS as string[], many.points.map((p) => POINT_COLUMNS.map((k) => p[k] as Cell)));
+    const whole = toCsv(
+      POINT_COLUMNS as string[],
+      many.points.map((p) => POINT_COLUMNS.map((k) => p[k] as Cell)),
+    );
     expect([...pointsCsvChunks(many)].join('')).toBe(whole);
     expect(pointsCsv(many)).toBe(whole);
     expect([...pointsCsvChunks(many)].length).toBeGreaterThan(2);
