@@ -1,16 +1,19 @@
 /**
  * Command line (docs/data-format.md §7):
  *   sweepbook reduce RUN.csv --setup SETUP.json [--tare WINDOFF.csv] [--format json|csv] [--out FILE] [--no-corrections]
+ *   sweepbook reduce RUN1 RUN2 … --setup SETUP.json [--tare T] --out-dir DIR   (batch: app/cli/batch.ts)
+ *   sweepbook columns RUN [--out MAP.json]                                     (app/cli/columns.ts)
+ * Run files may be CSV, whitespace-aligned text or .xlsx (first sheet); `--columns MAP.json` assigns
+ * the columns of a facility's own layout.
  * Standard output carries only the document; messages go to standard error. Exit 0 on success,
  * 1 on input that cannot be reduced, 2 on a wrong command line, 3 on an internal error (§7.1).
  */
-import { createHash, type Hash } from 'node:crypto';
-import { createReadStream } from 'node:fs';
+import { createHash } from 'node:crypto';
 import { basename, dirname, resolve } from 'node:path';
 import { readFile, stat } from 'node:fs/promises';
 import { parseArgs } from 'node:util';
-import { pointsCsvChunks, readRun, readSetup, reduceRun, SETUP_MAX_BYTES, setupTooLarge } from '../../core/index.ts';
-import { attempt, formatNotice, InputError, type Notice } from '../../core/index.ts';
+import { parseColumnMap, pointsCsvChunks, readerMapping, readRun, readSetup, reduceRun, SETUP_MAX_BYTES, setupTooLarge, type ColumnMapping } from '../../core/index.ts';
+import { attempt, formatNotice, type Notice } from '../../core/index.ts';
 import { projectStallSpeed } from '../../core/index.ts';
 import { provenanceOf, reductionTime, type InputFile, type Provenance } from '../../core/index.ts';
 import type { ReductionResult } from '../../core/index.ts';
@@ -18,11 +21,16 @@ import { writeFileAtomic } from '../files/atomic.ts';
 import { chunkDecoder } from '../files/textDecoding.ts';
 import { jsonChunks, writeChunks } from './output.ts';
 import { VERSION } from '../version.ts';
+import { batchReduce } from './batch.ts';
+import { columnsCommand } from './columns.ts';
+import { describeFsError, runText } from './runSource.ts';
 
 const USAGE = `usage:
-  sweepbook reduce RUN.csv --setup SETUP.json [--tare WINDOFF.csv] [--format json|csv] [--out FILE] [--no-corrections]
+  sweepbook reduce RUN.csv --setup SETUP.json [--tare WINDOFF.csv] [--columns MAP.json] [--format json|csv] [--out FILE] [--no-corrections]
+  sweepbook reduce RUN1 RUN2 ... --setup SETUP.json [--tare WINDOFF.csv] [--columns MAP.json] --out-dir DIR [--no-corrections]
+  sweepbook columns RUN [--out MAP.json]
   sweepbook project RUN.csv --setup SETUP.json --mass-kg M --wing-area-m2 S [--pressure-altitude-m H]
-                    [--temp-c T | --isa-deviation-c D] [--rh-pct RH] [--cl-max X] [--lift-off-factor F] [--tare WINDOFF.csv]
+                    [--temp-c T | --isa-deviation-c D] [--rh-pct RH] [--cl-max X] [--lift-off-factor F] [--tare WINDOFF.csv] [--columns MAP.json]
   sweepbook --version`;
 
 class UsageError extends Error {}
@@ -41,6 +49,11 @@ export async function main(argv: string[], io = { stdout: process.stdout, stderr
     }
     if (command === 'reduce') return await reduceCommand(rest, io, say);
     if (command === 'project') return await projectCommand(rest, io, say);
+    if (command === 'columns') {
+      return await columnsCommand(rest, io, say, (m) => {
+        throw new UsageError(m);
+      });
+    }
     throw new UsageError(`unknown command "${command}"`);
   } catch (err) {
     if (err instanceof UsageError || (err as { code?: string }).code?.startsWith('ERR_PARSE_ARGS')) {
@@ -63,15 +76,22 @@ async function reduceCommand(args: string[], io: { stdout: NodeJS.WritableStream
       format: { type: 'string', default: 'json' },
       out: { type: 'string' },
       'no-corrections': { type: 'boolean', default: false },
+      columns: { type: 'string' },
+      'out-dir': { type: 'string' },
     },
   });
-  if (positionals.length !== 1) throw new UsageError(positionals.length === 0 ? 'reduce needs one run file' : `reduce takes one run file, got ${positionals.length}`);
+  if (positionals.length === 0) throw new UsageError('reduce needs one run file');
   if (!values.setup) throw new UsageError('reduce needs --setup SETUP.json');
+  if (positionals.length > 1 || values['out-dir'] !== undefined) {
+    if (values['out-dir'] === undefined) throw new UsageError(`reduce takes one run file, got ${positionals.length}; give --out-dir DIR to reduce several`);
+    if (values.out !== undefined) throw new UsageError('--out names one file; with several runs give --out-dir DIR');
+    return await batchReduce({ runs: positionals, setup: values.setup, tare: values.tare, columns: values.columns, outDir: values['out-dir'], noCorrections: values['no-corrections'] }, say);
+  }
   const format = values.format;
   if (format !== 'json' && format !== 'csv') throw new UsageError(`--format must be json or csv, not "${format}"`);
-  // Raw files are never written (DESIGN §5): `--out RUN.csv` would have replaced the run with its own table.
+  // Raw files are never written: `--out RUN.csv` would have replaced the run with its own table.
   if (values.out) {
-    for (const input of [positionals[0]!, values.setup, values.tare]) {
+    for (const input of [positionals[0]!, values.setup, values.tare, values.columns]) {
       if (input !== undefined && (await sameFile(values.out, input))) {
         throw new UsageError(`--out ${values.out} is one of the input files; raw run and setup files are never overwritten, choose another name`);
       }
@@ -79,7 +99,7 @@ async function reduceCommand(args: string[], io: { stdout: NodeJS.WritableStream
   }
   const refused = values.out ? await outTargetProblem(values.out) : undefined;
   if (refused) return failWith(say, [refused]);
-  const loaded = await loadAndReduce(positionals[0]!, values.setup, values.tare, values['no-corrections'], say);
+  const loaded = await loadAndReduce(positionals[0]!, values.setup, values.tare, values['no-corrections'], say, values.columns);
   if (typeof loaded === 'number') return loaded;
   const { result, provenance } = loaded;
   for (const w of result.warnings) say(`warning: ${w}`);
@@ -107,15 +127,27 @@ async function loadAndReduce(
   tarePath: string | undefined,
   noCorrections: boolean,
   say: (l: string) => void,
+  columnsPath?: string,
 ): Promise<{ result: ReductionResult; provenance: Provenance } | number> {
   const setupText = await readText(setupPath);
   if (typeof setupText !== 'string') return failWith(say, [setupText]);
   const setup = readSetup(setupPath, setupText);
   if (!setup.ok) return failWith(say, setup.errors);
   const inputs: InputFile[] = [{ role: 'setup', name: basename(setupPath), sha256: createHash('sha256').update(setupText).digest('hex') }];
+  // a column map: the run must have every column it names; the tare takes the entries it has
+  let mapping: ColumnMapping | undefined;
+  if (columnsPath !== undefined) {
+    const mapText = await readText(columnsPath, (n) => `a column map is at most 1.0 MiB, this one is ${(n / (1 << 20)).toFixed(1)} MiB; is it the right file?`);
+    if (typeof mapText !== 'string') return failWith(say, [mapText]);
+    const map = attempt(() => parseColumnMap(columnsPath, mapText));
+    if (!map.ok) return failWith(say, map.errors);
+    mapping = readerMapping(map.value, columnsPath);
+    inputs.push({ role: 'columns', name: basename(columnsPath), sha256: createHash('sha256').update(mapText).digest('hex') });
+  }
+  const grouping = { alphaTolRad: ((setup.value.setup.grouping?.alpha_tol_deg ?? 0.2) * Math.PI) / 180 };
   const read = async (path: string, role: 'run' | 'tare') => {
     const hash = createHash('sha256');
-    const r = await readRun(path, textStream(path, hash));
+    const r = await readRun(path, runText(path, hash), mapping && role === 'tare' ? { ...mapping, partial: true } : mapping, grouping);
     if (r.ok) inputs.push({ role, name: basename(path), sha256: hash.digest('hex') });
     return r;
   };
@@ -149,6 +181,7 @@ async function projectCommand(args: string[], io: { stdout: NodeJS.WritableStrea
       'rh-pct': { type: 'string' },
       'cl-max': { type: 'string' },
       'lift-off-factor': { type: 'string' },
+      columns: { type: 'string' },
     },
   });
   if (positionals.length !== 1) throw new UsageError('project needs one run file');
@@ -163,7 +196,7 @@ async function projectCommand(args: string[], io: { stdout: NodeJS.WritableStrea
     if (v.trim() === '' || !Number.isFinite(x)) throw new UsageError(`--${name} must be a number, not "${v}"`);
     return x;
   };
-  const loaded = await loadAndReduce(positionals[0]!, values.setup, values.tare, false, say);
+  const loaded = await loadAndReduce(positionals[0]!, values.setup, values.tare, false, say, values.columns);
   if (typeof loaded === 'number') return loaded;
   const { result, provenance } = loaded;
   const given = num('cl-max');
@@ -198,26 +231,6 @@ async function projectCommand(args: string[], io: { stdout: NodeJS.WritableStrea
   return 0;
 }
 
-/**
- * A file's text as a stream of chunks, opened read-only; the bytes also feed `hash` when given, so the
- * SHA-256 for the provenance costs no second read. A missing file surfaces as an error naming it.
- */
-async function* textStream(path: string, hash?: Hash): AsyncGenerator<string> {
-  const stream = createReadStream(path, { flags: 'r', highWaterMark: 1 << 20 });
-  const decoder = chunkDecoder(); // UTF-8, or UTF-16 after its byte-order mark
-  try {
-    for await (const chunk of stream) {
-      hash?.update(chunk as Buffer);
-      const text = decoder.write(chunk as Buffer);
-      if (text.length > 0) yield text;
-    }
-    const rest = decoder.end();
-    if (rest.length > 0) yield rest;
-  } catch (err) {
-    throw fileError(path, err);
-  }
-}
-
 /** Same file: the same path, or another name (hard or symbolic link) for the same file. */
 async function sameFile(a: string, b: string): Promise<boolean> {
   if (resolve(a) === resolve(b)) return true;
@@ -229,31 +242,16 @@ async function sameFile(a: string, b: string): Promise<boolean> {
   }
 }
 
-async function readText(path: string): Promise<string | Notice> {
+/** A small file (setup, column map) as text; one far larger than any such file is refused unread. */
+async function readText(path: string, tooLarge: (bytes: number) => string = setupTooLarge): Promise<string | Notice> {
   try {
     const size = (await stat(path)).size;
-    if (size > SETUP_MAX_BYTES) return { file: path, field: '(file size)', message: setupTooLarge(size) };
+    if (size > SETUP_MAX_BYTES) return { file: path, field: '(file size)', message: tooLarge(size) };
     const decoder = chunkDecoder(); // UTF-8, or UTF-16 after its byte-order mark
     return decoder.write(await readFile(path)) + decoder.end();
   } catch (err) {
     return { file: path, message: describeFsError(err) };
   }
-}
-
-function describeFsError(err: unknown): string {
-  const code = (err as { code?: string }).code;
-  if (code === 'ENOENT') return 'no such file';
-  if (code === 'EISDIR') return 'is a folder, not a file';
-  if (code === 'EACCES' || code === 'EPERM') return 'permission denied';
-  if (code === 'ENOTREGULAR') return 'not a regular file (a pipe, socket or device)';
-  if (code === 'EROFS') return 'read-only file system';
-  if (code === 'ENOSPC') return 'no space left on the disk';
-  if (code === 'ENOTDIR') return 'a part of the path is not a folder';
-  return (err as Error).message;
-}
-
-function fileError(path: string, err: unknown): InputError {
-  return new InputError({ file: path, message: describeFsError(err) });
 }
 
 // --- where --out may write ------------------------------------------------------------------------

@@ -4,7 +4,7 @@
  */
 import { attempt, InputError, type Outcome } from '../contract/messages.ts';
 import { reduce, reduceBases, type ReductionResult, type PointResult } from './pipeline.ts';
-import { RunFileReader, type ColumnMapping, type RunData } from '../formats/runFile.ts';
+import { RunFileReader, type ColumnMapping, type GroupingOptions, type RunData } from '../formats/runFile.ts';
 import { parseSetup, type SetupResult } from '../setup/schema.ts';
 import { commentLine, csvCell, csvLine, type Cell } from '../formats/csvWriter.ts';
 import { provenanceLines, type Provenance } from '../formats/provenance.ts';
@@ -15,8 +15,8 @@ export type { ReductionResult, PointResult } from './pipeline.ts';
 /** A source of text chunks: a Node stream with utf8 encoding, a browser file's text stream, or an array. */
 export type TextSource = AsyncIterable<string> | Iterable<string>;
 
-export async function readRun(file: string, source: TextSource, mapping?: ColumnMapping): Promise<Outcome<RunData>> {
-  const reader = new RunFileReader(file, { mapping });
+export async function readRun(file: string, source: TextSource, mapping?: ColumnMapping, grouping?: GroupingOptions): Promise<Outcome<RunData>> {
+  const reader = new RunFileReader(file, { mapping, grouping });
   return attemptAsync(async () => {
     for await (const chunk of source as AsyncIterable<string>) reader.push(chunk);
     return reader.finish();
@@ -88,8 +88,11 @@ const ROWS_PER_CHUNK = 2048;
  */
 export function* pointsCsvChunks(result: ReductionResult, provenance?: Provenance): Generator<string> {
   // comment lines (not CSV cells), skipped by `comment='#'` readers such as pandas and our own reader,
-  // escaped with the cells' formula rule for spreadsheets that split them at commas
-  if (provenance) yield provenanceLines(provenance).map(commentLine).join('\n') + '\n';
+  // escaped with the cells' formula rule for spreadsheets that split them at commas; the run's name and
+  // configuration first, as `# key: value` metadata a run-file reader takes back
+  const meta = [`run: ${result.run.name}`, ...(result.run.configuration !== null ? [`configuration: ${result.run.configuration}`] : [])];
+  const lines = provenance ? meta.concat(provenanceLines(provenance)) : meta;
+  yield lines.map(commentLine).join('\n') + '\n';
   yield csvLine(POINT_COLUMNS as string[]) + '\n';
   const points = result.points;
   for (let start = 0; start < points.length; start += ROWS_PER_CHUNK) {

@@ -159,6 +159,14 @@ const flowSchema = z
   .strictObject({
     gamma: inRange('ratio of specific heats', 1.0001, 2, '').default(1.4).meta({ label: 'Ratio of specific heats γ', unit: '–', form: false }),
     // ── flow fields added by later work go below this line, one entry each ──
+    contraction_factor: positive('q per unit contraction pressure drop, from the facility calibration')
+      .optional()
+      .meta({
+        label: 'Contraction factor',
+        unit: '–',
+        help: 'q = factor × dp_contraction; needed when the run logs the contraction pressure drop',
+        details: 'The facility calibration of dynamic pressure against the settling-chamber to test-section pressure drop; required when `dp_contraction` is the pressure source.',
+      }),
   })
   .prefault({})
   .meta({ group: 'Flow' });
@@ -259,6 +267,20 @@ export const setupSchema = z.strictObject({
   corrections: correctionsSchema,
   uncertainty: uncertaintySchema,
   // ── blocks added by later work go below this line ──
+  grouping: z
+    .strictObject({
+      alpha_tol_deg: positive('degrees')
+        .max(5, { error: 'expected at most 5° (samples of one point stay within a fraction of a degree)' })
+        .default(0.2)
+        .meta({
+          label: 'Grouping tolerance in α',
+          unit: 'deg',
+          help: 'rows without a point column within this of the group’s first row form one point',
+          details: 'Consecutive rows whose α stays within this of the first row of the group (and whose wind state is the same) are samples of one point. Encoders jitter by about 0.1°; a sweep with finer steps sets it lower.',
+        }),
+    })
+    .prefault({})
+    .meta({ group: 'Grouping of samples' }),
 });
 
 /** The setup file as written (every field with a default may be left out). */

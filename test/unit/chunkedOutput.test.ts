@@ -31,15 +31,21 @@ describe('documents written in pieces (a million-point result is too long for on
     expect(chunks.join('')).toBe(JSON.stringify(many, null, 2) + '\n');
   });
 
-  it('the CSV in pieces equals the table written whole', async () => {
+  it('the CSV in pieces equals the table written whole, below the same # lines', async () => {
     const result = await sampleResult();
     const many = { ...result, points: Array.from({ length: 5000 }, (_, i) => result.points[i % result.points.length]!) };
     const whole = toCsv(
       POINT_COLUMNS as string[],
       many.points.map((p) => POINT_COLUMNS.map((k) => p[k] as Cell)),
     );
-    expect([...pointsCsvChunks(many)].join('')).toBe(whole);
-    expect(pointsCsv(many)).toBe(whole);
+    const text = [...pointsCsvChunks(many)].join('');
+    const body = text
+      .split('\n')
+      .filter((l) => !l.startsWith('# '))
+      .join('\n');
+    expect(body).toBe(whole);
+    expect(text.startsWith(`# run: ${result.run.name}\n`)).toBe(true);
+    expect(pointsCsv(many)).toBe(text);
     expect([...pointsCsvChunks(many)].length).toBeGreaterThan(2);
   });
 });

@@ -23,7 +23,7 @@ describe('the stage list', () => {
 
   it('runs in the documented order, the per-basis stages last', () => {
     expect(STAGES.map((s) => s.name)).toEqual([
-      'required columns', 'points', 'readings check', 'tares', 'axes and moment transfer', 'flow angle', 'flow state', 'coefficients',
+      'required columns', 'wind-off points and zero readings', 'points', 'readings check', 'tares', 'axes and moment transfer', 'flow angle', 'flow state', 'coefficients',
       'wall corrections', 'uncertainty', 'fits',
     ]);
     const { shared, perBasis } = splitStages(STAGES);
