@@ -61,6 +61,18 @@ describe('reduce --out: where the command line writes', () => {
   });
 });
 
+describe('reduce of several runs (--out-dir)', () => {
+  it('refuses an output folder where a table would replace one of the run files, and writes nothing', async () => {
+    const d = dir();
+    const run = join(d, 'run-201.csv');
+    writeFileSync(run, readFileSync(RUN));
+    const r = await runCli('reduce', run, '--setup', SETUP, '--out-dir', d);
+    expect(r.code).toBe(1);
+    expect(r.stderr).toContain('would overwrite the input');
+    expect(readFileSync(run, 'utf8')).toBe(readFileSync(RUN, 'utf8'));
+  });
+});
+
 describe('reduce: sizes and names of inputs', () => {
   it('refuses a setup file far larger than any setup, with a message naming it, and reads none of it into the output', async () => {
     const big = join(dir(), 'setup-big.json');
