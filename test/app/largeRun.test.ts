@@ -16,10 +16,11 @@ const ROOT = resolve(__dirname, '../..');
 const POINTS = 150_000;
 
 function sweep(n: number): string {
-  const lines = ['alpha,dp_pitot,lift,drag'];
+  // a point column: rows this close in alpha would otherwise be grouped into a few points
+  const lines = ['point,alpha,dp_pitot,lift,drag'];
   for (let i = 0; i < n; i++) {
     const a = -4 + (14 * i) / n;
-    lines.push(`${a.toFixed(6)},500,${(500 * 0.2025 * 0.08 * (a + 2)).toFixed(4)},${(500 * 0.2025 * 0.01).toFixed(4)}`);
+    lines.push(`${i + 1},${a.toFixed(6)},500,${(500 * 0.2025 * 0.08 * (a + 2)).toFixed(4)},${(500 * 0.2025 * 0.01).toFixed(4)}`);
   }
   return lines.join('\n') + '\n';
 }
