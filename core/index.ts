@@ -10,6 +10,7 @@ export * from './formats/campaign.ts';
 export * from './formats/channels.ts';
 export * from './formats/columnMap.ts';
 export * from './formats/csvWriter.ts';
+export * from './formats/limits.ts';
 export * from './formats/provenance.ts';
 export * from './formats/runFile.ts';
 export * from './formats/sheet.ts';

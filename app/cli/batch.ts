@@ -6,9 +6,9 @@
  */
 import { spawn } from 'node:child_process';
 import { existsSync } from 'node:fs';
-import { mkdir, readFile } from 'node:fs/promises';
+import { mkdir, readFile, stat } from 'node:fs/promises';
 import { availableParallelism } from 'node:os';
-import { basename, dirname, join } from 'node:path';
+import { basename, dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import writeXlsxFile from 'write-excel-file/node';
 import { escapeFormula, pointsCsv, POINT_COLUMNS, toCsv, type Cell, type Provenance, type ReductionResult } from '../../core/index.ts';
@@ -72,9 +72,14 @@ function reduceInChild(script: string, o: BatchOptions, run: string, out: string
 const FIT_HEAD = ['cl_alpha_per_deg', 'cl_alpha_stderr_per_deg', 'alpha_zero_lift_deg', 'cl_max', 'alpha_cl_max_deg', 'cd0', 'k_induced', 'oswald_e', 'ld_max', 'cl_at_ld_max', 'cm_alpha_per_deg'] as const;
 
 export async function batchReduce(o: BatchOptions, say: (l: string) => void): Promise<number> {
+  const stems = outputStems(o.runs);
+  const clash = await overwrittenInput(o, stems);
+  if (clash) {
+    say(`error: ${clash.output}: would overwrite the input ${clash.input}; raw run, setup and tare files are never overwritten, choose another --out-dir`);
+    return 1;
+  }
   await mkdir(o.outDir, { recursive: true });
   const script = commandScript();
-  const stems = outputStems(o.runs);
   const workers = Math.max(1, Math.min(availableParallelism(), o.runs.length));
   say(`reducing ${o.runs.length} runs, ${workers} at a time`);
   const outcomes: Outcome[] = new Array(o.runs.length);
@@ -130,4 +135,28 @@ async function workbook(name: string, head: string[], rows: Cell[][]): Promise<B
   const cell = (c: Cell) => (c === null || c === undefined || (typeof c === 'number' && !Number.isFinite(c)) ? null : { value: typeof c === 'string' ? escapeFormula(c) : c });
   const data = [head.map((h) => ({ value: h, fontWeight: 'bold' as const })), ...rows.map((r) => r.map(cell))];
   return (await writeXlsxFile(data as never, { sheet: name }).toBuffer()) as Buffer;
+}
+
+// --- raw files are never written ---------------------------------------------------------------
+// An --out-dir that holds the runs would otherwise replace run-101.csv with its own table.
+
+/** The first output of the batch that is one of its input files (same path, or a link to it). */
+async function overwrittenInput(o: BatchOptions, stems: readonly string[]): Promise<{ output: string; input: string } | undefined> {
+  const inputs = [...o.runs, o.setup, o.tare, o.columns].filter((p): p is string => !!p);
+  const byPath = new Map(inputs.map((p) => [resolve(p), p] as const));
+  const byIdentity = new Map<string, string>();
+  for (const p of inputs) {
+    const s = await stat(p).catch(() => undefined);
+    if (s && s.ino !== 0) byIdentity.set(`${s.dev}:${s.ino}`, p);
+  }
+  const names = [...stems.flatMap((s) => [`${s}.json`, `${s}.csv`]), 'points.csv', 'fits.csv', 'points.xlsx', 'fits.xlsx'];
+  for (const name of names) {
+    const output = join(o.outDir, name);
+    const same = byPath.get(resolve(output));
+    if (same) return { output, input: same };
+    const s = await stat(output).catch(() => undefined);
+    const linked = s && s.ino !== 0 ? byIdentity.get(`${s.dev}:${s.ino}`) : undefined;
+    if (linked) return { output, input: linked };
+  }
+  return undefined;
 }

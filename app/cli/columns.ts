@@ -33,9 +33,10 @@ export async function columnsCommand(args: string[], io: { stdout: NodeJS.Writab
     return [String(g.cell.column), g.cell.text, unit, ch ?? '—', ch ? (g.score >= 0.85 ? 'sure' : 'likely') : '', sketch.example[g.cell.column - 1] ?? ''];
   });
   const head = ['col', 'header as written', 'unit', 'channel', 'guess', 'first value'];
-  const widths = head.map((h, i) => Math.min(40, Math.max(h.length, ...rows.map((r) => r[i]!.length))));
+  const widths = head.map((h, i) => Math.min(40, rows.reduce((w, r) => Math.max(w, r[i]!.length), h.length)));
   const line = (cells: string[]) => cells.map((c, i) => (i === 0 ? c.padStart(widths[i]!) : c.padEnd(widths[i]!))).join('  ').trimEnd();
-  out.push(line(head), line(widths.map((w) => '-'.repeat(w))), ...rows.map(line));
+  out.push(line(head), line(widths.map((w) => '-'.repeat(w))));
+  for (const r of rows) out.push(line(r));
   const missing = (['alpha'] as Channel[]).filter((c) => !guesses.some((g) => g.channel === c));
   if (!guesses.some((g) => g.channel === 'q' || g.channel === 'dp_pitot' || g.channel === 'dp_contraction')) missing.push('dp_pitot');
   if (missing.length > 0) out.push(`not found: ${missing.join(', ')} (assign them in the map)`);

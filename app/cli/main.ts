@@ -9,15 +9,17 @@
  * 1 on input that cannot be reduced, 2 on a wrong command line, 3 on an internal error (§7.1).
  */
 import { createHash } from 'node:crypto';
-import { basename, resolve } from 'node:path';
+import { basename, dirname, resolve } from 'node:path';
 import { readFile, stat } from 'node:fs/promises';
 import { parseArgs } from 'node:util';
-import { parseColumnMap, pointsCsv, readerMapping, readRun, readSetup, reduceRun, type ColumnMapping } from '../../core/index.ts';
+import { parseColumnMap, pointsCsvChunks, readerMapping, readRun, readSetup, reduceRun, SETUP_MAX_BYTES, setupTooLarge, type ColumnMapping } from '../../core/index.ts';
 import { attempt, formatNotice, type Notice } from '../../core/index.ts';
 import { projectStallSpeed } from '../../core/index.ts';
 import { provenanceOf, reductionTime, type InputFile, type Provenance } from '../../core/index.ts';
 import type { ReductionResult } from '../../core/index.ts';
 import { writeFileAtomic } from '../files/atomic.ts';
+import { chunkDecoder } from '../files/textDecoding.ts';
+import { jsonChunks, writeChunks } from './output.ts';
 import { VERSION } from '../version.ts';
 import { batchReduce } from './batch.ts';
 import { columnsCommand } from './columns.ts';
@@ -95,16 +97,20 @@ async function reduceCommand(args: string[], io: { stdout: NodeJS.WritableStream
       }
     }
   }
+  const refused = values.out ? await outTargetProblem(values.out) : undefined;
+  if (refused) return failWith(say, [refused]);
   const loaded = await loadAndReduce(positionals[0]!, values.setup, values.tare, values['no-corrections'], say, values.columns);
   if (typeof loaded === 'number') return loaded;
   const { result, provenance } = loaded;
   for (const w of result.warnings) say(`warning: ${w}`);
-  const text = format === 'json' ? JSON.stringify({ ...result, provenance }, null, 2) + '\n' : pointsCsv(result, provenance);
+  // written in pieces: a million-point document is too long for one string
+  const chunks = () => (format === 'json' ? jsonChunks({ ...result, provenance }) : pointsCsvChunks(result, provenance));
   if (values.out) {
-    await writeFileAtomic(values.out, text);
+    const failed = await writeOut(values.out, chunks());
+    if (failed) return failWith(say, [failed]);
     say(`wrote ${values.out}`);
   } else {
-    io.stdout.write(text);
+    await writeChunks(io.stdout, chunks());
   }
   return 0;
 }
@@ -131,7 +137,7 @@ async function loadAndReduce(
   // a column map: the run must have every column it names; the tare takes the entries it has
   let mapping: ColumnMapping | undefined;
   if (columnsPath !== undefined) {
-    const mapText = await readText(columnsPath);
+    const mapText = await readText(columnsPath, (n) => `a column map is at most 1.0 MiB, this one is ${(n / (1 << 20)).toFixed(1)} MiB; is it the right file?`);
     if (typeof mapText !== 'string') return failWith(say, [mapText]);
     const map = attempt(() => parseColumnMap(columnsPath, mapText));
     if (!map.ok) return failWith(say, map.errors);
@@ -248,10 +254,50 @@ async function sameFile(a: string, b: string): Promise<boolean> {
   }
 }
 
-async function readText(path: string): Promise<string | Notice> {
+/** A small file (setup, column map) as text; one far larger than any such file is refused unread. */
+async function readText(path: string, tooLarge: (bytes: number) => string = setupTooLarge): Promise<string | Notice> {
   try {
-    return await readFile(path, 'utf8');
+    const size = (await stat(path)).size;
+    if (size > SETUP_MAX_BYTES) return { file: path, field: '(file size)', message: tooLarge(size) };
+    const decoder = chunkDecoder(); // UTF-8, or UTF-16 after its byte-order mark
+    return decoder.write(await readFile(path)) + decoder.end();
   } catch (err) {
     return { file: path, message: describeFsError(err) };
+  }
+}
+
+// --- where --out may write ------------------------------------------------------------------------
+// Only a regular file or a new name in an existing folder: a folder, a FIFO or a device node is
+// refused before anything is reduced, and a write that fails names the path the user gave.
+
+/** Why `--out path` cannot be written, or undefined when it can be tried. */
+async function outTargetProblem(path: string): Promise<Notice | undefined> {
+  try {
+    const s = await stat(path);
+    if (s.isDirectory()) return { file: path, message: '--out names a folder; give a file name inside it' };
+    if (!s.isFile()) return { file: path, message: '--out is not a regular file (a pipe, socket or device); refused, nothing was written' };
+    return undefined;
+  } catch (err) {
+    if ((err as { code?: string }).code !== 'ENOENT') return { file: path, message: `cannot write --out: ${describeFsError(err)}` };
+  }
+  try {
+    if (!(await stat(dirname(resolve(path)))).isDirectory()) return { file: path, message: `cannot write --out: ${dirname(path)} is not a folder` };
+  } catch {
+    return { file: path, message: `cannot write --out: the folder ${dirname(path)} does not exist` };
+  }
+  return undefined;
+}
+
+/** Write the output atomically; a failure becomes a message naming the user's path, not the temp file. */
+async function writeOut(path: string, text: Iterable<string>): Promise<Notice | undefined> {
+  try {
+    await writeFileAtomic(path, text);
+    return undefined;
+  } catch (err) {
+    const code = (err as { code?: string }).code;
+    const known = describeFsError(err);
+    // an unknown error's message names the hidden temp file; the user gave `path`
+    const why = known === (err as Error).message ? `write failed${code ? ` (${code})` : ''}` : known;
+    return { file: path, message: `cannot write --out: ${why}; nothing was written` };
   }
 }

@@ -6,9 +6,9 @@
 import type { Hash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
 import { readFile } from 'node:fs/promises';
-import { StringDecoder } from 'node:string_decoder';
 import { readSheet } from 'read-excel-file/node';
 import { InputError, isWorkbookName, sheetRowsToCsv, type SheetCell } from '../../core/index.ts';
+import { chunkDecoder } from '../files/textDecoding.ts';
 
 /** The file's text in chunks; the bytes also feed `hash` when given. Errors name the file. */
 export async function* runText(path: string, hash?: Hash): AsyncGenerator<string> {
@@ -36,10 +36,10 @@ export async function workbookText(path: string, hash?: Hash): Promise<string> {
   }
 }
 
-/** A text file's chunks, opened read-only and decoded as UTF-8 across chunk boundaries. */
+/** A text file's chunks, opened read-only and decoded across chunk boundaries as UTF-8, or UTF-16 after its byte-order mark. */
 export async function* textStream(path: string, hash?: Hash): AsyncGenerator<string> {
   const stream = createReadStream(path, { flags: 'r', highWaterMark: 1 << 20 });
-  const decoder = new StringDecoder('utf8');
+  const decoder = chunkDecoder();
   try {
     for await (const chunk of stream) {
       hash?.update(chunk as Buffer);
@@ -67,6 +67,10 @@ export function describeFsError(err: unknown): string {
   const code = (err as { code?: string }).code;
   if (code === 'ENOENT') return 'no such file';
   if (code === 'EISDIR') return 'is a folder, not a file';
-  if (code === 'EACCES') return 'permission denied';
+  if (code === 'EACCES' || code === 'EPERM') return 'permission denied';
+  if (code === 'ENOTREGULAR') return 'not a regular file (a pipe, socket or device)';
+  if (code === 'EROFS') return 'read-only file system';
+  if (code === 'ENOSPC') return 'no space left on the disk';
+  if (code === 'ENOTDIR') return 'a part of the path is not a folder';
   return (err as Error).message;
 }

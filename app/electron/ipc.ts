@@ -2,16 +2,25 @@
  * IPC handlers of the main process: every argument validated, every sender checked to be the app's
  * own page, every file access limited to paths the user chose (FileGrants).
  */
-import { readFile, stat } from 'node:fs/promises';
-import { dirname, extname, join, resolve } from 'node:path';
+import { stat } from 'node:fs/promises';
+import { randomUUID } from 'node:crypto';
+import { extname, join, resolve } from 'node:path';
 import type { BrowserWindow, Dialog, IpcMain, IpcMainInvokeEvent } from 'electron';
 import { z } from 'zod';
-import type { ChosenFile, OpenedCampaign } from '../../core/index.ts';
+import { CAMPAIGN_MAX_BYTES, campaignFiles, campaignTooLarge, parseCampaign, type Campaign, type ChosenFile, type OpenedCampaign } from '../../core/index.ts';
 import { writeFileAtomic } from '../files/atomic.ts';
-import { FileGrants, sha256File, streamText } from './grants.ts';
+import { FileGrants } from './grants.ts';
 import type { RecentList } from './recent.ts';
 import { INVOKE, type InvokeChannel } from './ipcChannels.ts';
+import { confinedCampaignFile, PullStream, readRegularText, refused, sha256Regular } from './safeFiles.ts';
 import { isAppUrl } from './security.ts';
+
+/** Open streams at most; opening one more closes the one unused longest. */
+export const MAX_OPEN_STREAMS = 8;
+/** A stream not pulled for this long is closed (the page went away or gave up). */
+export const STREAM_IDLE_MS = 120_000;
+/** No channel takes more arguments than this. */
+const MAX_ARGS = 4;
 
 export interface IpcDeps {
   ipcMain: Pick<IpcMain, 'handle'>;
@@ -30,7 +39,7 @@ const schemas = {
   id: z.string().uuid(),
   chunkBytes: z.number().int().min(4096).max(64 << 20).optional(),
   saveCampaign: z.tuple([
-    z.string().max(64 << 20),
+    z.string().max(CAMPAIGN_MAX_BYTES),
     z.strictObject({ id: z.string().uuid().optional(), saveAs: z.boolean().optional(), suggestedName: z.string().max(255).optional() }),
   ]),
   saveExport: z.tuple([z.string().min(1).max(255), z.union([z.string().max(256 << 20), z.instanceof(Uint8Array)]), z.string().max(100)]),
@@ -42,18 +51,19 @@ type Handler = (event: IpcMainInvokeEvent, ...args: unknown[]) => unknown;
 
 export function registerIpc(deps: IpcDeps): Map<string, Handler> {
   const handlers = new Map<string, Handler>();
-  const streams = new Map<string, AsyncIterator<string>>();
+  const streams = new Map<string, { stream: PullStream; grantId: string }>();
   const on = (channel: InvokeChannel, fn: (...args: unknown[]) => unknown) => {
     const handler: Handler = (event, ...args) => {
       const url = event.senderFrame?.url ?? '';
       if (!isAppUrl(url)) throw new Error(`refused: IPC from a page that is not the app (${url || 'unknown'})`);
-      return fn(...args);
+      if (args.length > MAX_ARGS) throw new Error(`refused: ${channel} takes at most ${MAX_ARGS} arguments`);
+      return fn(...args); // bounded spread: at most MAX_ARGS, checked above
     };
     handlers.set(channel, handler);
     deps.ipcMain.handle(channel, handler);
   };
   const chosen = async (path: string): Promise<ChosenFile> => {
-    const g = deps.grants.grant(path, 'read');
+    const g = await deps.grants.grantRead(path);
     let size: number;
     try {
       size = (await stat(g.path)).size;
@@ -83,63 +93,97 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
     return chosen(p);
   });
 
+  /** Close streams idle too long, then the longest-unused ones beyond the limit (abandoned by the page). */
+  const sweepStreams = async (room: number) => {
+    const now = Date.now();
+    for (const [id, s] of streams) {
+      if (now - s.stream.lastUsed > STREAM_IDLE_MS) {
+        streams.delete(id);
+        await s.stream.close();
+      }
+    }
+    const byAge = [...streams.entries()].sort((a, b) => a[1].stream.lastUsed - b[1].stream.lastUsed);
+    while (byAge.length > MAX_OPEN_STREAMS - room) {
+      const [id, s] = byAge.shift()!;
+      streams.delete(id);
+      await s.stream.close();
+    }
+  };
+
+  // Pull-based: each file:next-chunk reads one chunk, so the page's pace holds back the reading.
   on(INVOKE.openStream, async (id, chunkBytes) => {
     const g = deps.grants.get(schemas.id.parse(id), 'read');
-    const queue: string[] = [];
-    let done = false;
-    let failure: unknown;
-    let wake: (() => void) | undefined;
-    streamText(g.path, (t) => {
-      queue.push(t);
-      wake?.();
-    }, schemas.chunkBytes.parse(chunkBytes))
-      .catch((err) => (failure = err))
-      .finally(() => {
-        done = true;
-        wake?.();
-      });
-    const iterator: AsyncIterator<string> = {
-      next: async () => {
-        while (queue.length === 0 && !done) await new Promise<void>((r) => (wake = r));
-        if (failure) throw failure;
-        const value = queue.shift();
-        return value === undefined ? { done: true, value: undefined } : { done: false, value };
-      },
-    };
-    const streamId = `${g.id}:${Math.random().toString(36).slice(2)}`;
-    streams.set(streamId, iterator);
+    await sweepStreams(1);
+    const stream = await PullStream.open(g.path, schemas.chunkBytes.parse(chunkBytes) ?? 1 << 20);
+    const streamId = randomUUID();
+    streams.set(streamId, { stream, grantId: g.id });
     return streamId;
   });
 
   on(INVOKE.nextChunk, async (streamId) => {
-    const it = streams.get(String(streamId));
-    if (!it) throw new Error('refused: unknown stream');
-    const r = await it.next();
-    if (r.done) {
+    const entry = streams.get(String(streamId));
+    if (!entry) throw refused('unknown or closed stream');
+    let chunk: string | null;
+    try {
+      chunk = await entry.stream.next();
+    } catch (err) {
       streams.delete(String(streamId));
-      return null;
+      await entry.stream.close();
+      throw err;
     }
-    return r.value;
+    if (chunk === null || entry.stream.isClosed) {
+      streams.delete(String(streamId));
+      // the hash of exactly the bytes the page read, kept for file:sha256
+      if (entry.stream.digest) deps.grants.get(entry.grantId, 'read').digest = entry.stream.digest;
+    }
+    return chunk;
   });
 
-  on(INVOKE.sha256, async (id) => sha256File(deps.grants.get(schemas.id.parse(id), 'read').path));
+  on(INVOKE.closeStream, async (streamId) => {
+    const entry = streams.get(String(streamId));
+    streams.delete(String(streamId));
+    await entry?.stream.close();
+    return null;
+  });
 
+  on(INVOKE.sha256, async (id) => {
+    const g = deps.grants.get(schemas.id.parse(id), 'read');
+    if (g.digest) {
+      try {
+        const s = await stat(g.path);
+        if (s.size === g.digest.size && s.mtimeMs === g.digest.mtimeMs) return g.digest.sha256;
+      } catch {
+        // gone: the hash below reports it
+      }
+    }
+    g.digest = await sha256Regular(g.path);
+    return g.digest.sha256;
+  });
+
+  /**
+   * Open a campaign: its text is read only when it is a regular file within the size limit; the files
+   * it names are looked at only after the document has been validated, and only inside its folder.
+   */
   const openCampaignAt = async (path: string, from: string = path): Promise<OpenedCampaign> => {
     const g = deps.grants.grant(path, 'write');
-    const text = await readFile(from, 'utf8');
+    const text = await readRegularText(from, CAMPAIGN_MAX_BYTES, campaignTooLarge);
     const runs: OpenedCampaign['runs'] = [];
-    let names: string[] = [];
+    let campaign: Campaign | undefined;
     try {
-      const json = JSON.parse(text) as { runs?: { file?: unknown }[]; tares?: { file?: unknown }[] };
-      names = [...(json.runs ?? []), ...(json.tares ?? [])].map((r) => r.file).filter((f): f is string => typeof f === 'string');
+      campaign = parseCampaign(g.name, text);
     } catch {
-      // the renderer reports an unreadable campaign with its own message
+      campaign = undefined; // the renderer reports an unreadable campaign with its own message; no file is touched
     }
-    for (const file of [...new Set(names)]) {
-      const p = resolve(dirname(g.path), file);
+    for (const file of campaign ? campaignFiles(campaign) : []) {
+      const found = await confinedCampaignFile(g.path, file);
+      if ('refused' in found) {
+        runs.push({ file, id: null, sha256: null, refused: found.refused });
+        continue;
+      }
       try {
-        const sha = await sha256File(p);
-        runs.push({ file, id: (await chosen(p)).id, sha256: sha, size: (await stat(p)).size });
+        const grant = await deps.grants.grantRead(found.path);
+        grant.digest = await sha256Regular(found.path);
+        runs.push({ file, id: grant.id, sha256: grant.digest.sha256, size: grant.digest.size });
       } catch {
         runs.push({ file, id: null, sha256: null });
       }
@@ -147,8 +191,7 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
     await deps.recent.add(g.path);
     let backupAvailable: boolean;
     try {
-      await readFile(`${g.path}.bak`);
-      backupAvailable = true;
+      backupAvailable = (await stat(`${g.path}.bak`)).isFile();
     } catch {
       backupAvailable = false;
     }
@@ -192,6 +235,8 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
       if (r.canceled || !r.filePath) return null;
       path = r.filePath;
     }
+    const problem = await deps.grants.writeProblem(path);
+    if (problem) throw refused(problem);
     const g = deps.grants.grant(path, 'write');
     await writeFileAtomic(g.path, text, { backup: true });
     await deps.recent.add(g.path);
@@ -205,7 +250,8 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
     const r = win ? await deps.dialog.showSaveDialog(win, opts) : await deps.dialog.showSaveDialog(opts);
     if (r.canceled || !r.filePath) return false;
     const target = resolve(r.filePath);
-    if (deps.grants.isReadGrant(target)) throw new Error(`refused: ${target} is a raw run file and is never overwritten`);
+    const problem = await deps.grants.writeProblem(target);
+    if (problem) throw refused(problem);
     await writeFileAtomic(target, data);
     return true;
   });

@@ -9,6 +9,8 @@ export const INVOKE = {
   adoptDroppedFile: 'file:adopt-dropped',
   openStream: 'file:open-stream',
   nextChunk: 'file:next-chunk',
+  /** The page gave up on a stream: its file handle is closed at once. */
+  closeStream: 'file:close-stream',
   sha256: 'file:sha256',
   openSampleCampaign: 'campaign:sample',
   openCampaign: 'campaign:open',

@@ -3,15 +3,14 @@
  * menu, dialogs and file access behind validated IPC (ipc.ts). Bundled to dist/electron/main.cjs by
  * electron.config.ts.
  */
-import { app, BrowserWindow, dialog, ipcMain, Menu, net, protocol, session, shell } from 'electron';
+import { app, BrowserWindow, dialog, ipcMain, Menu, protocol, session, shell } from 'electron';
 import { join } from 'node:path';
-import { pathToFileURL } from 'node:url';
 import type { MenuCommand } from '../../core/index.ts';
 import { FileGrants } from './grants.ts';
 import { registerIpc, SAMPLE_CAMPAIGN_FILE } from './ipc.ts';
 import { EVENTS } from './ipcChannels.ts';
 import { menuTemplate } from './menu.ts';
-import { APP_ORIGIN, APP_SCHEME, resolveAppUrl } from './protocol.ts';
+import { APP_ORIGIN, APP_SCHEME, serveAppFile } from './protocol.ts';
 import { recentList } from './recent.ts';
 import { hardenContents, hardenSession, isAllowedExternal, webPreferences } from './security.ts';
 
@@ -84,14 +83,9 @@ async function createWindow() {
   await win.loadURL(`${APP_ORIGIN}/index.html`);
 }
 
-/** Serve the renderer build on app://sweepbook/ (see protocol.ts). */
+/** Serve the renderer build on app://sweepbook/ (see protocol.ts), read by the main process itself. */
 function serveAppScheme() {
-  protocol.handle(APP_SCHEME, async (request) => {
-    const file = resolveAppUrl(request.url, RENDERER_ROOT);
-    if (!file) return new Response('not found', { status: 404 });
-    const res = await net.fetch(pathToFileURL(file.path).toString());
-    return new Response(res.body, { status: res.status, headers: { 'content-type': file.type } });
-  });
+  protocol.handle(APP_SCHEME, (request) => serveAppFile(request.url, RENDERER_ROOT));
 }
 
 protocol.registerSchemesAsPrivileged([{ scheme: APP_SCHEME, privileges: { standard: true, secure: true, supportFetchAPI: true } }]);

@@ -11,11 +11,20 @@ const host: SweepbookHost & { adoptDroppedFile(file: File): Promise<ChosenFile> 
   chooseRunFiles: () => ipcRenderer.invoke(INVOKE.chooseRunFiles),
   readChunks: async (id, onChunk, chunkBytes) => {
     const stream: string = await ipcRenderer.invoke(INVOKE.openStream, id, chunkBytes);
-    for (;;) {
-      const chunk: string | null = await ipcRenderer.invoke(INVOKE.nextChunk, stream);
-      if (chunk === null) return;
-      // a renderer that returns a promise gets back-pressure: the next chunk waits for it
-      await (onChunk(chunk) as unknown);
+    let finished = false;
+    try {
+      for (;;) {
+        const chunk: string | null = await ipcRenderer.invoke(INVOKE.nextChunk, stream);
+        if (chunk === null) {
+          finished = true;
+          return;
+        }
+        // pulled one at a time: a renderer that returns a promise holds back the next read (back-pressure)
+        await (onChunk(chunk) as unknown);
+      }
+    } finally {
+      // a reader that gave up (an error in onChunk) frees the main process's file handle at once
+      if (!finished) void ipcRenderer.invoke(INVOKE.closeStream, stream).catch(() => undefined);
     }
   },
   sha256: (id) => ipcRenderer.invoke(INVOKE.sha256, id),

@@ -103,15 +103,29 @@ async function syncFolder(dir: string): Promise<void> {
   }
 }
 
-export async function writeFileAtomic(path: string, data: string | Uint8Array, options: { backup?: boolean } = {}): Promise<void> {
+/** Write `data` (text, bytes, or text in pieces for documents too long for one string) atomically. */
+export async function writeFileAtomic(path: string, data: string | Uint8Array | Iterable<string>, options: { backup?: boolean } = {}): Promise<void> {
   await removeStaleTemps(path);
   let mode: number | undefined;
   try {
-    mode = (await stat(path)).mode & 0o777; // keep the file's permissions across the rename
-  } catch {
+    const s = await stat(path);
+    // a folder, FIFO or device node is never replaced by a file (renaming over it would)
+    if (!s.isFile())
+      throw Object.assign(new Error(`${path} is not a regular file; refused, nothing was written`), { code: s.isDirectory() ? 'EISDIR' : 'ENOTREGULAR' });
+    mode = s.mode & 0o777; // keep the file's permissions across the rename
+  } catch (err) {
+    if ((err as { code?: string }).code !== 'ENOENT') throw err;
     mode = undefined;
   }
-  const tmp = await writeTemp(path, (h) => h.writeFile(data), mode);
+  const tmp = await writeTemp(
+    path,
+    async (h) => {
+      if (typeof data === 'string' || data instanceof Uint8Array) return h.writeFile(data);
+      // writeFile on an open handle writes from the current position, all of it
+      for (const chunk of data) await h.writeFile(chunk);
+    },
+    mode,
+  );
   let bakTmp: string | undefined;
   try {
     if (options.backup && mode !== undefined) {

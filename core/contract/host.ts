@@ -20,8 +20,10 @@ export interface OpenedCampaign {
   /**
    * Run files the campaign names, resolved by the host relative to the campaign (id null when missing);
    * `size` in bytes where the host knows it (optional: it only drives the reading progress bar).
+   * `refused` says why the host would not open a listed file (outside the campaign folder, not a
+   * regular file, too large); such a file has id null and was never read.
    */
-  runs: { file: string; id: string | null; sha256: string | null; size?: number }[];
+  runs: { file: string; id: string | null; sha256: string | null; size?: number; refused?: string }[];
   /** Set when the campaign could not be read and a backup exists. */
   backupAvailable?: boolean;
 }

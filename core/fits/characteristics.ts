@@ -440,7 +440,7 @@ function fitOverRange(fit: FitResult, d: BranchData, from: number, to: number, i
       fit.cl_min_drag_stderr = polar.cambered.cl_min_drag_stderr;
       fit.k_induced_cambered = polar.cambered.k;
     }
-    warnings.push(...polar.warnings);
+    warnings.push(...polar.warnings); // bounded spread: a polar gives a few warnings
   }
   const cmr = d.cm.slice(from, to);
   if (cmr.every(Number.isFinite)) {

@@ -6,6 +6,7 @@
 import { z } from 'zod';
 import { InputError } from '../contract/messages.ts';
 import { setupSchema, type SetupInput } from '../setup/schema.ts';
+import { CAMPAIGN_MAX_BYTES, CAMPAIGN_MAX_FILES, campaignTooLarge } from './limits.ts';
 
 export const CAMPAIGN_FORMAT = 'sweepbook-campaign';
 export const CAMPAIGN_VERSION = 1;
@@ -55,6 +56,8 @@ export function emptyCampaign(name = 'Untitled campaign'): Campaign {
 
 /** Parse campaign JSON text; throws InputError naming the file and field. */
 export function parseCampaign(file: string, text: string): Campaign {
+  // UTF-16 code units: at least the byte count of the ASCII a campaign mostly is
+  if (text.length > CAMPAIGN_MAX_BYTES) throw new InputError({ file, message: campaignTooLarge(text.length) });
   let json: unknown;
   try {
     json = JSON.parse(text);
@@ -66,11 +69,46 @@ export function parseCampaign(file: string, text: string): Campaign {
     const issue = r.error.issues[0]!;
     throw new InputError({ file, field: issue.path.map(String).join('.') || '(top level)', message: issue.message });
   }
+  const named = r.data.runs.length + (r.data.tares?.length ?? 0);
+  if (named > CAMPAIGN_MAX_FILES) throw new InputError({ file, field: 'runs', message: `names ${named} files; a campaign holds at most ${CAMPAIGN_MAX_FILES}` });
   const keys = new Set(Object.keys(r.data.setups));
   r.data.runs.forEach((run, i) => {
     if (!keys.has(run.setup)) throw new InputError({ file, field: `runs.${i}.setup`, message: `no setup named "${run.setup}" in setups` });
   });
   return { ...r.data, setups: (json as { setups: Record<string, SetupInput> }).setups };
+}
+
+/**
+ * Why a run or tare path in a campaign is not one the hosts will open, or undefined when it is: it
+ * must be relative to the campaign's folder, written with forward slashes, and stay inside that folder
+ * (no "..", no root, no drive letter, no UNC or device path). A campaign file is shared between
+ * people, so it may not point a reader at arbitrary files. Whether the file exists and is a regular
+ * file is the host's check.
+ */
+export function campaignPathProblem(file: string): string | undefined {
+  if (file.length === 0) return 'empty path';
+  if (file.length > 4096) return 'path longer than 4096 characters';
+  if (file.includes('\0')) return 'path contains a NUL character';
+  if (file.includes('\\')) return 'backslash in the path (campaign paths use forward slashes, relative to the campaign file)';
+  if (file.startsWith('/')) return 'absolute path (campaign paths are relative to the campaign file)';
+  if (/^[A-Za-z]:/.test(file)) return 'drive-letter path (campaign paths are relative to the campaign file)';
+  if (/^[A-Za-z][A-Za-z0-9+.-]*:\/\//.test(file)) return 'URL (campaign paths are relative to the campaign file)';
+  const parts = file.split('/');
+  if (parts.some((p) => p === '..')) return 'leaves the campaign folder ("..")';
+  if (parts.some((p) => p === '' || p === '.')) return 'empty or "." path segment';
+  return undefined;
+}
+
+/** Every run and tare file a campaign names, each once, in order of first mention (linear in their number). */
+export function campaignFiles(c: Campaign): string[] {
+  const seen = new Set<string>();
+  const add = (f: string | null | undefined) => {
+    if (f) seen.add(f);
+  };
+  for (const r of c.runs) add(r.file);
+  for (const r of c.runs) add(r.tare);
+  for (const t of c.tares ?? []) add(t.file);
+  return [...seen];
 }
 
 /** Campaign text as saved: stable key order, two-space indent, final newline. */

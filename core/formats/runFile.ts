@@ -322,6 +322,9 @@ export class RunFileReader {
   private judgeProbe(probe: string): void {
     this.probed = true;
     const nul = probe.indexOf('\u0000');
+    // a UTF-16 byte-order mark read as UTF-8 is two replacement characters, and its ASCII has NUL halves
+    if (nul >= 0 && probe.startsWith('\ufffd\ufffd'))
+      this.fail({ line: 1, message: 'the file is UTF-16 text (it starts with a UTF-16 byte-order mark); save or export it as UTF-8 and read it again' });
     if (nul >= 0) this.fail({ line: lineOfOffset(probe, nul), message: 'the file holds binary data (NUL bytes), not CSV text' });
     let bad = 0;
     for (let i = 0; i < probe.length; i++) {

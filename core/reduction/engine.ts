@@ -6,8 +6,9 @@ import { attempt, InputError, type Outcome } from '../contract/messages.ts';
 import { reduce, reduceBases, type ReductionResult, type PointResult } from './pipeline.ts';
 import { RunFileReader, type ColumnMapping, type GroupingOptions, type RunData } from '../formats/runFile.ts';
 import { parseSetup, type SetupResult } from '../setup/schema.ts';
-import { toCsv, type Cell } from '../formats/csvWriter.ts';
+import { commentLine, csvCell, csvLine, type Cell } from '../formats/csvWriter.ts';
 import { provenanceLines, type Provenance } from '../formats/provenance.ts';
+import { SETUP_MAX_BYTES, setupTooLarge } from '../formats/limits.ts';
 
 export type { ReductionResult, PointResult } from './pipeline.ts';
 
@@ -23,6 +24,8 @@ export async function readRun(file: string, source: TextSource, mapping?: Column
 }
 
 export function readSetup(file: string, text: string): Outcome<SetupResult> {
+  // UTF-16 code units; one per byte for the ASCII a setup is written in, so a fair stand-in for its size
+  if (text.length > SETUP_MAX_BYTES) return { ok: false, errors: [{ file, field: '(file size)', message: setupTooLarge(text.length) }] };
   return attempt(() => parseSetup(file, text));
 }
 
@@ -70,11 +73,35 @@ export const POINT_COLUMNS: readonly (keyof PointResult)[] = [
 
 /** The point table of a result as CSV, headed by `# ` provenance lines when given. */
 export function pointsCsv(result: ReductionResult, provenance?: Provenance): string {
-  const rows: Cell[][] = result.points.map((p) => POINT_COLUMNS.map((k) => p[k] as Cell));
-  // raw comment lines (not CSV cells): what `comment='#'` readers such as pandas and our own reader skip
-  // the run's name and configuration first, as `# key: value` metadata a run-file reader takes back
+  let text = '';
+  for (const chunk of pointsCsvChunks(result, provenance)) text += chunk;
+  return text;
+}
+
+/** Rows per chunk of `pointsCsvChunks`. */
+const ROWS_PER_CHUNK = 2048;
+
+/**
+ * `pointsCsv` in pieces of a few thousand lines, for hosts that write a large table as it is made:
+ * a million-point table is about 450 million characters, near the longest string a JavaScript engine
+ * holds, so it is never built whole there.
+ */
+export function* pointsCsvChunks(result: ReductionResult, provenance?: Provenance): Generator<string> {
+  // comment lines (not CSV cells), skipped by `comment='#'` readers such as pandas and our own reader,
+  // escaped with the cells' formula rule for spreadsheets that split them at commas; the run's name and
+  // configuration first, as `# key: value` metadata a run-file reader takes back
   const meta = [`run: ${result.run.name}`, ...(result.run.configuration !== null ? [`configuration: ${result.run.configuration}`] : [])];
-  const lines = [...meta, ...(provenance ? provenanceLines(provenance) : [])];
-  const head = lines.map((l) => `# ${l.replace(/[\r\n]+/g, ' ')}`).join('\n') + '\n';
-  return head + toCsv(POINT_COLUMNS as string[], rows);
+  const lines = provenance ? meta.concat(provenanceLines(provenance)) : meta;
+  yield lines.map(commentLine).join('\n') + '\n';
+  yield csvLine(POINT_COLUMNS as string[]) + '\n';
+  const points = result.points;
+  for (let start = 0; start < points.length; start += ROWS_PER_CHUNK) {
+    let block = '';
+    const end = Math.min(points.length, start + ROWS_PER_CHUNK);
+    for (let i = start; i < end; i++) {
+      const p = points[i]!;
+      block += POINT_COLUMNS.map((k) => csvCell(p[k] as Cell)).join(',') + '\n';
+    }
+    yield block;
+  }
 }

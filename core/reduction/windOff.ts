@@ -131,7 +131,17 @@ export function windOffRoles(alphas: readonly number[], off: readonly boolean[],
   const firstOn = off.indexOf(false);
   if (firstOn < 0) return roles;
   const lastOn = off.lastIndexOf(false);
-  const oneAlpha = (from: number, to: number) => to > from && distinctAlphas(alphas.slice(from, to), tolRad) === 1 && Math.max(...alphas.slice(from, to)) - Math.min(...alphas.slice(from, to)) <= tolRad;
+  // extremes by a loop: a run's alphas may be too many to spread into Math.max
+  const spanOf = (from: number, to: number) => {
+    let lo = Infinity;
+    let hi = -Infinity;
+    for (let i = from; i < to; i++) {
+      lo = Math.min(lo, alphas[i]!);
+      hi = Math.max(hi, alphas[i]!);
+    }
+    return hi - lo;
+  };
+  const oneAlpha = (from: number, to: number) => to > from && distinctAlphas(alphas.slice(from, to), tolRad) === 1 && spanOf(from, to) <= tolRad;
   if (oneAlpha(0, firstOn)) for (let i = 0; i < firstOn; i++) roles[i] = 'zero-start';
   if (oneAlpha(lastOn + 1, n)) for (let i = lastOn + 1; i < n; i++) roles[i] = 'zero-end';
   const rest = roles.map((r, i) => (r === 'excluded' ? i : -1)).filter((i) => i >= 0);

@@ -36,13 +36,34 @@ const inRange = (what: string, lo: number, hi: number, unit: string) => {
   const error = unit ? `expected ${lo} to ${hi}${unit}` : `expected ${lo} to ${hi} (${what})`;
   return finite(what).min(lo, { error }).max(hi, { error });
 };
-/** A standard uncertainty: zero or more. */
-const uncertainty = (what: string) => finite(what).nonnegative({ error: `expected zero or more (${what})` });
-/** A wall-correction factor: a number overrides, `null` (the default) means computed for this tunnel and model. */
-const optionalFactor = (what: string) =>
+/**
+ * Sane ranges for the numbers a person types into a setup (common sense, no published bound): wide
+ * enough for every closed test section and model, narrow enough that a slipped decimal point (δ = 11.5
+ * for 0.115) gets a message naming the field instead of a reduction with α of 130°. Typical values, from
+ * memory of Barlow, Rae & Pope, Low-Speed Wind Tunnel Testing (3rd ed.) ch. 9–10: δ 0.1–0.14 for closed
+ * rectangular sections (negative only for open jets), τ1 0.8–0.95, τ2 0–0.3, K 0.74 (2D) to about 1.
+ */
+export const SETUP_RANGES = {
+  delta: [-0.5, 0.5],
+  tau1: [0, 2],
+  tau2: [0, 1],
+  solid_blockage_k: [0.1, 2],
+  /** Moment-reference offset, in reference chords either way. */
+  moment_ref_offset_chords: 10,
+  p_pa: [1e3, 5e6],
+} as const;
+/** A standard uncertainty: zero or more, and at most `hi` (far beyond any instrument worth the name). */
+const uncertainty = (what: string, hi: number) =>
+  finite(what)
+    .nonnegative({ error: `expected zero or more (${what})` })
+    .max(hi, { error: `expected 0 to ${hi} (${what})` });
+/** A wall-correction factor within its sane range: a number overrides, `null` (the default) means computed for this tunnel and model. */
+const optionalFactor = (what: string, [lo, hi]: readonly [number, number]) =>
   z
     .number({ error: `expected a number or null (${what})` })
     .finite()
+    .min(lo, { error: `expected ${lo} to ${hi} (${what})` })
+    .max(hi, { error: `expected ${lo} to ${hi} (${what})` })
     .nullable()
     .default(null);
 
@@ -144,6 +165,20 @@ const modelSchema = z
     }),
     // ---- end tunnels and mountings ----
   })
+  .superRefine((m, ctx) => {
+    // the moment reference lies on or near the model: within SETUP_RANGES.moment_ref_offset_chords chords of the balance centre
+    const limit = SETUP_RANGES.moment_ref_offset_chords * m.chord_m;
+    for (const axis of ['x', 'z'] as const) {
+      const v = m.moment_ref_offset_m[axis];
+      if (Math.abs(v) > limit) {
+        ctx.addIssue({
+          code: 'custom',
+          path: ['moment_ref_offset_m', axis],
+          message: `expected within ±${limit.toPrecision(3)} m (${SETUP_RANGES.moment_ref_offset_chords} reference chords of ${m.chord_m} m)`,
+        });
+      }
+    }
+  })
   .meta({ group: 'Model' });
 
 const tunnelSchema = z
@@ -209,7 +244,7 @@ const flowSchema = z
 
 const ambientSchema = z
   .strictObject({
-    p_pa: positive('static pressure, Pa').optional().meta({ label: 'Static pressure p', unit: 'Pa' }),
+    p_pa: inRange('static pressure, Pa', SETUP_RANGES.p_pa[0], SETUP_RANGES.p_pa[1], ' Pa').optional().meta({ label: 'Static pressure p', unit: 'Pa' }),
     t_c: inRange('°C', -100, 200, ' °C').optional().meta({ label: 'Stagnation temperature T₀', unit: '°C' }),
     rh_pct: inRange('%', 0, 100, ' %').optional().meta({ label: 'Relative humidity', unit: '%' }),
   })
@@ -233,6 +268,8 @@ const correctionsSchema = z
     solid_blockage_k: z
       .number({ error: 'expected a number or null (solid-blockage shape factor)' })
       .finite()
+      .min(SETUP_RANGES.solid_blockage_k[0], { error: `expected ${SETUP_RANGES.solid_blockage_k[0]} to ${SETUP_RANGES.solid_blockage_k[1]} (solid-blockage shape factor K)` })
+      .max(SETUP_RANGES.solid_blockage_k[1], { error: `expected ${SETUP_RANGES.solid_blockage_k[0]} to ${SETUP_RANGES.solid_blockage_k[1]} (solid-blockage shape factor K)` })
       .nullable()
       .optional()
       .meta({
@@ -242,19 +279,19 @@ const correctionsSchema = z
         defaultText: '0.74 (2D); 3D: 1 + k1 of a prolate spheroid of model.fineness_ratio (1.045 for 6)',
         formKind: 'auto-number',
       }),
-    delta: optionalFactor('lift-interference factor δ').meta({
+    delta: optionalFactor('lift-interference factor δ', SETUP_RANGES.delta).meta({
       label: 'Lift-interference factor δ',
       unit: '–',
       help: 'empty: computed for this tunnel and model',
       formKind: 'auto-number',
     }),
-    tau1: optionalFactor('solid-blockage tunnel factor τ1').meta({
+    tau1: optionalFactor('solid-blockage tunnel factor τ1', SETUP_RANGES.tau1).meta({
       label: 'Solid-blockage tunnel factor τ1',
       unit: '–',
       help: 'empty: computed',
       formKind: 'auto-number',
     }),
-    tau2: optionalFactor('streamline-curvature factor τ2').meta({
+    tau2: optionalFactor('streamline-curvature factor τ2', SETUP_RANGES.tau2).meta({
       label: 'Streamline-curvature factor τ2',
       unit: '–',
       help: 'empty: computed',
@@ -267,23 +304,23 @@ const correctionsSchema = z
 
 const uncertaintySchema = z
   .strictObject({
-    dp_pitot_pa: uncertainty('Pa')
+    dp_pitot_pa: uncertainty('Pa', 1e4)
       .optional()
       .meta({ label: 'Pitot differential pressure', unit: 'Pa', help: 'all empty: no uncertainties, fits unweighted' }),
-    p_static_pa: uncertainty('Pa').optional().meta({ label: 'Static pressure', unit: 'Pa' }),
-    t_total_c: uncertainty('K or °C difference').optional().meta({ label: 'Stagnation temperature', unit: 'K' }),
-    rh_pct: uncertainty('% RH').optional().meta({ label: 'Relative humidity', unit: '% RH' }),
-    force_n: uncertainty('N').optional().meta({ label: 'Each balance force', unit: 'N' }),
-    moment_nm: uncertainty('N m').optional().meta({ label: 'Pitching moment', unit: 'N m' }),
-    alpha_deg: uncertainty('deg').optional().meta({ label: 'Angle of attack', unit: 'deg' }),
-    area_rel: uncertainty('relative, e.g. 0.002')
+    p_static_pa: uncertainty('Pa', 1e5).optional().meta({ label: 'Static pressure', unit: 'Pa' }),
+    t_total_c: uncertainty('K or °C difference', 50).optional().meta({ label: 'Stagnation temperature', unit: 'K' }),
+    rh_pct: uncertainty('% RH', 100).optional().meta({ label: 'Relative humidity', unit: '% RH' }),
+    force_n: uncertainty('N', 1e5).optional().meta({ label: 'Each balance force', unit: 'N' }),
+    moment_nm: uncertainty('N m', 1e5).optional().meta({ label: 'Pitching moment', unit: 'N m' }),
+    alpha_deg: uncertainty('deg', 10).optional().meta({ label: 'Angle of attack', unit: 'deg' }),
+    area_rel: uncertainty('relative, e.g. 0.002', 0.5)
       .optional()
       .meta({ label: 'Reference area, relative', unit: '–', help: 'a fraction: 0.002 for 0.2 %' }),
-    chord_rel: uncertainty('relative, e.g. 0.002')
+    chord_rel: uncertainty('relative, e.g. 0.002', 0.5)
       .optional()
       .meta({ label: 'Reference chord, relative', unit: '–', help: 'a fraction: 0.002 for 0.2 %' }),
     // fits: the incidence zero, an offset common to every point of a run (systematic, not a weight)
-    alpha_offset_deg: uncertainty('deg').optional().meta({
+    alpha_offset_deg: uncertainty('deg', 10).optional().meta({
       label: 'Angle-of-attack zero',
       unit: 'deg',
       help: 'offset common to every point',

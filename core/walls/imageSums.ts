@@ -125,8 +125,8 @@ function segmentW(P: Vec, A: Vec, Bp: Vec): number {
   const c2 = cx * cx + cy * cy + cz * cz;
   if (c2 < 1e-24) return 0;
   const r0: Vec = [Bp[0] - A[0], Bp[1] - A[1], Bp[2] - A[2]];
-  const n1 = Math.hypot(...r1);
-  const n2 = Math.hypot(...r2);
+  const n1 = Math.hypot(r1[0], r1[1], r1[2]);
+  const n2 = Math.hypot(r2[0], r2[1], r2[2]);
   const k = (r0[0] * (r1[0] / n1 - r2[0] / n2) + r0[1] * (r1[1] / n1 - r2[1] / n2) + r0[2] * (r1[2] / n1 - r2[2] / n2)) / (4 * Math.PI * c2);
   return k * cz;
 }

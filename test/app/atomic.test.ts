@@ -67,4 +67,16 @@ describe('writeFileAtomic', () => {
     expect(readFileSync(f, 'utf8')).toBe('old');
     expect(readdirSync(dir).filter((n) => n.endsWith('.tmp'))).toEqual([]);
   });
+
+  it('never replaces a folder, FIFO or device node with a file', async () => {
+    const dir = folder();
+    const fifo = join(dir, 'pipe');
+    spawnSync('mkfifo', [fifo]);
+    await expect(writeFileAtomic(fifo, 'x')).rejects.toThrow(/not a regular file/);
+    expect(statSync(fifo).isFIFO()).toBe(true);
+    mkdirSync(join(dir, 'sub'));
+    await expect(writeFileAtomic(join(dir, 'sub'), 'x')).rejects.toMatchObject({ code: 'EISDIR' });
+    expect(statSync(join(dir, 'sub')).isDirectory()).toBe(true);
+    expect(readdirSync(dir).filter((n) => n.endsWith('.tmp'))).toEqual([]);
+  });
 });

@@ -11,6 +11,7 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 import Papa from 'papaparse';
 import { join } from 'node:path';
 import { main } from '../../app/cli/main.ts';
+import { chunkDecoder } from '../../app/files/textDecoding.ts';
 import { pointsCsv, readRun, readSetup, reduceRun, type ReductionResult } from '../../core/reduction/engine.ts';
 import type { Notice, Outcome } from '../../core/contract/messages.ts';
 import type { RunData } from '../../core/formats/runFile.ts';
@@ -245,7 +246,11 @@ function valueAtPath(o: unknown, field: string): unknown {
   return v;
 }
 
-const decode = (bytes: Uint8Array) => Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).toString('utf8');
+/** Bytes to text as the command line and the desktop host decode them (UTF-8, or UTF-16 after its byte-order mark). */
+const decode = (bytes: Uint8Array) => {
+  const d = chunkDecoder();
+  return d.write(bytes) + d.end();
+};
 
 /** Time bound, then known issues set apart; the verdict stays "reduced"/"rejected" when only known issues remain. */
 function finish(report: CaseReport, t0: number, label: string | undefined): CaseReport {

@@ -47,7 +47,7 @@ describe('setup field metadata', () => {
     const byPath = new Map(setupFields().map((f) => [f.path, f]));
     expect(byPath.get('flow.gamma')).toMatchObject({ default: 1.4, min: 1.0001, max: 2, required: false });
     expect(byPath.get('model.chord_m')).toMatchObject({ required: true, min: 1e-4, max: 1e3, unit: 'm' });
-    expect(byPath.get('ambient.p_pa')).toMatchObject({ min: 0, minExclusive: true, required: false });
+    expect(byPath.get('ambient.p_pa')).toMatchObject({ min: 1000, max: 5e6, required: false });
     expect(byPath.get('model.moment_ref_offset_m.z')).toMatchObject({ default: 0 });
     expect(byPath.get('corrections.delta')).toMatchObject({ nullable: true, default: null, form: 'auto-number' });
     expect(byPath.get('balance.axes')?.choices?.map((c) => c.value)).toEqual(['wind', 'body']);

@@ -49,6 +49,6 @@ export const fitsStage: Stage = {
     ctx.fitBranches = f.fit_branches;
     ctx.fitSystematic = f.fit_systematic;
     pts.forEach((p, i) => (p.branch = f.pointBranch[i]));
-    ctx.notices.push(...f.warnings.map((message) => ({ message })));
+    ctx.notices.push(...f.warnings.map((message) => ({ message }))); // bounded spread: the fit warnings of one run, a few per branch
   },
 };

@@ -15,7 +15,7 @@ export const taresStage: Stage = {
     if (!ctx.tareRun) return;
     const table = buildTare(ctx.tareRun, ctx.setup.balance.axes === 'wind' ? WIND_LOADS : BODY_LOADS);
     ctx.tare = table;
-    ctx.notices.push(...ctx.tareRun.warnings);
+    for (const w of ctx.tareRun.warnings) ctx.notices.push(w);
     const [f1, f2] = ctx.setup.balance.axes === 'wind' ? (['lift', 'drag'] as const) : (['normal', 'axial'] as const);
     for (const pt of ctx.points) {
       const t = tareAt(table, pt.inputs.alpha);

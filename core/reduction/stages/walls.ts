@@ -26,7 +26,7 @@ export const wallsStage: Stage = {
       hasPitch: ctx.has('pitch'),
     });
     ctx.wall = wall;
-    ctx.notices.push(...wall.warnings);
+    for (const w of wall.warnings) ctx.notices.push(w);
     ctx.points = ctx.points.filter((pt) => {
       pt.corrected = wall.correct(pt.measured!.tunnel);
       const bad = nonFiniteCorrected(pt.corrected, ctx.has);

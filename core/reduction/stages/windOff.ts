@@ -23,7 +23,7 @@ export const windOffStage: Stage = {
     });
     ctx.run = prepared.run;
     ctx.tareRun ??= prepared.embeddedTare;
-    ctx.notices.push(...prepared.notices);
+    for (const n of prepared.notices) ctx.notices.push(n);
     const channels = new Set(prepared.run.channels);
     ctx.has = (ch) => channels.has(ch);
   },
