@@ -16,6 +16,7 @@ import { CHANNELS, POINT_COLUMN, defaultConversion, isChannel, type Channel } fr
 import { InputError, type Notice } from '../contract/messages.ts';
 import { PointAccumulator, type PointStats } from './pointStats.ts';
 import { lookupUnit, unitsOf, type UnitConversion } from '../physics/units.ts';
+import type { SampleTransform } from './sampleTransform.ts';
 
 export interface ColumnInfo {
   /** Name as written in the header (without the unit). */
@@ -73,6 +74,8 @@ interface BoundColumn {
   slot: number; // index into the accumulator's channel array
   conv: UnitConversion;
   channel: Channel;
+  /** Per-sample transform hook: the header name of a column read raw for the transform. */
+  raw?: string;
 }
 
 type Phase = 'preamble' | 'data';
@@ -111,11 +114,19 @@ export class RunFileReader {
   // the file's first characters, held back until probed for binary content
   private probe = '';
   private probed = false;
+  // --- per-sample transform hook (see sampleTransform.ts) ---
+  private readonly transform: SampleTransform | undefined;
+  private rawIn: Float64Array = new Float64Array(0);
+  private transformed: Float64Array = new Float64Array(0);
+  private sampleRow: Float64Array = new Float64Array(0);
+  private transformFailures = 0;
+  // --- end of the hook's fields ---
 
-  constructor(file: string, options: { limits?: Partial<ReaderLimits>; mapping?: ColumnMapping } = {}) {
+  constructor(file: string, options: { limits?: Partial<ReaderLimits>; mapping?: ColumnMapping; sampleTransform?: SampleTransform } = {}) {
     this.file = file;
     this.limits = { ...DEFAULT_LIMITS, ...options.limits };
     this.mapping = options.mapping ?? {};
+    this.transform = options.sampleTransform;
   }
 
   /** Feed the next piece of the file's text. */
@@ -298,6 +309,7 @@ export class RunFileReader {
       const { name, unit } = splitHeaderCell(cell);
       const mapped = this.mapping.names?.[name.toLowerCase()];
       const key = (mapped ?? name).toLowerCase();
+      if (this.transformHeader(name, i, column, key, bound)) return;
       if (key === 'ignore' || key === '') return;
       if (key !== POINT_COLUMN && !isChannel(key)) return; // columns outside the contract are not used
       const earlier = seen.get(key);
@@ -332,7 +344,8 @@ export class RunFileReader {
       bound.push({ index: i, slot: bound.length, conv, channel });
     });
     this.bound = bound;
-    this.channels = bound.map((b) => b.channel);
+    this.channels = bound.filter((b) => b.raw === undefined).map((b) => b.channel);
+    this.transformReady(bound);
     this.values = new Float64Array(bound.length);
     this.fieldSlot = new Int32Array(cells.length).fill(UNUSED_FIELD);
     if (this.pointIndex >= 0) this.fieldSlot[this.pointIndex] = POINT_FIELD;
@@ -342,6 +355,64 @@ export class RunFileReader {
     this.acc = new PointAccumulator(this.channels.length);
     this.phase = 'data';
   }
+
+  // --- per-sample transform hook: raw columns bound after the channels, outputs appended to the channels ---
+
+  /** A header cell the transform reads (bound raw, true) or replaces (ignored with a notice, true); false otherwise. */
+  private transformHeader(name: string, index: number, column: number, key: string, bound: BoundColumn[]): boolean {
+    const t = this.transform;
+    if (!t) return false;
+    const lower = name.toLowerCase();
+    if (t.inputs.some((n) => n.toLowerCase() === lower)) {
+      if (bound.some((b) => b.raw?.toLowerCase() === lower)) this.fail({ line: this.line, column, message: `column "${name}" appears twice` });
+      bound.push({ index, slot: -1, conv: IDENTITY, channel: 'alpha', raw: name });
+      return true;
+    }
+    if ((t.outputs as readonly string[]).includes(key)) {
+      this.warnings.push({ file: this.file, line: this.line, column, message: `column "${name}" is not used: "${key}" comes from ${t.source}` });
+      return true;
+    }
+    return false;
+  }
+
+  /** After the header: every input present, channel slots first, raw slots after them in the transform's order. */
+  private transformReady(bound: BoundColumn[]): void {
+    const t = this.transform;
+    if (!t) return;
+    const raw = t.inputs.map((n) => bound.find((b) => b.raw?.toLowerCase() === n.toLowerCase()));
+    const missing = t.inputs.filter((_, i) => raw[i] === undefined);
+    if (missing.length > 0) {
+      this.fail({ line: this.line, message: `missing column${missing.length > 1 ? 's' : ''} ${missing.map((m) => `"${m}"`).join(', ')} (bridge output${missing.length > 1 ? 's' : ''} named by ${t.source})` });
+    }
+    const channels = bound.filter((b) => b.raw === undefined);
+    channels.forEach((b, i) => (b.slot = i));
+    raw.forEach((b, i) => (b!.slot = channels.length + i));
+    bound.sort((a, b) => a.slot - b.slot);
+    this.channels = [...this.channels, ...t.outputs];
+    this.rawIn = new Float64Array(t.inputs.length);
+    this.transformed = new Float64Array(t.outputs.length);
+    this.sampleRow = new Float64Array(this.channels.length);
+  }
+
+  /** The sample as the accumulator takes it: the read values, or with the transform's outputs in place of its raw inputs. */
+  private sample(values: Float64Array, lineNo: number): Float64Array {
+    const t = this.transform;
+    if (!t) return values;
+    const nCh = this.channels.length - t.outputs.length;
+    const row = this.sampleRow;
+    for (let i = 0; i < nCh; i++) row[i] = values[i]!;
+    for (let i = 0; i < this.rawIn.length; i++) this.rawIn[i] = values[nCh + i]!;
+    const why = t.apply(this.rawIn, this.transformed);
+    if (why !== undefined) {
+      this.transformed.fill(Number.NaN);
+      if (++this.transformFailures <= this.limits.maxRowWarnings) {
+        this.warnings.push({ file: this.file, line: lineNo, message: `sample not converted by ${t.source}: ${why}; its point is not reduced` });
+      }
+    }
+    row.set(this.transformed, nCh);
+    return row;
+  }
+  // --- end of the transform hook ---
 
   private accumulator(): PointAccumulator {
     if (!this.acc) throw new Error('reader used before its header');
@@ -511,7 +582,7 @@ export class RunFileReader {
         this.lastKeyRaw = text.slice(keyStart, keyEnd);
         key = this.lastKey = this.lastKeyRaw.trim();
       }
-      acc.add(key, lineNo, values);
+      acc.add(key, lineNo, this.sample(values, lineNo));
       if (acc.size > maxPoints) {
         this.fail({ line: lineNo, message: `more than ${maxPoints} distinct points; is the "point" column a sample counter?` });
       }
@@ -547,7 +618,7 @@ export class RunFileReader {
       const cell = row[col.index]!;
       const v = parseCell(cell, this.decimalComma);
       if (!Number.isFinite(v)) {
-        this.skip(lineNo, col.index + 1, `"${clip(cell)}" in column "${col.channel}" is not a finite number`);
+        this.skip(lineNo, col.index + 1, `"${clip(cell)}" in column "${col.raw ?? col.channel}" is not a finite number`);
         return;
       }
       values[b] = v * col.conv.scale + col.conv.offset;
@@ -558,7 +629,7 @@ export class RunFileReader {
     }
     const acc = this.accumulator();
     const key = this.pointIndex >= 0 ? row[this.pointIndex]!.trim() : String(lineNo);
-    acc.add(key, lineNo, values);
+    acc.add(key, lineNo, this.sample(values, lineNo));
     if (acc.size > this.limits.maxPoints) {
       this.fail({ line: lineNo, message: `more than ${this.limits.maxPoints} distinct points; is the "point" column a sample counter?` });
     }
@@ -682,8 +753,11 @@ function clip(cell: string): string {
   return cell.length > 24 ? `${cell.slice(0, 24)}…` : cell;
 }
 
+/** Unit conversion of a column read raw for a sample transform: none. */
+const IDENTITY: UnitConversion = { ...defaultConversion('alpha'), scale: 1, offset: 0, label: 'as written' };
+
 /** Read a whole run file held in memory (tests, the browser host's small files). */
-export function readRunText(file: string, text: string, options?: { mapping?: ColumnMapping; limits?: Partial<ReaderLimits> }): RunData {
+export function readRunText(file: string, text: string, options?: { mapping?: ColumnMapping; limits?: Partial<ReaderLimits>; sampleTransform?: SampleTransform }): RunData {
   const reader = new RunFileReader(file, options);
   reader.push(text);
   return reader.finish();

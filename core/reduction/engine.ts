@@ -8,14 +8,15 @@ import { RunFileReader, type ColumnMapping, type RunData } from '../formats/runF
 import { parseSetup, type SetupResult } from '../setup/schema.ts';
 import { toCsv, type Cell } from '../formats/csvWriter.ts';
 import { provenanceLines, type Provenance } from '../formats/provenance.ts';
+import type { SampleTransform } from '../formats/sampleTransform.ts';
 
 export type { ReductionResult, PointResult } from './pipeline.ts';
 
 /** A source of text chunks: a Node stream with utf8 encoding, a browser file's text stream, or an array. */
 export type TextSource = AsyncIterable<string> | Iterable<string>;
 
-export async function readRun(file: string, source: TextSource, mapping?: ColumnMapping): Promise<Outcome<RunData>> {
-  const reader = new RunFileReader(file, { mapping });
+export async function readRun(file: string, source: TextSource, mapping?: ColumnMapping, sampleTransform?: SampleTransform): Promise<Outcome<RunData>> {
+  const reader = new RunFileReader(file, { mapping, sampleTransform });
   return attemptAsync(async () => {
     for await (const chunk of source as AsyncIterable<string>) reader.push(chunk);
     return reader.finish();

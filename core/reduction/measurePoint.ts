@@ -8,6 +8,7 @@ import { bodyToWind, transferPitch, windToBody } from '../physics/axes.ts';
 import { flowState, type FlowState } from '../physics/flowState.ts';
 import type { TunnelPoint } from '../walls/types.ts';
 import { RAD } from '../walls/types.ts';
+import { resolveToFlow } from '../flowAngle/upflow.ts';
 
 /** Point means in SI, tares already removed from the loads. Absent loads are NaN. */
 export interface PointInputs {
@@ -33,6 +34,8 @@ export interface MeasureGeometry {
   gamma: number;
   axes: 'wind' | 'body';
   offset: { x: number; z: number };
+  /** Flow angle: upflow φ, rad, positive up (setup flow.upflow_deg); 0 or absent leaves the tunnel axes as they are. */
+  upflow?: number;
 }
 
 export interface Measured {
@@ -61,6 +64,9 @@ export function measure(x: PointInputs, g: MeasureGeometry): Measured {
     ({ lift, drag } = bodyToWind(normal, axial, x.alpha));
   }
   const pitchRef = transferPitch(x.pitch, normal, axial, g.offset);
+  // flow angle: α += φ, lift and drag resolved to the true flow direction (the moment is unchanged)
+  const phi = g.upflow ?? 0;
+  if (phi !== 0) ({ lift, drag } = resolveToFlow(lift, drag, phi));
   const qS = flow.q * g.area;
   return {
     flow,
@@ -68,7 +74,7 @@ export function measure(x: PointInputs, g: MeasureGeometry): Measured {
     drag,
     pitchRef,
     tunnel: {
-      alphaDeg: x.alpha * RAD,
+      alphaDeg: (x.alpha + phi) * RAD,
       cl: lift / qS,
       cd: drag / qS,
       cm: pitchRef / (qS * g.chord),

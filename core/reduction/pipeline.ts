@@ -108,7 +108,7 @@ export function reduce(input: ReduceInput): ReductionResult {
   const gamma = setup.flow.gamma;
   const has = (ch: Channel) => run.channels.includes(ch);
   const hasPitch = has('pitch');
-  const geometry: MeasureGeometry = { area: S, chord: c, span: b, gamma, axes, offset: setup.model.moment_ref_offset_m };
+  const geometry: MeasureGeometry = { area: S, chord: c, span: b, gamma, axes, offset: setup.model.moment_ref_offset_m, upflow: setup.flow.upflow_deg / RAD };
   const pointInputs: PointInputs[] = [];
   const pointSpread: { n: number; sd: (ch: Channel) => number }[] = [];
   const idx = new Map(run.channels.map((ch, i) => [ch, i] as const));

@@ -4,6 +4,7 @@
  */
 import { z } from 'zod';
 import { InputError, type Notice } from '../contract/messages.ts';
+import { checkBalanceAxes, validateBalance, type Balance } from '../balance/document.ts';
 
 const positive = (what: string) => z.number({ error: `expected a number (${what})` }).finite().positive({ error: `expected a positive number (${what})` });
 const finite = (what: string) => z.number({ error: `expected a number (${what})` }).finite();
@@ -52,13 +53,33 @@ const uncertaintySchema = z.strictObject({
   chord_rel: finite('relative, e.g. 0.002').nonnegative().optional(),
 });
 
+// --- balance calibration: a balance file's path (relative to the setup file) or the document inline ---
+const calibrationSchema = z.union([z.string().min(1), z.record(z.string(), z.unknown())], {
+  error: 'expected the path of a balance file (relative to the setup file) or a balance document',
+});
+/** A balance calibration named by path, still to be read by the host (core reads no files). */
+export interface CalibrationPath {
+  path: string;
+}
+// --- end of balance calibration ---
+
 export const setupSchema = z.strictObject({
   $schema: z.string().optional(),
   note: z.string().optional(),
   model: modelSchema,
   tunnel: tunnelSchema,
-  balance: z.strictObject({ axes: z.enum(['wind', 'body'], { error: 'expected "wind" (lift/drag columns) or "body" (normal/axial columns)' }) }),
-  flow: z.strictObject({ gamma: finite('ratio of specific heats').min(1.0001).max(2) }).optional(),
+  balance: z.strictObject({
+    axes: z.enum(['wind', 'body'], { error: 'expected "wind" (lift/drag columns) or "body" (normal/axial columns)' }),
+    // --- balance calibration and flow angle (raw bridge outputs; upflow) ---
+    calibration: calibrationSchema.optional(),
+  }),
+  flow: z
+    .strictObject({
+      gamma: finite('ratio of specific heats').min(1.0001).max(2).optional(),
+      upflow_deg: finite('upflow angle, degrees, positive up').min(-10, { error: 'expected −10 to 10 degrees (upflow angle)' }).max(10, { error: 'expected −10 to 10 degrees (upflow angle)' }).optional(),
+    })
+    // --- end of balance calibration and flow angle ---
+    .optional(),
   ambient: z
     .strictObject({
       p_pa: positive('static pressure, Pa').optional(),
@@ -97,8 +118,13 @@ export interface Setup {
     loading: 'elliptic' | 'uniform';
   };
   tunnel: { name?: string; section: 'closed-rectangular'; width_m: number; height_m: number };
-  balance: { axes: 'wind' | 'body' };
-  flow: { gamma: number };
+  balance: {
+    axes: 'wind' | 'body';
+    /** Balance calibration: checked (inline, or read by the host), a path still to read, or null (loads in the run). */
+    calibration: Balance | CalibrationPath | null;
+  };
+  /** `upflow_deg`: flow angularity φ, positive up, applied before wall corrections (0 by default). */
+  flow: { gamma: number; upflow_deg: number };
   ambient: { p_pa?: number; t_c?: number; rh_pct?: number };
   corrections: {
     enabled: boolean;
@@ -178,8 +204,8 @@ export function validateSetup(file: string, json: unknown): SetupResult {
         loading: m.loading ?? 'elliptic',
       },
       tunnel: s.tunnel,
-      balance: s.balance,
-      flow: { gamma: s.flow?.gamma ?? 1.4 },
+      balance: { axes: s.balance.axes, calibration: setupCalibration(file, s.balance.axes, s.balance.calibration) },
+      flow: { gamma: s.flow?.gamma ?? 1.4, upflow_deg: s.flow?.upflow_deg ?? 0 },
       ambient: s.ambient ?? {},
       corrections: {
         enabled: c.enabled ?? true,
@@ -192,6 +218,15 @@ export function validateSetup(file: string, json: unknown): SetupResult {
       uncertainty: s.uncertainty ?? null,
     },
   };
+}
+
+/** The setup's calibration: an inline document checked here, a path kept for the host to read. */
+function setupCalibration(file: string, axes: 'wind' | 'body', c: string | Record<string, unknown> | undefined): Balance | CalibrationPath | null {
+  if (c === undefined) return null;
+  if (typeof c === 'string') return { path: c };
+  const b = validateBalance(file, c, 'balance.calibration.');
+  checkBalanceAxes(b, axes);
+  return b;
 }
 
 function round(x: number): string {
