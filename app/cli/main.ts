@@ -17,11 +17,15 @@ import { provenanceOf, reductionTime, type InputFile, type Provenance } from '..
 import type { ReductionResult } from '../../core/index.ts';
 import { writeFileAtomic } from '../files/atomic.ts';
 import { VERSION } from '../version.ts';
+// --- balance calibration, upflow, repeatability ---
+import { ANALYSIS_USAGE, AnalysisUsageError, balanceTransformFor, calibrateCommand, repeatCommand, upflowCommand } from './analysisCommands.ts';
+// --- end ---
 
 const USAGE = `usage:
   sweepbook reduce RUN.csv --setup SETUP.json [--tare WINDOFF.csv] [--format json|csv] [--out FILE] [--no-corrections]
   sweepbook project RUN.csv --setup SETUP.json --mass-kg M --wing-area-m2 S [--pressure-altitude-m H]
                     [--temp-c T | --isa-deviation-c D] [--rh-pct RH] [--cl-max X] [--lift-off-factor F] [--tare WINDOFF.csv]
+${ANALYSIS_USAGE}
   sweepbook --version`;
 
 class UsageError extends Error {}
@@ -40,9 +44,14 @@ export async function main(argv: string[], io = { stdout: process.stdout, stderr
     }
     if (command === 'reduce') return await reduceCommand(rest, io, say);
     if (command === 'project') return await projectCommand(rest, io, say);
+    // --- balance calibration, upflow, repeatability ---
+    if (command === 'calibrate') return await calibrateCommand(rest, io, say);
+    if (command === 'upflow') return await upflowCommand(rest, io, say);
+    if (command === 'repeat') return await repeatCommand(rest, io, say);
+    // --- end ---
     throw new UsageError(`unknown command "${command}"`);
   } catch (err) {
-    if (err instanceof UsageError || (err as { code?: string }).code?.startsWith('ERR_PARSE_ARGS')) {
+    if (err instanceof UsageError || err instanceof AnalysisUsageError || (err as { code?: string }).code?.startsWith('ERR_PARSE_ARGS')) {
       say(`sweepbook: ${(err as Error).message}`);
       say(USAGE);
       return 2;
@@ -108,9 +117,11 @@ async function loadAndReduce(
   const setup = readSetup(setupPath, setupText);
   if (!setup.ok) return failWith(say, setup.errors);
   const inputs: InputFile[] = [{ role: 'setup', name: basename(setupPath), sha256: createHash('sha256').update(setupText).digest('hex') }];
+  const transform = await balanceTransformFor(setupPath, setup.value); // balance calibration: raw bridge outputs → loads per sample
+  if (transform !== undefined && !('apply' in transform)) return failWith(say, [transform]);
   const read = async (path: string, role: 'run' | 'tare') => {
     const hash = createHash('sha256');
-    const r = await readRun(path, textStream(path, hash));
+    const r = await readRun(path, textStream(path, hash), undefined, transform);
     if (r.ok) inputs.push({ role, name: basename(path), sha256: hash.digest('hex') });
     return r;
   };
