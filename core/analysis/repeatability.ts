@@ -7,7 +7,7 @@
  * Matching: the points of all runs are sorted by α and grouped into angles, each group spanning at
  * most `alphaTolDeg` from its first point. Each run contributes its value interpolated linearly in α
  * to the group's mean α (between its own two nearest points), so small differences of the set angle
- * between runs are not counted as scatter (common practice). A run with no point in a group is left out
+ * between runs are not counted as scatter (common practice, no published source). A run with no point in a group is left out
  * of it; groups with fewer than two runs add nothing to the pooled value.
  */
 
@@ -114,14 +114,16 @@ function sortedRun(r: RepeatRun): SortedRun {
   return out;
 }
 
-/** Linear interpolation of a run's coefficient at α between its two nearest points (the end value beyond its range). */
+/**
+ * A run's coefficient at α, linear between its two nearest points; just beyond its first or last point
+ * (never farther than the matching tolerance) the end segment is extended. A single point is its own value.
+ */
 function interpolate(r: SortedRun, key: 'cl' | 'cd' | 'cm', alpha: number): number {
   const a = r.a;
   const y = r[key];
-  if (a.length === 1 || alpha <= a[0]!) return y[0]!;
-  if (alpha >= a[a.length - 1]!) return y[a.length - 1]!;
+  if (a.length === 1) return y[0]!;
   let hi = 1;
-  while (a[hi]! < alpha) hi++;
+  while (hi < a.length - 1 && a[hi]! < alpha) hi++;
   const lo = hi - 1;
   const t = (alpha - a[lo]!) / (a[hi]! - a[lo]!);
   return y[lo]! + t * (y[hi]! - y[lo]!);
