@@ -3,7 +3,7 @@
  * result or located errors out. Nothing here touches a file system.
  */
 import { attempt, InputError, type Outcome } from '../contract/messages.ts';
-import { reduce, type ReductionResult, type PointResult } from './pipeline.ts';
+import { reduce, reduceBases, type ReductionResult, type PointResult } from './pipeline.ts';
 import { RunFileReader, type ColumnMapping, type RunData } from '../formats/runFile.ts';
 import { parseSetup, type SetupResult } from '../setup/schema.ts';
 import { toCsv, type Cell } from '../formats/csvWriter.ts';
@@ -38,6 +38,16 @@ export function reduceRun(req: ReduceRequest): Outcome<ReductionResult> {
   return attempt(() =>
     reduce({ run: req.run, setup: req.setup.setup, setupWarnings: req.setup.warnings, tare: req.tare, noCorrections: req.noCorrections }),
   );
+}
+
+/** The corrected result and the as-measured one (corrections off) from one pass; the same object twice when the setup has corrections off. */
+export function reduceRunBothBases(req: ReduceRequest): Outcome<{ result: ReductionResult; asMeasured: ReductionResult }> {
+  return attempt(() => {
+    const input = { run: req.run, setup: req.setup.setup, setupWarnings: req.setup.warnings, tare: req.tare, noCorrections: req.noCorrections };
+    const on = req.setup.setup.corrections.enabled && !req.noCorrections;
+    const r = reduceBases(input, on ? ['corrected', 'measured'] : ['corrected']);
+    return { result: r.corrected!, asMeasured: r.measured ?? r.corrected! };
+  });
 }
 
 async function attemptAsync<T>(step: () => Promise<T>): Promise<Outcome<T>> {

@@ -8,7 +8,7 @@
  * scatter, (s/√n)²; instrument terms apply to the setup's ambient values too when a column is absent.
  */
 import type { Channel } from '../formats/channels.ts';
-import { measure, type MeasureGeometry, type PointInputs } from '../reduction/measurePoint.ts';
+import { evaluatePoint as measure, type PointGeometry as MeasureGeometry, type PointInputs } from '../reduction/pointChain.ts';
 import type { SetupInput } from '../setup/schema.ts';
 import type { TunnelPoint } from '../walls/types.ts';
 

@@ -4,6 +4,9 @@
  * Tunnel Testing, 3rd ed. (1999), §9.2–9.4.
  */
 import { MAX_VALIDATED_EPSILON, RAD, type CorrectedPoint, type TunnelPoint } from './types.ts';
+import type { Notice } from '../contract/messages.ts';
+import type { Setup } from '../setup/schema.ts';
+import type { WallMethod } from './method.ts';
 
 export interface Geometry2d {
   chord: number;
@@ -70,3 +73,39 @@ export function correct2d(p: TunnelPoint, g: Geometry2d): CorrectedPoint {
 export function exceedsValidatedBlockage(p: CorrectedPoint): boolean {
   return p.epsSolid + p.epsWake > MAX_VALIDATED_EPSILON;
 }
+
+/** The 2D geometry of a setup. */
+export function geometry2dOf(setup: Setup): Geometry2d {
+  return {
+    chord: setup.model.chord_m,
+    height: setup.tunnel.height_m,
+    width: setup.tunnel.width_m,
+    volume: setup.model.volume_m3,
+    k1: setup.corrections.solid_blockage_k,
+  };
+}
+
+/** Allen & Vincenti's corrections for a wing section spanning the test section (NACA Report 782; BRP §9). */
+export const wall2dMethod: WallMethod = {
+  id: '2d',
+  label: '2D wing spanning a closed section (Allen & Vincenti)',
+  source: 'Allen & Vincenti, NACA Report 782 (1944); Barlow, Rae & Pope, Low-Speed Wind Tunnel Testing, 3rd ed. (1999) §9',
+  accepts: (setup) => (setup.model.kind === '2d' ? undefined : 'the 2D corrections are for a wing spanning the test section (model.kind "2d")'),
+  prepare({ setup, points, hasPitch }) {
+    const g = geometry2dOf(setup);
+    const warnings: Notice[] = [];
+    if (g.volume === null) warnings.push({ field: 'model.volume_m3', message: 'not given: solid blockage is skipped (ε_solid = 0)' });
+    if (!hasPitch) warnings.push({ message: 'without a pitching moment the 2D angle correction uses the cl term alone' });
+    const correct = (p: TunnelPoint) => correct2d(p, g);
+    let over = 0;
+    for (const p of points) if (exceedsValidatedBlockage(correct(p))) over++;
+    if (over > 0) warnings.push({ message: `${over} point(s) have a total blockage ε above 0.1, outside the range where the 2D corrections are validated; results are given but treat them with caution` });
+    return {
+      method: '2d',
+      factors: { sigma: sigma2d(g.chord, g.height), delta: null, tau1: null, tau2: null, solid_blockage_k: g.k1 },
+      correct,
+      warnings,
+      fallback: null,
+    };
+  },
+};

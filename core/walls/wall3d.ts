@@ -7,7 +7,10 @@
 import { findLinearRange } from '../fits/characteristics.ts';
 import { liftInterferenceDelta, solidBlockageTau1, streamlineCurvatureTau2, type Loading } from './imageSums.ts';
 import { fitPolynomial } from '../fits/leastSquares.ts';
+import { sortedOrder } from '../physics/numbers.ts';
 import { MAX_VALIDATED_EPSILON, MAX_VALIDATED_SPAN_RATIO, RAD, type CorrectedPoint, type TunnelPoint, type WallFactors } from './types.ts';
+import type { Setup } from '../setup/schema.ts';
+import type { PreparedWall, WallInput, WallMethod } from './method.ts';
 
 export interface Geometry3d {
   area: number;
@@ -53,6 +56,8 @@ export interface Correction3dResult {
   warnings: string[];
   /** What was fixed for the run: reused to correct perturbed points in the uncertainty propagation. */
   context: Context3d;
+  /** Set when Maskell's wake blockage was asked for but the classic one had to be used, with the reason. */
+  maskellFallback: string | null;
 }
 
 /** Run-level quantities of the 3D corrections: the factors, the solid blockage, the wake model, the curvature slope. */
@@ -113,7 +118,7 @@ export function correctPoint3d(p: TunnelPoint, ctx: Context3d): CorrectedPoint {
  * wake term its drag polar, so the whole run is corrected together).
  * @param scatter standard error of each point's CL from its sample scatter, for the linear-range rule
  */
-export function correct3d(points: TunnelPoint[], scatter: number[], g: Geometry3d): Correction3dResult {
+export function correct3d(points: readonly TunnelPoint[], scatter: readonly number[], g: Geometry3d): Correction3dResult {
   const warnings: string[] = [];
   const f = factors3d(g);
   const C = g.width * g.height;
@@ -128,6 +133,7 @@ export function correct3d(points: TunnelPoint[], scatter: number[], g: Geometry3
   else epsSolid = (g.k * f.tau1 * g.volume) / Math.pow(C, 1.5); // BRP eq. 10.2
 
   let maskellPolar: Context3d['maskellPolar'] = null;
+  let maskellFallback: string | null = null;
   if (g.wake === 'maskell') {
     const order = sortedOrder(points.map((p) => p.alphaDeg));
     const a = order.map((i) => points[i]!.alphaDeg);
@@ -136,8 +142,10 @@ export function correct3d(points: TunnelPoint[], scatter: number[], g: Geometry3
     const polar = range
       ? fitPolynomial(cl.slice(range.from, range.to).map((c) => c * c), order.slice(range.from, range.to).map((i) => points[i]!.cd), 1)
       : undefined;
-    if (!polar) warnings.push('Maskell wake blockage needs an attached-flow drag polar, and none could be fitted: the classic wake blockage is used instead');
-    else maskellPolar = { cd0: polar[0]!, k: polar[1]! };
+    if (!polar) {
+      maskellFallback = 'Maskell wake blockage needs an attached-flow drag polar, and none could be fitted: the classic wake blockage is used instead';
+      warnings.push(maskellFallback);
+    } else maskellPolar = { cd0: polar[0]!, k: polar[1]! };
   }
 
   // lift-curve slope of the blockage- and upwash-corrected data, for the curvature terms
@@ -168,10 +176,58 @@ export function correct3d(points: TunnelPoint[], scatter: number[], g: Geometry3
     factors: { sigma: null, delta: f.delta, tau1: f.tau1, tau2: f.tau2, solid_blockage_k: g.k },
     warnings,
     context,
+    maskellFallback,
   };
 }
 
-/** Indices that sort the values ascending (stable). */
-export function sortedOrder(values: number[]): number[] {
-  return values.map((v, i) => ({ v, i })).sort((x, y) => x.v - y.v || x.i - y.i).map((x) => x.i);
+/** The 3D geometry of a setup (closed rectangular section). */
+export function geometry3dOf(setup: Setup, wake: 'classic' | 'maskell'): Geometry3d {
+  return {
+    area: setup.model.area_m2,
+    span: setup.model.span_m,
+    chord: setup.model.chord_m,
+    width: setup.tunnel.width_m,
+    height: setup.tunnel.height_m,
+    volume: setup.model.volume_m3,
+    k: setup.corrections.solid_blockage_k,
+    loading: setup.model.loading,
+    wake,
+    delta: setup.corrections.delta,
+    tau1: setup.corrections.tau1,
+    tau2: setup.corrections.tau2,
+  };
 }
+
+function prepare3d(input: WallInput, wake: 'classic' | 'maskell'): PreparedWall {
+  const res = correct3d(input.points, input.clScatter, geometry3dOf(input.setup, wake));
+  const ctx = res.context;
+  return {
+    method: ctx.maskellPolar ? '3d-maskell' : '3d-classic',
+    factors: res.factors,
+    correct: (p) => correctPoint3d(p, ctx),
+    warnings: res.warnings.map((message) => ({ message })),
+    fallback: res.maskellFallback ? { requested: '3d-maskell', reason: res.maskellFallback } : null,
+  };
+}
+
+const accepts3d = (setup: Setup): string | undefined =>
+  setup.model.kind === '3d' ? undefined : 'the 3D corrections are for a model in the test section (model.kind "3d")';
+
+/** 3D corrections with the classic wake blockage (S/4C)·CD_u: Barlow, Rae & Pope 3rd ed. §10; Glauert R&M 1566. */
+export const classic3dMethod: WallMethod = {
+  id: '3d-classic',
+  label: '3D, closed rectangular section, classic wake blockage',
+  source: 'Barlow, Rae & Pope, Low-Speed Wind Tunnel Testing, 3rd ed. (1999) §10; Glauert, ARC R&M 1566 (1933)',
+  accepts: accepts3d,
+  prepare: (input) => prepare3d(input, 'classic'),
+};
+
+/** 3D corrections with Maskell's separated-flow wake blockage (ARC R&M 3400); classic when no attached polar can be fitted. */
+export const maskell3dMethod: WallMethod = {
+  id: '3d-maskell',
+  label: '3D, closed rectangular section, Maskell wake blockage',
+  source: 'Maskell, ARC R&M 3400 (1963); Barlow, Rae & Pope 3rd ed. §10; Glauert, ARC R&M 1566 (1933)',
+  accepts: accepts3d,
+  prepare: (input) => prepare3d(input, 'maskell'),
+};
+

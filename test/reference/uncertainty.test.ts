@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import type { Channel } from '../../core/formats/channels.ts';
-import type { MeasureGeometry, PointInputs } from '../../core/reduction/measurePoint.ts';
+import type { PointGeometry as MeasureGeometry, PointInputs } from '../../core/reduction/pointChain.ts';
 import { evaluate, propagatePoint, type Correct, type UncertaintySpec } from '../../core/uncertainty/propagation.ts';
 import { correct2d } from '../../core/walls/wall2d.ts';
 import { correct3d, correctPoint3d } from '../../core/walls/wall3d.ts';
-import { measure } from '../../core/reduction/measurePoint.ts';
+import { evaluatePoint as measure } from '../../core/reduction/pointChain.ts';
 import { normal } from '../support/random.ts';
 
 
