@@ -111,7 +111,7 @@ describe('outputs_from_loads: loads by the recommended-practice iteration', () =
     const s = loadsFromOutputs(truth, outputsFromLoads(truth, F));
     expect(s.ok && s.loads.map((x, k) => x - F[k]!).every((d) => Math.abs(d) < 1e-9)).toBe(true);
   });
-  it('zero outputs above the natural zeros give zero loads, in one step', () => {
+  it('zero outputs above the natural zeros give zero loads', () => {
     const s = loadsFromOutputs(truth, truth.zeros);
     expect(s).toMatchObject({ ok: true, loads: [0, 0, 0] });
   });
