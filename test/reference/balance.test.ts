@@ -200,3 +200,40 @@ describe('matrix helpers', () => {
     expect(leastSquares([[1, 2], [2, 4], [3, 6]], [[1, 2, 3]]).dependentColumn).toBe(1);
   });
 });
+
+describe('robustness (property tests, fast-check)', () => {
+  it('any JSON value as a balance document gives a checked balance or a message naming a field, never a crash', async () => {
+    const fc = (await import('fast-check')).default;
+    const doc = base();
+    const mutated = fc.record({
+      key: fc.constantFrom('format', 'version', 'loads', 'load_units', 'outputs', 'natural_zeros', 'form', 'linear', 'quadratic', 'fit', 'note', 'extra'),
+      value: fc.jsonValue(),
+    });
+    fc.assert(
+      fc.property(fc.array(mutated, { maxLength: 3 }), (changes) => {
+        const d: Record<string, unknown> = JSON.parse(JSON.stringify(doc));
+        for (const c of changes) d[c.key] = c.value;
+        try {
+          validateBalance('b.json', d);
+        } catch (e) {
+          if (!(e instanceof InputError)) throw e;
+          expect(e.notice.file).toBe('b.json');
+          expect(e.notice.field).toBeTruthy();
+        }
+      }),
+      { numRuns: 400, seed: 13 },
+    );
+  });
+  it('any outputs give loads or a reason, never a crash or a non-finite load', async () => {
+    const fc = (await import('fast-check')).default;
+    const truth = parseBalance('truth.json', truthText);
+    fc.assert(
+      fc.property(fc.array(fc.double({ min: -1e6, max: 1e6, noNaN: false }), { minLength: 3, maxLength: 3 }), (R) => {
+        const s = loadsFromOutputs(truth, R);
+        if (s.ok) s.loads.forEach((x) => expect(Number.isFinite(x)).toBe(true));
+        else expect(s.reason.length).toBeGreaterThan(10);
+      }),
+      { numRuns: 400, seed: 14 },
+    );
+  });
+});
