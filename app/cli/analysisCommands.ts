@@ -7,9 +7,10 @@
  *   sweepbook repeat RUN1.csv RUN2.csv … --setup S [--tare T] [--alpha-tol-deg X]
  * Standard output carries only the JSON document; messages go to standard error.
  */
+import { createHash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
 import { readFile, stat } from 'node:fs/promises';
-import { dirname, isAbsolute, join, resolve } from 'node:path';
+import { basename, dirname, isAbsolute, join, resolve } from 'node:path';
 import { StringDecoder } from 'node:string_decoder';
 import { parseArgs } from 'node:util';
 import {
@@ -30,6 +31,7 @@ import {
   zeroLiftAngle,
   type Balance,
   type BalanceForm,
+  type InputFile,
   type Notice,
   type ReductionResult,
   type RunData,
@@ -60,7 +62,7 @@ function fail(say: Say, errors: Notice[]): number {
  * balance file named by path relative to the setup file (read here, checked against balance.axes, and
  * put in the setup in place of its path). Undefined when the run holds loads.
  */
-export async function balanceTransformFor(setupPath: string, setup: SetupResult): Promise<SampleTransform | undefined | Notice> {
+export async function balanceTransformFor(setupPath: string, setup: SetupResult, inputs?: InputFile[]): Promise<SampleTransform | undefined | Notice> {
   const c = setup.setup.balance.calibration;
   if (c === null) return undefined;
   let balance: Balance;
@@ -79,6 +81,7 @@ export async function balanceTransformFor(setupPath: string, setup: SetupResult)
     });
     if (!parsed.ok) return parsed.errors[0]!;
     balance = parsed.value;
+    inputs?.push({ role: 'balance', name: basename(path), sha256: createHash('sha256').update(text).digest('hex') });
     setup.setup.balance.calibration = balance;
   } else {
     balance = c;

@@ -117,7 +117,7 @@ async function loadAndReduce(
   const setup = readSetup(setupPath, setupText);
   if (!setup.ok) return failWith(say, setup.errors);
   const inputs: InputFile[] = [{ role: 'setup', name: basename(setupPath), sha256: createHash('sha256').update(setupText).digest('hex') }];
-  const transform = await balanceTransformFor(setupPath, setup.value); // balance calibration: raw bridge outputs → loads per sample
+  const transform = await balanceTransformFor(setupPath, setup.value, inputs); // balance calibration: raw bridge outputs → loads per sample
   if (transform !== undefined && !('apply' in transform)) return failWith(say, [transform]);
   const read = async (path: string, role: 'run' | 'tare') => {
     const hash = createHash('sha256');

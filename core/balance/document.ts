@@ -211,3 +211,14 @@ export function checkBalanceAxes(b: Balance, axes: 'wind' | 'body'): void {
     });
   }
 }
+
+/**
+ * What a result's provenance records of a setup's calibration: the file it came from and the
+ * document's form, names, zeros and matrices (without the calibration's residual tables); a path not
+ * yet read stays a path; none stays null.
+ */
+export function calibrationRecord(c: Balance | { path: string } | null): unknown {
+  if (c === null || 'path' in c) return c;
+  const { fit: _fit, ...doc } = c.doc;
+  return { source: c.fieldPrefix ? 'inline' : c.file.replace(/^.*[\\/]/, ''), ...doc };
+}

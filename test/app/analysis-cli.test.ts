@@ -4,6 +4,7 @@
  * error, exit codes. The calibration is compared with numpy.linalg.lstsq (test/fixtures/balance/
  * generate.py); the upflow pair is made here with a known upflow following the data contract's model.
  */
+import { createHash } from 'node:crypto';
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
@@ -60,6 +61,11 @@ describe('sweepbook reduce with a balance file beside the setup', () => {
     const doc = JSON.parse(raw.stdout);
     expect(doc.points).toHaveLength(15);
     expect(doc.points[0].samples).toBe(20);
+    // provenance names the balance file by its SHA-256 and records its matrices (not its residual tables)
+    const sha = createHash('sha256').update(readFileSync(S('balance-b3.json'))).digest('hex');
+    expect(doc.provenance.inputs).toContainEqual({ role: 'balance', name: 'balance-b3.json', sha256: sha });
+    expect(doc.provenance.setup.balance.calibration).toMatchObject({ source: 'balance-b3.json', form: 'outputs_from_loads', outputs: ['r1', 'r2', 'r3'] });
+    expect(doc.provenance.setup.balance.calibration.fit).toBeUndefined();
     const loads = JSON.parse((await runCli('reduce', S('run-101-clean.csv'), '--setup', S('setup-3d.json'), '--tare', S('windoff-tare.csv'))).stdout);
     // invented from the same curves with different noise: the lift-curve slope and CD0 agree within their scatter
     expect(Math.abs(doc.fit.cl_alpha_per_deg - loads.fit.cl_alpha_per_deg)).toBeLessThan(0.002);
