@@ -44,9 +44,7 @@ type Say = (line: string) => void;
 type Out = { stdout: NodeJS.WritableStream };
 
 /** A wrong command line: main.ts prints it with the usage and exits 2. */
-export class AnalysisUsageError extends Error {
-  readonly code = 'ERR_PARSE_ARGS_ANALYSIS';
-}
+export class AnalysisUsageError extends Error {}
 
 export const ANALYSIS_USAGE = `  sweepbook calibrate LOADINGS.csv --loads L1,L2,… --outputs R1,R2,… [--form outputs_from_loads|loads_from_outputs] [--linear-only] --out BALANCE.json
   sweepbook upflow UPRIGHT.csv INVERTED.csv --setup SETUP.json [--tare WINDOFF.csv] [--tare-inverted WINDOFF-INV.csv]
