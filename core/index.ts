@@ -17,6 +17,7 @@ export * from './physics/units.ts';
 export * from './reduction/engine.ts';
 export * from './reduction/pipeline.ts';
 export * from './setup/schema.ts';
+export * from './setup/fields.ts';
 // --- balance calibration, flow angle, repeatability ---
 export * from './balance/document.ts';
 export * from './balance/convert.ts';

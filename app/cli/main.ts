@@ -1,8 +1,8 @@
 /**
- * Command line (DESIGN §3.3):
+ * Command line (docs/data-format.md §7):
  *   sweepbook reduce RUN.csv --setup SETUP.json [--tare WINDOFF.csv] [--format json|csv] [--out FILE] [--no-corrections]
  * Standard output carries only the document; messages go to standard error. Exit 0 on success,
- * 1 on input that cannot be reduced, 2 on a wrong command line.
+ * 1 on input that cannot be reduced, 2 on a wrong command line, 3 on an internal error (§7.1).
  */
 import { createHash, type Hash } from 'node:crypto';
 import { createReadStream } from 'node:fs';

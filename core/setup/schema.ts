@@ -1,12 +1,23 @@
 /**
- * The setup file (data contract v1, DESIGN §3.2): model geometry, tunnel section, balance axes, gas,
- * ambient defaults, wall-correction choices. Validated with zod; every problem names its field.
+ * The setup file (docs/data-format.md §4): model geometry, tunnel section, balance axes, gas, ambient
+ * defaults, wall-correction choices. Described once, here: each field's validation, default and
+ * metadata (label, unit, help; the sane range is its zod check) live in one entry, and from them come
+ * the `Setup` type, the window's setup form (core/setup/fields.ts), docs/setup.md and
+ * docs/setup.schema.json (`npm run docs:setup`). Validated with zod; every problem names its field.
+ *
+ * Adding a field is adding one entry to its block below, with `.meta({ label, unit, help })` and a
+ * `.default(...)` that keeps existing setups unchanged (DEVELOPERS.md, "Adding a setup field").
  */
 import { z } from 'zod';
 import { InputError, type Notice } from '../contract/messages.ts';
+import './fieldMeta.ts';
 import { checkBalanceAxes, validateBalance, type Balance } from '../balance/document.ts';
 
-const positive = (what: string) => z.number({ error: `expected a number (${what})` }).finite().positive({ error: `expected a positive number (${what})` });
+const positive = (what: string) =>
+  z
+    .number({ error: `expected a number (${what})` })
+    .finite()
+    .positive({ error: `expected a positive number (${what})` });
 const finite = (what: string) => z.number({ error: `expected a number (${what})` }).finite();
 /**
  * Geometry within a sanity range (common sense, no published source): no wind-tunnel model or test section
@@ -19,125 +30,247 @@ const geometry = (what: string, unit: 'm' | 'm²' | 'm³') => {
   const error = `expected ${lo} to ${hi} ${unit} (${what})`;
   return positive(`${what}, ${unit}`).min(lo, { error }).max(hi, { error });
 };
-const optionalFactor = (what: string) => z.number({ error: `expected a number or null (${what})` }).finite().nullable().optional();
+/** A number within a sane range; out of range, the message gives the range (not just "expected a number"). */
+const inRange = (what: string, lo: number, hi: number, unit: string) => {
+  const error = unit ? `expected ${lo} to ${hi}${unit}` : `expected ${lo} to ${hi} (${what})`;
+  return finite(what).min(lo, { error }).max(hi, { error });
+};
+/** A standard uncertainty: zero or more. */
+const uncertainty = (what: string) => finite(what).nonnegative({ error: `expected zero or more (${what})` });
+/** A wall-correction factor: a number overrides, `null` (the default) means computed for this tunnel and model. */
+const optionalFactor = (what: string) =>
+  z
+    .number({ error: `expected a number or null (${what})` })
+    .finite()
+    .nullable()
+    .default(null);
 
-const modelSchema = z.strictObject({
-  kind: z.enum(['2d', '3d'], { error: 'expected "2d" (a wing spanning the tunnel) or "3d"' }),
-  name: z.string().optional(),
-  area_m2: geometry('reference area', 'm²').optional(),
-  chord_m: geometry('reference chord', 'm'),
-  span_m: geometry('span', 'm').optional(),
-  volume_m3: geometry('model volume', 'm³').nullable().optional(),
-  moment_ref_offset_m: z
-    .strictObject({ x: finite('metres toward the nose'), z: finite('metres up') })
-    .optional(),
-  loading: z.enum(['elliptic', 'uniform'], { error: 'expected "elliptic" or "uniform"' }).optional(),
+const modelSchema = z
+  .strictObject({
+    kind: z.enum(['2d', '3d'], { error: 'expected "2d" (a wing spanning the tunnel) or "3d"' }).meta({
+      label: 'Model',
+      details: '`2d`: a wing section spanning the tunnel width. `3d`: a model in the closed section; needs `area_m2`, `chord_m` and `span_m`.',
+      choices: { '3d': '3D model in the closed section', '2d': '2D wing spanning the section' },
+    }),
+    name: z.string().optional().meta({ label: 'Name', details: 'For people; not used by the reduction.' }),
+    area_m2: geometry('reference area', 'm²').optional().meta({
+      label: 'Reference area S',
+      unit: 'm²',
+      help: '3D only; a 2D model uses chord × tunnel width',
+      details: 'Required for a 3D model. For a 2D model the reference area is chord × tunnel width; a value that disagrees gets a warning and is not used.',
+    }),
+    chord_m: geometry('reference chord', 'm').meta({
+      label: 'Reference chord c',
+      unit: 'm',
+      details: 'Reynolds number and the pitching-moment coefficient are based on it.',
+    }),
+    span_m: geometry('span', 'm')
+      .optional()
+      .meta({ label: 'Span b', unit: 'm', help: '3D only', details: 'Required for a 3D model; a 2D model spans the tunnel width.' }),
+    volume_m3: geometry('model volume', 'm³')
+      .nullable()
+      .default(null)
+      .meta({
+        label: 'Model volume',
+        unit: 'm³',
+        help: 'for solid blockage; empty skips it',
+        details: 'Without it solid blockage is skipped, with a warning.',
+      }),
+    moment_ref_offset_m: z
+      .strictObject({
+        x: finite('metres toward the nose').meta({
+          label: 'Moment reference ahead of balance centre, x',
+          unit: 'm',
+          details:
+            'The moment reference centre relative to the balance moment centre, x toward the nose, z up: M_ref = M_bmc − N·x − A·z (body axes). For a 2D model put it at the quarter chord.',
+        }),
+        z: finite('metres up').meta({
+          label: 'Moment reference above balance centre, z',
+          unit: 'm',
+          details: 'Up is the lift direction at zero angle of attack.',
+        }),
+      })
+      .default({ x: 0, z: 0 }),
+    loading: z
+      .enum(['elliptic', 'uniform'], { error: 'expected "elliptic" or "uniform"' })
+      .default('elliptic')
+      .meta({ label: 'Span loading', help: 'for the computed lift-interference factor δ', form: false }),
+    // ── model fields added by later work go below this line, one entry each ──
+  })
+  .meta({ group: 'Model' });
+
+const tunnelSchema = z
+  .strictObject({
+    name: z.string().optional().meta({ label: 'Tunnel name', help: 'for people; not used by the reduction', form: false }),
+    section: z
+      .literal('closed-rectangular', { error: 'expected "closed-rectangular" (the only section supported so far)' })
+      .meta({ label: 'Test section', help: 'the shape and walls of the test section', form: false }),
+    width_m: geometry('test-section width', 'm').meta({ label: 'Test-section width B', unit: 'm', details: 'Along the model span.' }),
+    height_m: geometry('test-section height', 'm').meta({ label: 'Test-section height H', unit: 'm' }),
+    // ── tunnel fields added by later work go below this line, one entry each ──
+  })
+  .meta({ group: 'Tunnel' });
+
+const balanceSchema = z
+  .strictObject({
+    axes: z.enum(['wind', 'body'], { error: 'expected "wind" (lift/drag columns) or "body" (normal/axial columns)' }).meta({
+      label: 'Balance axes',
+      choices: { wind: 'wind axes (lift, drag)', body: 'body axes (normal, axial)' },
+    }),
+    // ── balance fields added by later work go below this line, one entry each ──
+    calibration: z
+      .union([z.string().min(1), z.record(z.string(), z.unknown())], {
+        error: 'expected the path of a balance file (relative to the setup file) or a balance document',
+      })
+      .optional()
+      .meta({
+        label: 'Balance calibration',
+        help: 'raw bridge outputs: a balance file beside the setup, or the document inline',
+        details:
+          'The path of a balance file (relative to the setup file) or the same document inline (docs/data-format.md, "Balance file"). The run and its tare then hold bridge outputs; every sample is converted to loads before averaging.',
+        form: false,
+      }),
+  })
+  .meta({ group: 'Balance' });
+
+const flowSchema = z
+  .strictObject({
+    gamma: inRange('ratio of specific heats', 1.0001, 2, '').default(1.4).meta({ label: 'Ratio of specific heats γ', unit: '–', form: false }),
+    // ── flow fields added by later work go below this line, one entry each ──
+    upflow_deg: inRange('upflow angle, positive up', -10, 10, '°')
+      .default(0)
+      .meta({
+        label: 'Upflow φ',
+        unit: 'deg',
+        help: 'flow angularity, positive up; measured by sweepbook upflow',
+        details: 'Applied before the wall corrections: α += φ, and lift and drag are resolved to the flow, L = L′cos φ − D′sin φ, D = D′cos φ + L′sin φ.',
+      }),
+  })
+  .prefault({})
+  .meta({ group: 'Flow' });
+
+const ambientSchema = z
+  .strictObject({
+    p_pa: positive('static pressure, Pa').optional().meta({ label: 'Static pressure p', unit: 'Pa' }),
+    t_c: inRange('°C', -100, 200, ' °C').optional().meta({ label: 'Stagnation temperature T₀', unit: '°C' }),
+    rh_pct: inRange('%', 0, 100, ' %').optional().meta({ label: 'Relative humidity', unit: '%' }),
+  })
+  .prefault({})
+  .meta({ group: 'Ambient (when the run has no column)', details: 'Used for a run file that lacks the `p_static`, `t_total` or `rh` column.' });
+
+const correctionsSchema = z
+  .strictObject({
+    enabled: z
+      .boolean({ error: 'expected true or false' })
+      .default(true)
+      .meta({ label: 'Apply wall corrections', details: "The command line's `--no-corrections` turns them off for one run." }),
+    wake: z
+      .enum(['classic', 'maskell'], { error: 'expected "classic" or "maskell"' })
+      .default('classic')
+      .meta({
+        label: 'Wake blockage',
+        details: "Maskell's separated-flow blockage applies to 3D models.",
+        choices: { classic: 'classic', maskell: 'Maskell' },
+      }),
+    solid_blockage_k: z
+      .number({ error: 'expected a number or null (solid-blockage shape factor)' })
+      .finite()
+      .nullable()
+      .optional()
+      .meta({
+        label: 'Solid-blockage shape factor K',
+        unit: '–',
+        help: 'empty: 0.96 (3D) or 0.74 (2D)',
+        defaultText: '0.74 (2D), 0.96 (3D)',
+        formKind: 'auto-number',
+      }),
+    delta: optionalFactor('lift-interference factor δ').meta({
+      label: 'Lift-interference factor δ',
+      unit: '–',
+      help: 'empty: computed for this tunnel and model',
+      formKind: 'auto-number',
+    }),
+    tau1: optionalFactor('solid-blockage tunnel factor τ1').meta({
+      label: 'Solid-blockage tunnel factor τ1',
+      unit: '–',
+      help: 'empty: computed',
+      formKind: 'auto-number',
+    }),
+    tau2: optionalFactor('streamline-curvature factor τ2').meta({
+      label: 'Streamline-curvature factor τ2',
+      unit: '–',
+      help: 'empty: computed',
+      formKind: 'auto-number',
+    }),
+    // ── correction fields added by later work go below this line, one entry each ──
+  })
+  .prefault({})
+  .meta({ group: 'Wall corrections', details: 'Methods and the factors computed when a factor is null: docs/methods.md §6 and §7.' });
+
+const uncertaintySchema = z
+  .strictObject({
+    dp_pitot_pa: uncertainty('Pa')
+      .optional()
+      .meta({ label: 'Pitot differential pressure', unit: 'Pa', help: 'all empty: no uncertainties, fits unweighted' }),
+    p_static_pa: uncertainty('Pa').optional().meta({ label: 'Static pressure', unit: 'Pa' }),
+    t_total_c: uncertainty('K or °C difference').optional().meta({ label: 'Stagnation temperature', unit: 'K' }),
+    rh_pct: uncertainty('% RH').optional().meta({ label: 'Relative humidity', unit: '% RH' }),
+    force_n: uncertainty('N').optional().meta({ label: 'Each balance force', unit: 'N' }),
+    moment_nm: uncertainty('N m').optional().meta({ label: 'Pitching moment', unit: 'N m' }),
+    alpha_deg: uncertainty('deg').optional().meta({ label: 'Angle of attack', unit: 'deg' }),
+    area_rel: uncertainty('relative, e.g. 0.002')
+      .optional()
+      .meta({ label: 'Reference area, relative', unit: '–', help: 'a fraction: 0.002 for 0.2 %' }),
+    chord_rel: uncertainty('relative, e.g. 0.002')
+      .optional()
+      .meta({ label: 'Reference chord, relative', unit: '–', help: 'a fraction: 0.002 for 0.2 %' }),
+  })
+  .optional()
+  .meta({
+    group: 'Instrument uncertainties (standard, k = 1; optional)',
+    details:
+      'Standard uncertainties (k = 1) of the instruments. With the block every point carries `u_*` fields and the fits are weighted (docs/methods.md §9); an instrument uncertainty applies to the `ambient` value too when the column is absent.',
+  });
+
+export const setupSchema = z.strictObject({
+  $schema: z.string().optional().meta({ label: 'JSON Schema', help: 'for editors: the path or address of setup.schema.json; ignored', form: false }),
+  note: z.string().optional().meta({ label: 'Note', help: 'free text; not used by the reduction', form: false }),
+  model: modelSchema,
+  tunnel: tunnelSchema,
+  balance: balanceSchema,
+  flow: flowSchema,
+  ambient: ambientSchema,
+  corrections: correctionsSchema,
+  uncertainty: uncertaintySchema,
+  // ── blocks added by later work go below this line ──
 });
 
-const tunnelSchema = z.strictObject({
-  name: z.string().optional(),
-  section: z.literal('closed-rectangular', { error: 'expected "closed-rectangular" (the only section supported so far)' }),
-  width_m: geometry('test-section width', 'm'),
-  height_m: geometry('test-section height', 'm'),
-});
+/** The setup file as written (every field with a default may be left out). */
+export type SetupInput = z.input<typeof setupSchema>;
+type Parsed = z.output<typeof setupSchema>;
+type Simplify<T> = { [K in keyof T]: T[K] } & {};
 
-const uncertaintySchema = z.strictObject({
-  dp_pitot_pa: finite('Pa').nonnegative().optional(),
-  p_static_pa: finite('Pa').nonnegative().optional(),
-  t_total_c: finite('K or °C difference').nonnegative().optional(),
-  rh_pct: finite('% RH').nonnegative().optional(),
-  force_n: finite('N').nonnegative().optional(),
-  moment_nm: finite('N m').nonnegative().optional(),
-  alpha_deg: finite('deg').nonnegative().optional(),
-  area_rel: finite('relative, e.g. 0.002').nonnegative().optional(),
-  chord_rel: finite('relative, e.g. 0.002').nonnegative().optional(),
-});
+/**
+ * The setup with defaults filled in; what the engine works from. Derived from the schema; only what
+ * depends on other fields is stated here: a 2D model's area and span (chord × tunnel width, tunnel
+ * width), the shape factor K by model kind, and `uncertainty` null when the block is absent.
+ */
+export type Setup = Simplify<
+  Omit<Parsed, '$schema' | 'model' | 'corrections' | 'uncertainty' | 'balance'> & {
+    /** `calibration`: checked (inline, or read by the host), a path still to read, or null (the run holds loads). */
+    balance: Simplify<Omit<Parsed['balance'], 'calibration'> & { calibration: Balance | CalibrationPath | null }>;
+    model: Simplify<Omit<Parsed['model'], 'area_m2' | 'span_m'> & { area_m2: number; span_m: number }>;
+    corrections: Simplify<Omit<Parsed['corrections'], 'solid_blockage_k'> & { solid_blockage_k: number }>;
+    uncertainty: Parsed['uncertainty'] | null;
+  }
+>;
 
-// --- balance calibration: a balance file's path (relative to the setup file) or the document inline ---
-const calibrationSchema = z.union([z.string().min(1), z.record(z.string(), z.unknown())], {
-  error: 'expected the path of a balance file (relative to the setup file) or a balance document',
-});
 /** A balance calibration named by path, still to be read by the host (core reads no files). */
 export interface CalibrationPath {
   path: string;
 }
-// --- end of balance calibration ---
 
-export const setupSchema = z.strictObject({
-  $schema: z.string().optional(),
-  note: z.string().optional(),
-  model: modelSchema,
-  tunnel: tunnelSchema,
-  balance: z.strictObject({
-    axes: z.enum(['wind', 'body'], { error: 'expected "wind" (lift/drag columns) or "body" (normal/axial columns)' }),
-    // --- balance calibration and flow angle (raw bridge outputs; upflow) ---
-    calibration: calibrationSchema.optional(),
-  }),
-  flow: z
-    .strictObject({
-      gamma: finite('ratio of specific heats').min(1.0001).max(2).optional(),
-      upflow_deg: finite('upflow angle, degrees, positive up').min(-10, { error: 'expected −10 to 10 degrees (upflow angle)' }).max(10, { error: 'expected −10 to 10 degrees (upflow angle)' }).optional(),
-    })
-    // --- end of balance calibration and flow angle ---
-    .optional(),
-  ambient: z
-    .strictObject({
-      p_pa: positive('static pressure, Pa').optional(),
-      t_c: finite('°C').min(-100).max(200).optional(),
-      rh_pct: finite('%').min(0).max(100).optional(),
-    })
-    .optional(),
-  corrections: z
-    .strictObject({
-      enabled: z.boolean({ error: 'expected true or false' }).optional(),
-      wake: z.enum(['classic', 'maskell'], { error: 'expected "classic" or "maskell"' }).optional(),
-      solid_blockage_k: optionalFactor('solid-blockage shape factor'),
-      delta: optionalFactor('lift-interference factor δ'),
-      tau1: optionalFactor('solid-blockage tunnel factor τ1'),
-      tau2: optionalFactor('streamline-curvature factor τ2'),
-    })
-    .optional(),
-  uncertainty: uncertaintySchema.optional(),
-});
-
-export type SetupInput = z.infer<typeof setupSchema>;
-
-/** The setup with defaults filled in; what the engine works from. */
-export interface Setup {
-  note?: string;
-  model: {
-    kind: '2d' | '3d';
-    name?: string;
-    /** Reference area used for coefficients, m² (chord × tunnel width for 2D). */
-    area_m2: number;
-    chord_m: number;
-    /** Model span (3D) or tunnel width (2D), m. */
-    span_m: number;
-    volume_m3: number | null;
-    moment_ref_offset_m: { x: number; z: number };
-    loading: 'elliptic' | 'uniform';
-  };
-  tunnel: { name?: string; section: 'closed-rectangular'; width_m: number; height_m: number };
-  balance: {
-    axes: 'wind' | 'body';
-    /** Balance calibration: checked (inline, or read by the host), a path still to read, or null (loads in the run). */
-    calibration: Balance | CalibrationPath | null;
-  };
-  /** `upflow_deg`: flow angularity φ, positive up, applied before wall corrections (0 by default). */
-  flow: { gamma: number; upflow_deg: number };
-  ambient: { p_pa?: number; t_c?: number; rh_pct?: number };
-  corrections: {
-    enabled: boolean;
-    wake: 'classic' | 'maskell';
-    solid_blockage_k: number;
-    delta: number | null;
-    tau1: number | null;
-    tau2: number | null;
-  };
-  uncertainty: SetupInput['uncertainty'] | null;
-}
-
-/** Default solid-blockage shape factors: Barlow, Rae & Pope 3rd ed. §9.2 (K1 = 0.74, wing spanning the tunnel) and §10.1 (typical wing/body, 0.96 as in DESIGN §3.2). */
+/** Default solid-blockage shape factors: Barlow, Rae & Pope 3rd ed. §9.2 (K1 = 0.74, wing spanning the tunnel) and §10.1 (typical wing/body, 0.96). */
 export const DEFAULT_SOLID_BLOCKAGE_K = { '2d': 0.74, '3d': 0.96 } as const;
 
 export interface SetupResult {
@@ -167,7 +300,7 @@ export function validateSetup(file: string, json: unknown): SetupResult {
     const issue = parsed.error.issues[0]!;
     throw new InputError({ file, field: fieldPath(issue.path) || '(top level)', message: describeIssue(issue, json) });
   }
-  const s = parsed.data;
+  const { $schema: _editorHint, ...s } = parsed.data;
   const warnings: Notice[] = [];
   const m = s.model;
   let area: number;
@@ -188,33 +321,13 @@ export function validateSetup(file: string, json: unknown): SetupResult {
     area = m.area_m2;
     span = m.span_m;
   }
-  const c = s.corrections ?? {};
   return {
     warnings,
     setup: {
-      note: s.note,
-      model: {
-        kind: m.kind,
-        name: m.name,
-        area_m2: area,
-        chord_m: m.chord_m,
-        span_m: span,
-        volume_m3: m.volume_m3 ?? null,
-        moment_ref_offset_m: m.moment_ref_offset_m ?? { x: 0, z: 0 },
-        loading: m.loading ?? 'elliptic',
-      },
-      tunnel: s.tunnel,
-      balance: { axes: s.balance.axes, calibration: setupCalibration(file, s.balance.axes, s.balance.calibration) },
-      flow: { gamma: s.flow?.gamma ?? 1.4, upflow_deg: s.flow?.upflow_deg ?? 0 },
-      ambient: s.ambient ?? {},
-      corrections: {
-        enabled: c.enabled ?? true,
-        wake: c.wake ?? 'classic',
-        solid_blockage_k: c.solid_blockage_k ?? DEFAULT_SOLID_BLOCKAGE_K[m.kind],
-        delta: c.delta ?? null,
-        tau1: c.tau1 ?? null,
-        tau2: c.tau2 ?? null,
-      },
+      ...s,
+      model: { ...m, area_m2: area, span_m: span },
+      balance: { ...s.balance, calibration: setupCalibration(file, s.balance.axes, s.balance.calibration) },
+      corrections: { ...s.corrections, solid_blockage_k: s.corrections.solid_blockage_k ?? DEFAULT_SOLID_BLOCKAGE_K[m.kind] },
       uncertainty: s.uncertainty ?? null,
     },
   };
@@ -253,7 +366,7 @@ function knownKeys(path: ReadonlyArray<PropertyKey>): string[] {
 
 function unwrap(schema: z.ZodType): z.ZodType {
   let s: z.ZodType = schema;
-  while (s instanceof z.ZodOptional || s instanceof z.ZodNullable) s = s.unwrap() as z.ZodType;
+  while (s instanceof z.ZodOptional || s instanceof z.ZodNullable || s instanceof z.ZodDefault || s instanceof z.ZodPrefault) s = s.unwrap() as z.ZodType;
   return s;
 }
 
@@ -268,7 +381,9 @@ function describeIssue(issue: z.core.$ZodIssue, json: unknown): string {
   // (fuzz finding: "chord_m": "0.2" read as missing); look the value up in the parsed JSON instead
   if (issue.code === 'invalid_type') {
     const found = valueAt(json, issue.path);
-    return found.present ? `${issue.message}, not ${describeValue(found.value)}` : `missing; ${issue.message}`;
+    // a block (model, tunnel, ...) has no message of its own; zod's default reads "Invalid input: expected object, received null"
+    const expected = issue.expected === 'object' ? 'expected an object of fields, { ... }' : issue.message;
+    return found.present ? `${expected}, not ${describeValue(found.value)}` : `missing; ${expected}`;
   }
   return issue.message;
 }

@@ -47,7 +47,7 @@ const GUESSES: [RegExp, Assignment][] = [
 export function guessAssignment(name: string): Assignment {
   const key = name.trim().toLowerCase();
   if (key === 'point' || isChannel(key)) return key as Assignment;
-  const bare = key.replace(/[\s_.\-]+/g, '');
+  const bare = key.replace(/[\s_.-]+/g, '');
   for (const [re, a] of GUESSES) if (re.test(bare)) return a;
   return 'ignore';
 }

@@ -7,18 +7,18 @@ import { csvLine, toCsv, type Cell } from '../../../core/index.ts';
 import { POINT_COLUMNS, pointsCsv } from '../../../core/index.ts';
 import type { FitResult } from '../../../core/index.ts';
 import type { ReductionResult } from '../../../core/index.ts';
-import { CAUTION, provenanceLines, type Provenance } from './provenance.ts';
+import { CAUTION, exportProvenanceLines, type ExportProvenance } from './provenance.ts';
 
 /** Comment lines ("# key: value"), each one CSV cell so commas or formula characters inside stay harmless. */
-export function provenanceCsv(p: Provenance): string {
-  return [...provenanceLines(p), CAUTION].map((l) => csvLine([`# ${l}`])).join('\n') + '\n';
+export function provenanceCsv(p: ExportProvenance): string {
+  return [...exportProvenanceLines(p), CAUTION].map((l) => csvLine([`# ${l}`])).join('\n') + '\n';
 }
 
 /**
  * The point table of one run: the export's own lines, then exactly what the command line writes for the
  * same run (core's provenance lines and the table).
  */
-export function pointsCsvExport(p: Provenance, result: ReductionResult): string {
+export function pointsCsvExport(p: ExportProvenance, result: ReductionResult): string {
   const record = p.runs[0]?.record;
   const own = provenanceCsv({ ...p, runs: [] });
   return own + pointsCsv(result, record);
@@ -66,7 +66,7 @@ export function fitRows(sources: readonly FitSource[]): { header: string[]; rows
   return { header, rows };
 }
 
-export function fitsCsvExport(p: Provenance, sources: readonly FitSource[]): string {
+export function fitsCsvExport(p: ExportProvenance, sources: readonly FitSource[]): string {
   const { header, rows } = fitRows(sources);
   return provenanceCsv(p) + toCsv(header, rows);
 }

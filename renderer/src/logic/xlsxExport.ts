@@ -6,7 +6,7 @@ import writeXlsxFile, { type Sheet, type SheetData } from 'write-excel-file/brow
 import { escapeFormula, type Cell } from '../../../core/index.ts';
 import { withZipTimestamps } from './zipTimestamps.ts';
 import { fitRows, pointRows, type FitSource } from './exportTables.ts';
-import { CAUTION, provenanceLines, type Provenance } from './provenance.ts';
+import { CAUTION, exportProvenanceLines, type ExportProvenance } from './provenance.ts';
 
 /** Text cells a spreadsheet might treat as a formula are escaped as in the CSV export (OWASP, "CSV Injection"); numbers stay numbers. */
 function cellValue(c: Cell): Cell | null {
@@ -28,7 +28,7 @@ export function sheetName(text: string, used: Set<string>): string {
   return name;
 }
 
-export function workbookSheets(p: Provenance, sources: readonly FitSource[]): Sheet<Blob>[] {
+export function workbookSheets(p: ExportProvenance, sources: readonly FitSource[]): Sheet<Blob>[] {
   const used = new Set<string>();
   const sheets: Sheet<Blob>[] = [];
   const fits = fitRows(sources);
@@ -37,13 +37,13 @@ export function workbookSheets(p: Provenance, sources: readonly FitSource[]): Sh
     const pts = pointRows(s.result);
     sheets.push({ sheet: sheetName(`Points ${s.name}`, used), data: sheetRows(pts.header, pts.rows) });
   }
-  const prov = [...provenanceLines(p), CAUTION].map((l) => [l]);
+  const prov = [...exportProvenanceLines(p), CAUTION].map((l) => [l]);
   sheets.push({ sheet: sheetName('Provenance', used), data: sheetRows(['provenance'], prov), columns: [{ width: 120 }] });
   return sheets;
 }
 
 /** The workbook's bytes; its ZIP entries are stamped with the export time, so the same content gives the same bytes. */
-export async function workbookBytes(p: Provenance, sources: readonly FitSource[]): Promise<Uint8Array> {
+export async function workbookBytes(p: ExportProvenance, sources: readonly FitSource[]): Promise<Uint8Array> {
   const blob = await writeXlsxFile(workbookSheets(p, sources)).toBlob();
   const when = new Date(p.exportedAt);
   const bytes = new Uint8Array(await blob.arrayBuffer());
