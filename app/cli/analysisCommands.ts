@@ -145,7 +145,8 @@ export async function calibrateCommand(args: string[], io: Out, say: Say): Promi
   if (!values.outputs) throw new AnalysisUsageError('calibrate needs --outputs R1,R2,… (the bridge-output columns)');
   if (!values.out) throw new AnalysisUsageError('calibrate needs --out BALANCE.json');
   const form = values.form as BalanceForm;
-  if (form !== 'outputs_from_loads' && form !== 'loads_from_outputs') throw new AnalysisUsageError(`--form must be outputs_from_loads or loads_from_outputs, not "${values.form}"`);
+  if (form !== 'outputs_from_loads' && form !== 'loads_from_outputs')
+    throw new AnalysisUsageError(`--form must be outputs_from_loads or loads_from_outputs, not "${values.form}"`);
   const path = positionals[0]!;
   if (resolve(values.out) === resolve(path) || (await sameInode(values.out, path))) {
     throw new AnalysisUsageError(`--out ${values.out} is the loadings file; raw files are never overwritten, choose another name`);
@@ -156,17 +157,25 @@ export async function calibrateCommand(args: string[], io: Out, say: Say): Promi
   } catch (err) {
     return fail(say, [{ file: path, message: describeFsError(err) }]);
   }
-  const split = (s: string) => s.split(',').map((x) => x.trim()).filter((x) => x !== '');
+  const split = (s: string) =>
+    s
+      .split(',')
+      .map((x) => x.trim())
+      .filter((x) => x !== '');
   const fitted = attempt(() => fitCalibration(parseLoadings(path, text, split(values.loads!), split(values.outputs!)), form, values['linear-only']));
   if (!fitted.ok) return fail(say, fitted.errors);
   const f = fitted.value;
   for (const w of f.warnings) say(`warning: ${formatNotice(w)}`);
   const doc = f.document;
   await writeFileAtomic(values.out, JSON.stringify(doc, null, 2) + '\n');
-  say(`${doc.form}${values['linear-only'] ? ' (linear only)' : ''} from ${doc.fit!['loadings']} loadings, ${doc.fit!['terms_per_equation']} terms per equation:`);
+  say(
+    `${doc.form}${values['linear-only'] ? ' (linear only)' : ''} from ${doc.fit!['loadings']} loadings, ${doc.fit!['terms_per_equation']} terms per equation:`,
+  );
   doc.loads.forEach((l, k) => {
-    const pct = (v: unknown) => ((v as (number | null)[])[k] === null ? '—' : `${((v as number[])[k]!).toFixed(3)} %`);
-    say(`  ${l.padEnd(7)} residual SD ${f.residualSd[k]!.toPrecision(3)} ${doc.load_units[k]} (${pct(doc.fit!['residual_sd_pct'])} of ${f.largestLoad[k]} ${doc.load_units[k]}), largest ${f.residualMax[k]!.toPrecision(3)} ${doc.load_units[k]} (${pct(doc.fit!['residual_max_pct'])})`);
+    const pct = (v: unknown) => ((v as (number | null)[])[k] === null ? '—' : `${(v as number[])[k]!.toFixed(3)} %`);
+    say(
+      `  ${l.padEnd(7)} residual SD ${f.residualSd[k]!.toPrecision(3)} ${doc.load_units[k]} (${pct(doc.fit!['residual_sd_pct'])} of ${f.largestLoad[k]} ${doc.load_units[k]}), largest ${f.residualMax[k]!.toPrecision(3)} ${doc.load_units[k]} (${pct(doc.fit!['residual_max_pct'])})`,
+    );
   });
   say(`wrote ${values.out}`);
   void io;
@@ -188,10 +197,13 @@ export async function upflowCommand(args: string[], io: Out, say: Say): Promise<
   const warnings: string[] = [];
   // zero-lift angles from uncorrected data, and with no upflow already applied
   if (s.setup.setup.flow.upflow_deg !== 0) {
-    warnings.push(`${values.setup}: flow.upflow_deg ${s.setup.setup.flow.upflow_deg} is not applied here; the upflow is measured from the runs as the tunnel gave them`);
+    warnings.push(
+      `${values.setup}: flow.upflow_deg ${s.setup.setup.flow.upflow_deg} is not applied here; the upflow is measured from the runs as the tunnel gave them`,
+    );
     s.setup.setup.flow.upflow_deg = 0;
   }
-  if (values.tare && !values['tare-inverted']) warnings.push('no --tare-inverted: the inverted run is reduced without a tare (the upright tare does not apply to the inverted model)');
+  if (values.tare && !values['tare-inverted'])
+    warnings.push('no --tare-inverted: the inverted run is reduced without a tare (the upright tare does not apply to the inverted model)');
   const runs: [string, string | undefined][] = [
     [positionals[0]!, values.tare],
     [positionals[1]!, values['tare-inverted']],
@@ -204,9 +216,15 @@ export async function upflowCommand(args: string[], io: Out, say: Say): Promise<
     const range = r.fit.linear_range_deg;
     if (!range) return fail(say, [{ file: run, message: 'no linear range of the lift curve was found, so its zero-lift angle cannot be measured' }]);
     const inRange = r.points.filter((p) => p.alpha_uncorrected_deg >= range[0] - 1e-9 && p.alpha_uncorrected_deg <= range[1] + 1e-9);
-    const z = zeroLiftAngle(inRange.map((p) => p.alpha_uncorrected_deg), inRange.map((p) => p.cl_uncorrected));
+    const z = zeroLiftAngle(
+      inRange.map((p) => p.alpha_uncorrected_deg),
+      inRange.map((p) => p.cl_uncorrected),
+    );
     if (!z) return fail(say, [{ file: run, message: `the lift curve's linear range (${range[0]}° to ${range[1]}°) has too few points for a zero-lift angle` }]);
-    if (z.alphaDeg < z.rangeDeg[0] - 2 || z.alphaDeg > z.rangeDeg[1] + 2) warnings.push(`${run}: the zero-lift angle ${z.alphaDeg.toFixed(2)}° lies outside the fitted range ${z.rangeDeg[0].toFixed(1)}° to ${z.rangeDeg[1].toFixed(1)}° (an extrapolation)`);
+    if (z.alphaDeg < z.rangeDeg[0] - 2 || z.alphaDeg > z.rangeDeg[1] + 2)
+      warnings.push(
+        `${run}: the zero-lift angle ${z.alphaDeg.toFixed(2)}° lies outside the fitted range ${z.rangeDeg[0].toFixed(1)}° to ${z.rangeDeg[1].toFixed(1)}° (an extrapolation)`,
+      );
     angles.push(z);
   }
   const result = upflowFromPair(angles[0]!, angles[1]!);
@@ -275,7 +293,9 @@ export async function repeatCommand(args: string[], io: Out, say: Say): Promise<
   };
   io.stdout.write(JSON.stringify(doc, null, 2) + '\n');
   const f = (x: number | null) => (x === null ? '—' : x.toPrecision(2));
-  say(`pooled repeatability (1 SD, ${rep.degrees_of_freedom} degrees of freedom): CL ${f(rep.pooled_sd_cl)}, CD ${f(rep.pooled_sd_cd)}, Cm ${f(rep.pooled_sd_cm)}`);
+  say(
+    `pooled repeatability (1 SD, ${rep.degrees_of_freedom} degrees of freedom): CL ${f(rep.pooled_sd_cl)}, CD ${f(rep.pooled_sd_cd)}, Cm ${f(rep.pooled_sd_cm)}`,
+  );
   return 0;
 }
 

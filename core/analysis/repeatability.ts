@@ -74,12 +74,23 @@ export function repeatability(runs: readonly RepeatRun[], alphaTolDeg = DEFAULT_
     if (members.length >= 2) dof += members.length - 1;
     points.push(point);
   }
-  if (doubled > 0) warnings.push(`${doubled} angle(s) hold more than one point of the same run (a return sweep, or points closer than ${alphaTolDeg}°): each run counts once there, at its interpolated value`);
+  if (doubled > 0)
+    warnings.push(
+      `${doubled} angle(s) hold more than one point of the same run (a return sweep, or points closer than ${alphaTolDeg}°): each run counts once there, at its interpolated value`,
+    );
   const lone = points.filter((p) => p.n_runs < 2).length;
   if (lone > 0) warnings.push(`${lone} angle(s) were reached by one run only and add nothing to the pooled scatter`);
   const pooled = (key: 'cl' | 'cd' | 'cm') => (acc[key].dof > 0 ? Math.sqrt(acc[key].ss / acc[key].dof) : null);
   if (runs.length < 2) warnings.push('repeatability needs at least two runs');
-  return { pooled_sd_cl: pooled('cl'), pooled_sd_cd: pooled('cd'), pooled_sd_cm: pooled('cm'), degrees_of_freedom: dof, alpha_tol_deg: alphaTolDeg, points, warnings };
+  return {
+    pooled_sd_cl: pooled('cl'),
+    pooled_sd_cd: pooled('cd'),
+    pooled_sd_cm: pooled('cm'),
+    degrees_of_freedom: dof,
+    alpha_tol_deg: alphaTolDeg,
+    points,
+    warnings,
+  };
 }
 
 interface SortedRun {

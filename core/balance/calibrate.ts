@@ -16,7 +16,16 @@ import { InputError, type Notice } from '../contract/messages.ts';
 import { CHANNELS, type Channel } from '../formats/channels.ts';
 import { detectDelimiter, parseCell, splitHeaderCell } from '../formats/runFile.ts';
 import { lookupUnit, unitsOf } from '../physics/units.ts';
-import { BALANCE_FORMAT, BALANCE_LOAD_CHANNELS, quadraticTermCount, quadraticTermNames, quadraticTerms, validateBalance, type BalanceDocument, type BalanceForm } from './document.ts';
+import {
+  BALANCE_FORMAT,
+  BALANCE_LOAD_CHANNELS,
+  quadraticTermCount,
+  quadraticTermNames,
+  quadraticTerms,
+  validateBalance,
+  type BalanceDocument,
+  type BalanceForm,
+} from './document.ts';
 import { loadsFromOutputs } from './convert.ts';
 import { leastSquares, type Matrix } from './matrix.ts';
 
@@ -57,12 +66,14 @@ export function parseLoadings(file: string, text: string, loadNames: readonly st
   const header = (Papa.parse<string[]>(lines[h]!, { delimiter }).data[0] ?? []).map((c) => splitHeaderCell(c.trim()));
   const find = (name: string, what: string): number => {
     const i = header.findIndex((c) => c.name.toLowerCase() === name.trim().toLowerCase());
-    if (i < 0) throw new InputError({ file, line: headerLine, message: `no column "${name}" (${what}); the header has ${header.map((c) => `"${c.name}"`).join(', ')}` });
+    if (i < 0)
+      throw new InputError({ file, line: headerLine, message: `no column "${name}" (${what}); the header has ${header.map((c) => `"${c.name}"`).join(', ')}` });
     return i;
   };
   const loads = loadNames.map((n) => {
     const c = n.trim().toLowerCase();
-    if (!BALANCE_LOAD_CHANNELS.includes(c as Channel)) throw new InputError({ file, message: `--loads: "${n}" is not a load; expected one of ${BALANCE_LOAD_CHANNELS.join(', ')}` });
+    if (!BALANCE_LOAD_CHANNELS.includes(c as Channel))
+      throw new InputError({ file, message: `--loads: "${n}" is not a load; expected one of ${BALANCE_LOAD_CHANNELS.join(', ')}` });
     return c as Channel;
   });
   if (new Set(loads).size !== loads.length) throw new InputError({ file, message: '--loads names a load twice' });
@@ -74,7 +85,12 @@ export function parseLoadings(file: string, text: string, loadNames: readonly st
     const conv = lookupUnit(unit);
     const quantity = CHANNELS[ch].quantity;
     if (!conv || conv.quantity !== quantity) {
-      throw new InputError({ file, line: headerLine, column: loadCols[k]! + 1, message: `column "${header[loadCols[k]!]!.name}" has unit "${unit}"; a ${ch} load needs a ${quantity} unit: ${unitsOf(quantity).join(', ')}` });
+      throw new InputError({
+        file,
+        line: headerLine,
+        column: loadCols[k]! + 1,
+        message: `column "${header[loadCols[k]!]!.name}" has unit "${unit}"; a ${ch} load needs a ${quantity} unit: ${unitsOf(quantity).join(', ')}`,
+      });
     }
     return unit;
   });
@@ -92,7 +108,12 @@ export function parseLoadings(file: string, text: string, loadNames: readonly st
     const r = outCols.map(take);
     const badAt = [...loadCols, ...outCols].find((col) => !Number.isFinite(take(col)));
     if (badAt !== undefined) {
-      warnings.push({ file, line: i + 1, column: badAt + 1, message: `loading skipped: "${(cells[badAt] ?? '').trim()}" in column "${header[badAt]!.name}" is not a number` });
+      warnings.push({
+        file,
+        line: i + 1,
+        column: badAt + 1,
+        message: `loading skipped: "${(cells[badAt] ?? '').trim()}" in column "${header[badAt]!.name}" is not a number`,
+      });
       continue;
     }
     applied.push(f);
@@ -131,7 +152,10 @@ export function fitCalibration(l: Loadings, form: BalanceForm, linearOnly = fals
   const nl = l.loads.length;
   const no = l.outputs.length;
   if (form === 'outputs_from_loads' && nl !== no) {
-    throw new InputError({ file: l.file, message: `${no} outputs for ${nl} loads; the outputs_from_loads form needs one output per load (or use --form loads_from_outputs)` });
+    throw new InputError({
+      file: l.file,
+      message: `${no} outputs for ${nl} loads; the outputs_from_loads form needs one output per load (or use --form loads_from_outputs)`,
+    });
   }
   if (no < nl) throw new InputError({ file: l.file, message: `${no} outputs cannot determine ${nl} loads` });
   // natural zeros: mean outputs of the zero-load loadings
@@ -150,7 +174,10 @@ export function fitCalibration(l: Loadings, form: BalanceForm, linearOnly = fals
   const p = width + nq;
   const n = design.length;
   if (n <= p) {
-    throw new InputError({ file: l.file, message: `${n} loadings cannot determine ${p} terms per ${form === 'loads_from_outputs' ? 'load' : 'output'} with residuals to spare; apply more loadings${linearOnly ? '' : ' or use --linear-only'}` });
+    throw new InputError({
+      file: l.file,
+      message: `${n} loadings cannot determine ${p} terms per ${form === 'loads_from_outputs' ? 'load' : 'output'} with residuals to spare; apply more loadings${linearOnly ? '' : ' or use --linear-only'}`,
+    });
   }
   const ys = results[0]!.map((_, i) => results.map((r) => r[i]!));
   const ls = leastSquares(design, ys);
@@ -184,7 +211,11 @@ export function fitCalibration(l: Loadings, form: BalanceForm, linearOnly = fals
   const residualMax = l.loads.map((_, k) => Math.max(...residuals.map((r) => Math.abs(r[k]!))));
   const largestLoad = l.loads.map((_, k) => Math.max(...l.applied.map((f) => Math.abs(f[k]!))));
   const pct = (v: number[]) => v.map((x, k) => (largestLoad[k]! > 0 ? (100 * x) / largestLoad[k]! : null));
-  const note = [l.metadata['balance'] ? `balance ${l.metadata['balance']}` : null, `fitted by least squares from ${n} loadings in ${l.file.replace(/^.*[\\/]/, '')}`, l.metadata['note'] ?? null]
+  const note = [
+    l.metadata['balance'] ? `balance ${l.metadata['balance']}` : null,
+    `fitted by least squares from ${n} loadings in ${l.file.replace(/^.*[\\/]/, '')}`,
+    l.metadata['note'] ?? null,
+  ]
     .filter(Boolean)
     .join('; ');
   const document: BalanceDocument = {

@@ -87,7 +87,12 @@ export function parseBalance(file: string, text: string): Balance {
   } catch (err) {
     const pos = jsonErrorOffset(body) ?? 0;
     const before = body.slice(0, pos);
-    throw new InputError({ file, line: before.split('\n').length, column: pos - before.lastIndexOf('\n'), message: `not valid JSON (${(err as Error).message})` });
+    throw new InputError({
+      file,
+      line: before.split('\n').length,
+      column: pos - before.lastIndexOf('\n'),
+      message: `not valid JSON (${(err as Error).message})`,
+    });
   }
   return validateBalance(file, json);
 }
@@ -114,11 +119,12 @@ export function validateBalance(file: string, json: unknown, fieldPrefix = ''): 
       if (typeof s !== 'string' || s.trim() === '') fail(`${key}[${i}]`, 'expected a name (text)');
     });
     const seen = new Set<string>();
-    if (unique) v.forEach((s: string, i) => {
-      const k = s.trim().toLowerCase();
-      if (seen.has(k)) fail(`${key}[${i}]`, `"${s}" appears twice`);
-      seen.add(k);
-    });
+    if (unique)
+      v.forEach((s: string, i) => {
+        const k = s.trim().toLowerCase();
+        if (seen.has(k)) fail(`${key}[${i}]`, `"${s}" appears twice`);
+        seen.add(k);
+      });
     return (v as string[]).map((s) => s.trim());
   };
   const loads = strings('loads').map((l, i) => {
@@ -132,7 +138,10 @@ export function validateBalance(file: string, json: unknown, fieldPrefix = ''): 
     const conv = lookupUnit(u);
     const quantity = CHANNELS[loads[i]!].quantity;
     if (!conv || conv.quantity !== quantity) {
-      fail(`load_units[${i}]`, `"${u}" is ${conv ? `a ${conv.quantity} unit` : 'not a known unit'}; "${loads[i]}" needs a ${quantity} unit: ${unitsOf(quantity).join(', ')}`);
+      fail(
+        `load_units[${i}]`,
+        `"${u}" is ${conv ? `a ${conv.quantity} unit` : 'not a known unit'}; "${loads[i]}" needs a ${quantity} unit: ${unitsOf(quantity).join(', ')}`,
+      );
     }
     return conv!;
   });
@@ -141,7 +150,8 @@ export function validateBalance(file: string, json: unknown, fieldPrefix = ''): 
   if (form !== 'loads_from_outputs' && form !== 'outputs_from_loads') return fail('form', 'expected "loads_from_outputs" or "outputs_from_loads"');
   const nl = loads.length;
   const no = outputs.length;
-  if (form === 'outputs_from_loads' && nl !== no) fail('outputs', `${no} outputs for ${nl} loads; the outputs_from_loads form is solved for the loads and needs as many outputs as loads`);
+  if (form === 'outputs_from_loads' && nl !== no)
+    fail('outputs', `${no} outputs for ${nl} loads; the outputs_from_loads form is solved for the loads and needs as many outputs as loads`);
   if (form === 'loads_from_outputs' && no < nl) fail('outputs', `${no} outputs cannot determine ${nl} loads`);
   const zeros = d['natural_zeros'] === undefined ? new Array<number>(no).fill(0) : numbers(d['natural_zeros'], 'natural_zeros', no, fail);
   // rows: one per result (loads, or outputs); columns: one per argument (outputs, or loads)
@@ -149,17 +159,28 @@ export function validateBalance(file: string, json: unknown, fieldPrefix = ''): 
   const matrix = (key: string, width: number, widthWhat: string): Matrix => {
     const v = d[key];
     if (!Array.isArray(v)) return fail(key, `expected a list of ${rows} rows (one per ${rowWhat.slice(0, -1)})`);
-    if (v.length !== rows) fail(key, `${v.length} rows; the ${form} form needs ${rows}, one per ${rowWhat.slice(0, -1)} (${(form === 'loads_from_outputs' ? loads : outputs).join(', ')})`);
+    if (v.length !== rows)
+      fail(
+        key,
+        `${v.length} rows; the ${form} form needs ${rows}, one per ${rowWhat.slice(0, -1)} (${(form === 'loads_from_outputs' ? loads : outputs).join(', ')})`,
+      );
     return v.map((row, i) => numbers(row, `${key}[${i}]`, width, fail, widthWhat));
   };
   const linear = matrix('linear', cols, `one per ${colWhat.slice(0, -1)}`);
   const nq = quadraticTermCount(cols);
-  const quadraticRaw = d['quadratic'] === undefined || d['quadratic'] === null ? null : matrix('quadratic', nq, `the products of the ${cols} ${colWhat} taken two at a time, x1², x1x2, …, x${cols}²`);
+  const quadraticRaw =
+    d['quadratic'] === undefined || d['quadratic'] === null
+      ? null
+      : matrix('quadratic', nq, `the products of the ${cols} ${colWhat} taken two at a time, x1², x1x2, …, x${cols}²`);
   const quadratic = quadraticRaw && quadraticRaw.some((r) => r.some((x) => x !== 0)) ? quadraticRaw : null;
   let linearInverse: Matrix | undefined;
   if (form === 'outputs_from_loads') {
     linearInverse = invert(linear);
-    if (!linearInverse) fail('linear', 'the linear matrix is singular (a load that moves no bridge, or two bridges that see the same load); the loads cannot be solved from the outputs');
+    if (!linearInverse)
+      fail(
+        'linear',
+        'the linear matrix is singular (a load that moves no bridge, or two bridges that see the same load); the loads cannot be solved from the outputs',
+      );
   } else if (!hasFullRowRank(linear)) {
     fail('linear', 'the linear matrix is singular (its rows are not independent), so some loads are combinations of others');
   }

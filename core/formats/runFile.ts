@@ -382,7 +382,10 @@ export class RunFileReader {
     const raw = t.inputs.map((n) => bound.find((b) => b.raw?.toLowerCase() === n.toLowerCase()));
     const missing = t.inputs.filter((_, i) => raw[i] === undefined);
     if (missing.length > 0) {
-      this.fail({ line: this.line, message: `missing column${missing.length > 1 ? 's' : ''} ${missing.map((m) => `"${m}"`).join(', ')} (bridge output${missing.length > 1 ? 's' : ''} named by ${t.source})` });
+      this.fail({
+        line: this.line,
+        message: `missing column${missing.length > 1 ? 's' : ''} ${missing.map((m) => `"${m}"`).join(', ')} (bridge output${missing.length > 1 ? 's' : ''} named by ${t.source})`,
+      });
     }
     const channels = bound.filter((b) => b.raw === undefined);
     channels.forEach((b, i) => (b.slot = i));
@@ -757,7 +760,11 @@ function clip(cell: string): string {
 const IDENTITY: UnitConversion = { ...defaultConversion('alpha'), scale: 1, offset: 0, label: 'as written' };
 
 /** Read a whole run file held in memory (tests, the browser host's small files). */
-export function readRunText(file: string, text: string, options?: { mapping?: ColumnMapping; limits?: Partial<ReaderLimits>; sampleTransform?: SampleTransform }): RunData {
+export function readRunText(
+  file: string,
+  text: string,
+  options?: { mapping?: ColumnMapping; limits?: Partial<ReaderLimits>; sampleTransform?: SampleTransform },
+): RunData {
   const reader = new RunFileReader(file, options);
   reader.push(text);
   return reader.finish();

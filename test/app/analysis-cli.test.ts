@@ -27,14 +27,33 @@ describe('sweepbook calibrate', () => {
     expect(r.stderr).toMatch(/axial +residual SD/);
     const doc = JSON.parse(readFileSync(out, 'utf8'));
     const want = JSON.parse(readFileSync(FIX('expected.json'), 'utf8')).fits.outputs_from_loads;
-    expect(doc).toMatchObject({ format: 'sweepbook-balance', version: 1, loads: ['normal', 'axial', 'pitch'], load_units: ['N', 'N', 'N m'], outputs: ['r1', 'r2', 'r3'], form: 'outputs_from_loads' });
+    expect(doc).toMatchObject({
+      format: 'sweepbook-balance',
+      version: 1,
+      loads: ['normal', 'axial', 'pitch'],
+      load_units: ['N', 'N', 'N m'],
+      outputs: ['r1', 'r2', 'r3'],
+      form: 'outputs_from_loads',
+    });
     doc.fit.residual_sd.forEach((x: number, k: number) => expect(Math.abs(x / want.residual_sd[k] - 1)).toBeLessThan(1e-7));
     doc.fit.residual_max.forEach((x: number, k: number) => expect(Math.abs(x / want.residual_max[k] - 1)).toBeLessThan(1e-7));
     expect(doc.fit.residual_sd_pct).toHaveLength(3);
   });
   it('fits the direct form with --form loads_from_outputs and a linear balance with --linear-only', async () => {
     const out = join(dir(), 'lin.json');
-    const r = await runCli('calibrate', FIX('loadings.csv'), '--loads', 'normal,axial,pitch', '--outputs', 'r1,r2,r3', '--form', 'loads_from_outputs', '--linear-only', '--out', out);
+    const r = await runCli(
+      'calibrate',
+      FIX('loadings.csv'),
+      '--loads',
+      'normal,axial,pitch',
+      '--outputs',
+      'r1,r2,r3',
+      '--form',
+      'loads_from_outputs',
+      '--linear-only',
+      '--out',
+      out,
+    );
     expect(r.code).toBe(0);
     const doc = JSON.parse(readFileSync(out, 'utf8'));
     expect(doc.form).toBe('loads_from_outputs');
@@ -42,7 +61,9 @@ describe('sweepbook calibrate', () => {
   });
   it('refuses a wrong command line with exit 2, and never writes over the loadings', async () => {
     expect((await runCli('calibrate', FIX('loadings.csv'), '--loads', 'normal', '--outputs', 'r1')).code).toBe(2);
-    expect((await runCli('calibrate', FIX('loadings.csv'), '--loads', 'normal', '--outputs', 'r1', '--form', 'both', '--out', join(dir(), 'x.json'))).code).toBe(2);
+    expect(
+      (await runCli('calibrate', FIX('loadings.csv'), '--loads', 'normal', '--outputs', 'r1', '--form', 'both', '--out', join(dir(), 'x.json'))).code,
+    ).toBe(2);
     const r = await runCli('calibrate', FIX('loadings.csv'), '--loads', 'normal,axial,pitch', '--outputs', 'r1,r2,r3', '--out', FIX('loadings.csv'));
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/never overwritten/);
@@ -62,7 +83,9 @@ describe('sweepbook reduce with a balance file beside the setup', () => {
     expect(doc.points).toHaveLength(15);
     expect(doc.points[0].samples).toBe(20);
     // provenance names the balance file by its SHA-256 and records its matrices (not its residual tables)
-    const sha = createHash('sha256').update(readFileSync(S('balance-b3.json'))).digest('hex');
+    const sha = createHash('sha256')
+      .update(readFileSync(S('balance-b3.json')))
+      .digest('hex');
     expect(doc.provenance.inputs).toContainEqual({ role: 'balance', name: 'balance-b3.json', sha256: sha });
     expect(doc.provenance.setup.balance.calibration).toMatchObject({ source: 'balance-b3.json', form: 'outputs_from_loads', outputs: ['r1', 'r2', 'r3'] });
     expect(doc.provenance.setup.balance.calibration.fit).toBeUndefined();
@@ -100,7 +123,10 @@ function pair(phiDeg: number, seed: number): [string, string] {
   const d = dir();
   const z = normal(seed);
   const files: string[] = [];
-  for (const [name, sign] of [['up.csv', 1], ['inv.csv', -1]] as const) {
+  for (const [name, sign] of [
+    ['up.csv', 1],
+    ['inv.csv', -1],
+  ] as const) {
     const lines = ['# run: ' + name, 'alpha [deg],dp_pitot [Pa],lift [N],drag [N]'];
     const phi = (sign * phiDeg * Math.PI) / 180;
     for (let a = -6; a <= 6; a += 1) {
@@ -121,7 +147,11 @@ function pair(phiDeg: number, seed: number): [string, string] {
 }
 
 describe('sweepbook upflow', () => {
-  for (const [phi, seed] of [[0.35, 1], [-0.6, 2], [1.2, 3]] as const) {
+  for (const [phi, seed] of [
+    [0.35, 1],
+    [-0.6, 2],
+    [1.2, 3],
+  ] as const) {
     it(`recovers an upflow of ${phi}° within 0.01° from an upright/inverted pair, with its uncertainty`, async () => {
       const [up, inv] = pair(phi, seed);
       const r = await runCli('upflow', up, inv, '--setup', S('setup-3d.json'));

@@ -51,7 +51,9 @@ run('upflow, repeats and balance in a real browser', () => {
   });
 
   it('draws the ± 2 s repeatability band around the chosen run', async () => {
-    await expect.poll(() => page.getByTestId('repeat-pooled').textContent(), { timeout: 20_000 }).toMatch(/Pooled standard deviation \(1 s, 75 degrees of freedom\): CL 0\.00\d+/);
+    await expect
+      .poll(() => page.getByTestId('repeat-pooled').textContent(), { timeout: 20_000 })
+      .toMatch(/Pooled standard deviation \(1 s, 75 degrees of freedom\): CL 0\.00\d+/);
     expect(await ink(page, '[data-plot="repeat-cl"] canvas')).toBeGreaterThan(2000);
   });
 

@@ -35,7 +35,13 @@ describe('zero-lift angle and upflow against numpy', () => {
 
 describe('pooled repeatability of six repeats against numpy', () => {
   it('pooled SD of CL, CD and Cm equal numpy’s to 1e-12, with 5 × angles degrees of freedom', () => {
-    const runs = ref.repeat.runs.map((r: { alpha: number[]; cl: number[]; cd: number[]; cm: number[] }, i: number) => ({ name: `R${i}`, alphaDeg: r.alpha, cl: r.cl, cd: r.cd, cm: r.cm }));
+    const runs = ref.repeat.runs.map((r: { alpha: number[]; cl: number[]; cd: number[]; cm: number[] }, i: number) => ({
+      name: `R${i}`,
+      alphaDeg: r.alpha,
+      cl: r.cl,
+      cd: r.cd,
+      cm: r.cm,
+    }));
     const r = repeatability(runs);
     expect(rel(r.pooled_sd_cl!, ref.repeat.pooled_sd.cl)).toBeLessThan(1e-12);
     expect(rel(r.pooled_sd_cd!, ref.repeat.pooled_sd.cd)).toBeLessThan(1e-12);

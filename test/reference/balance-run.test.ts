@@ -109,7 +109,10 @@ describe('reader hook: a per-sample transform before averaging', () => {
 
 describe('raw bridge-output runs through the reduction', () => {
   const points = sweepSamples(42);
-  const loadsRun = readRunText('loads.csv', runText(points, 'normal [N],axial [N],pitch [N m]', (l) => l));
+  const loadsRun = readRunText(
+    'loads.csv',
+    runText(points, 'normal [N],axial [N],pitch [N m]', (l) => l),
+  );
   const reference = reduce({ run: loadsRun, setup: setupWith() });
 
   it('outputs_from_loads (iterated): the same coefficients as the loads themselves, to 1e-9', () => {
@@ -121,7 +124,8 @@ describe('raw bridge-output runs through the reduction', () => {
     expect(r.points).toHaveLength(7);
     r.points.forEach((p, i) => {
       const q = reference.points[i]!;
-      for (const k of ['cl', 'cd', 'cm', 'cl_uncorrected', 'cd_uncorrected'] as const) expect(Math.abs(p[k]! - q[k]!)).toBeLessThan(1e-9 * Math.max(1, Math.abs(q[k]!)));
+      for (const k of ['cl', 'cd', 'cm', 'cl_uncorrected', 'cd_uncorrected'] as const)
+        expect(Math.abs(p[k]! - q[k]!)).toBeLessThan(1e-9 * Math.max(1, Math.abs(q[k]!)));
     });
     // the interactions matter: the linear part alone misses CD by more than 5 %, and converting the
     // averaged outputs instead of each sample misses it too
@@ -142,14 +146,27 @@ describe('raw bridge-output runs through the reduction', () => {
   it('loads_from_outputs: each sample through the polynomial, as a plain loop computes it', () => {
     // an invented direct-form balance with strong interactions; outputs chosen per sample, loads follow
     const doc = {
-      format: 'sweepbook-balance', version: 1, loads: ['normal', 'axial', 'pitch'], load_units: ['N', 'lbf', 'N m'], outputs: ['g1', 'g2', 'g3'],
-      natural_zeros: [0.05, -0.02, 0.01], form: 'loads_from_outputs',
-      linear: [[500, -20, 30], [4, 120, -2], [2, 1, 40]],
-      quadratic: [[60, 160, 0, -80, 0, 40], [50, -120, 30, 180, 20, 0], [0, 10, -16, 0, 24, 60]],
+      format: 'sweepbook-balance',
+      version: 1,
+      loads: ['normal', 'axial', 'pitch'],
+      load_units: ['N', 'lbf', 'N m'],
+      outputs: ['g1', 'g2', 'g3'],
+      natural_zeros: [0.05, -0.02, 0.01],
+      form: 'loads_from_outputs',
+      linear: [
+        [500, -20, 30],
+        [4, 120, -2],
+        [2, 1, 40],
+      ],
+      quadratic: [
+        [60, 160, 0, -80, 0, 40],
+        [50, -120, 30, 180, 20, 0],
+        [0, 10, -16, 0, 24, 60],
+      ],
     };
     const b = validateBalance('direct.json', doc);
     const z = normalRng(7);
-    const samples = points.map((p) => p.loads.map(() => [0.1 + 0.05 * p.alpha / 4 + 0.08 * z(), 0.03 + 0.05 * z(), -0.05 + 0.04 * z()]));
+    const samples = points.map((p) => p.loads.map(() => [0.1 + (0.05 * p.alpha) / 4 + 0.08 * z(), 0.03 + 0.05 * z(), -0.05 + 0.04 * z()]));
     const loadsOf = (R: number[]) => {
       const d = R.map((x, j) => x - doc.natural_zeros[j]!);
       const F = matVec(doc.linear, d).map((x, i) => x + matVec(doc.quadratic, products(d))[i]!);
@@ -160,13 +177,27 @@ describe('raw bridge-output runs through the reduction', () => {
       samples.forEach((s, k) => s.forEach((R) => lines.push([k + 1, points[k]!.alpha, 600, ...row(R).map((x) => x.toPrecision(17))].join(','))));
       return lines.join('\n');
     };
-    const raw = reduce({ run: readRunText('raw.csv', mk((R) => R, 'g1,g2,g3'), { sampleTransform: balanceTransform(b) }), setup: setupWith({ calibration: doc }) });
+    const raw = reduce({
+      run: readRunText(
+        'raw.csv',
+        mk((R) => R, 'g1,g2,g3'),
+        { sampleTransform: balanceTransform(b) },
+      ),
+      setup: setupWith({ calibration: doc }),
+    });
     const ref = reduce({ run: readRunText('loads.csv', mk(loadsOf, 'normal,axial,pitch')), setup: setupWith() });
     raw.points.forEach((p, i) => {
       for (const k of ['cl', 'cd', 'cm'] as const) expect(Math.abs(p[k]! - ref.points[i]![k]!)).toBeLessThan(1e-9 * Math.max(1, Math.abs(ref.points[i]![k]!)));
     });
     const linear = validateBalance('lin.json', { ...doc, quadratic: undefined });
-    const rl = reduce({ run: readRunText('raw.csv', mk((R) => R, 'g1,g2,g3'), { sampleTransform: balanceTransform(linear) }), setup: setupWith() });
+    const rl = reduce({
+      run: readRunText(
+        'raw.csv',
+        mk((R) => R, 'g1,g2,g3'),
+        { sampleTransform: balanceTransform(linear) },
+      ),
+      setup: setupWith(),
+    });
     expect(Math.max(...rl.points.map((p, i) => Math.abs(p.cl_uncorrected - ref.points[i]!.cl_uncorrected)))).toBeGreaterThan(0.01);
   });
 
@@ -175,7 +206,8 @@ describe('raw bridge-output runs through the reduction', () => {
     const outputs = (F: number[]) => matVec(truthDoc.linear, F).map((x, i) => x + matVec(truthDoc.quadratic!, products(F))[i]! + truthDoc.natural_zeros![i]!);
     const tareLoads = [-12, 0.5, -0.4];
     const tareAt = (alpha: number) => [tareLoads[0]! + 0.1 * alpha, tareLoads[1]! + 0.2 * alpha, tareLoads[2]! - 0.05 * alpha]; // linear in α, so the tare's interpolation is exact
-    const tareLines = (row: (F: number[]) => number[], cols: string) => ['alpha [deg],' + cols, ...[-6, -3, 0, 3, 6, 9].map((a) => [a, ...row(tareAt(a)).map((x) => x.toPrecision(17))].join(','))].join('\n');
+    const tareLines = (row: (F: number[]) => number[], cols: string) =>
+      ['alpha [deg],' + cols, ...[-6, -3, 0, 3, 6, 9].map((a) => [a, ...row(tareAt(a)).map((x) => x.toPrecision(17))].join(','))].join('\n');
     const withTare = points.map((p) => ({ ...p, loads: p.loads.map((l) => l.map((x, j) => x + tareAt(p.alpha)[j]!)) }));
     const t = balanceTransform(truth);
     const raw = reduce({
@@ -281,7 +313,9 @@ describe('repeatability pooled over six repeats (ISO 5725-2:1994 §7.4 pooling)'
     expect(r.pooled_sd_cm).toBeNull();
   });
   it('pools angles reached by fewer runs with their own degrees of freedom, and warns of angles with one run', () => {
-    const partial = runs.map((run, i) => (i < 3 ? run : { ...run, alphaDeg: run.alphaDeg.slice(0, 4), cl: run.cl.slice(0, 4), cd: run.cd.slice(0, 4), cm: run.cm.slice(0, 4) }));
+    const partial = runs.map((run, i) =>
+      i < 3 ? run : { ...run, alphaDeg: run.alphaDeg.slice(0, 4), cl: run.cl.slice(0, 4), cd: run.cd.slice(0, 4), cm: run.cm.slice(0, 4) },
+    );
     const r = repeatability(partial);
     expect(r.degrees_of_freedom).toBe(4 * 5 + 4 * 2);
     expect(repeatability([runs[0]!, { ...runs[1]!, alphaDeg: alphas.map((a) => a + 30) }]).warnings.join(' ')).toMatch(/one run only/);

@@ -132,8 +132,21 @@ describe('outputs_from_loads: loads by the recommended-practice iteration', () =
 describe('loads_from_outputs: the direct polynomial', () => {
   it('evaluates F = linear·ΔR + quadratic·p(ΔR) term by term', () => {
     const b = validateBalance('d.json', {
-      format: 'sweepbook-balance', version: 1, loads: ['lift', 'drag'], load_units: ['N', 'lbf'], outputs: ['a', 'b'],
-      natural_zeros: [1, 2], form: 'loads_from_outputs', linear: [[10, 1], [0.5, 20]], quadratic: [[1, 2, 3], [0, -1, 0]],
+      format: 'sweepbook-balance',
+      version: 1,
+      loads: ['lift', 'drag'],
+      load_units: ['N', 'lbf'],
+      outputs: ['a', 'b'],
+      natural_zeros: [1, 2],
+      form: 'loads_from_outputs',
+      linear: [
+        [10, 1],
+        [0.5, 20],
+      ],
+      quadratic: [
+        [1, 2, 3],
+        [0, -1, 0],
+      ],
     });
     // ΔR = (1, 1): F1 = 10 + 1 + (1 + 2 + 3) = 17; F2 = 0.5 + 20 − 1 = 19.5 (by hand)
     expect(loadsFromOutputs(b, [2, 3])).toMatchObject({ ok: true, loads: [17, 19.5] });
@@ -159,7 +172,10 @@ describe('least-squares calibration against numpy.linalg.lstsq (generate.py)', (
       const close = (a: number, b: number, scale: number) => expect(Math.abs(a - b)).toBeLessThanOrEqual(1e-7 * scale);
       const all = (m: number[][]) => Math.max(...m.flat().map(Math.abs));
       f.document.linear.forEach((r, i) => r.forEach((x, j) => close(x, want.linear[i][j], Math.abs(want.linear[i][j]) + 1e-3 * all(want.linear))));
-      if (want.quadratic) f.document.quadratic!.forEach((r, i) => r.forEach((x, j) => close(x, want.quadratic[i][j], Math.abs(want.quadratic[i][j]) + 1e-3 * all(want.quadratic))));
+      if (want.quadratic)
+        f.document.quadratic!.forEach((r, i) =>
+          r.forEach((x, j) => close(x, want.quadratic[i][j], Math.abs(want.quadratic[i][j]) + 1e-3 * all(want.quadratic))),
+        );
       else expect(f.document.quadratic).toBeUndefined();
       f.document.natural_zeros!.forEach((z, j) => close(z, want.natural_zeros[j], 1));
       f.residualSd.forEach((x, k) => close(x, want.residual_sd[k], want.residual_sd[k]));
@@ -174,7 +190,18 @@ describe('least-squares calibration against numpy.linalg.lstsq (generate.py)', (
     quad.residualSd.forEach((s, k) => expect(s * 20).toBeLessThan(lin.residualSd[k]!));
   });
   it('refuses loadings that cannot separate the interaction terms, naming the term', () => {
-    const single = loadingsText.split('\n').filter((line, i) => i < 3 || /^\d+,/.test(line) && line.split(',').slice(1, 4).filter((c) => Number(c) !== 0).length <= 1).join('\n');
+    const single = loadingsText
+      .split('\n')
+      .filter(
+        (line, i) =>
+          i < 3 ||
+          (/^\d+,/.test(line) &&
+            line
+              .split(',')
+              .slice(1, 4)
+              .filter((c) => Number(c) !== 0).length <= 1),
+      )
+      .join('\n');
     const ls = parseLoadings('single.csv', single, ['normal', 'axial', 'pitch'], ['r1', 'r2', 'r3']);
     const e = errorOf(() => fitCalibration(ls, 'outputs_from_loads'));
     expect(e.notice.message).toMatch(/do not separate the term normal·axial/);
@@ -190,14 +217,40 @@ describe('least-squares calibration against numpy.linalg.lstsq (generate.py)', (
 
 describe('matrix helpers', () => {
   it('invert finds singular matrices and inverts well-posed ones', () => {
-    expect(invert([[1, 2], [2, 4]])).toBeUndefined();
-    expect(invert([[4, 7], [2, 6]])!.flat().map((x) => Number(x.toFixed(12)))).toEqual([0.6, -0.7, -0.2, 0.4]); // by hand: 1/10·[[6,−7],[−2,4]]
+    expect(
+      invert([
+        [1, 2],
+        [2, 4],
+      ]),
+    ).toBeUndefined();
+    expect(
+      invert([
+        [4, 7],
+        [2, 6],
+      ])!
+        .flat()
+        .map((x) => Number(x.toFixed(12))),
+    ).toEqual([0.6, -0.7, -0.2, 0.4]); // by hand: 1/10·[[6,−7],[−2,4]]
   });
   it('leastSquares fits an exact line exactly and flags a repeated column', () => {
-    const X = [[1, 0], [1, 1], [1, 2], [1, 3]];
+    const X = [
+      [1, 0],
+      [1, 1],
+      [1, 2],
+      [1, 3],
+    ];
     const r = leastSquares(X, [[1, 3, 5, 7]]);
     expect(r.coef[0]!.map((x) => Number(x.toFixed(12)))).toEqual([1, 2]);
-    expect(leastSquares([[1, 2], [2, 4], [3, 6]], [[1, 2, 3]]).dependentColumn).toBe(1);
+    expect(
+      leastSquares(
+        [
+          [1, 2],
+          [2, 4],
+          [3, 6],
+        ],
+        [[1, 2, 3]],
+      ).dependentColumn,
+    ).toBe(1);
   });
 });
 

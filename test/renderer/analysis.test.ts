@@ -88,7 +88,10 @@ describe('repeatability band', () => {
     await flushPromises();
     const ticked = w.findAll('.repeat-choice input').filter((i) => (i.element as HTMLInputElement).checked);
     expect(ticked).toHaveLength(6);
-    const cli = JSON.parse((await runCli('repeat', ...REPEATS.map((f) => join(SAMPLES, f)), '--setup', join(SAMPLES, 'setup-3d.json'), '--tare', join(SAMPLES, 'windoff-tare.csv'))).stdout);
+    const cli = JSON.parse(
+      (await runCli('repeat', ...REPEATS.map((f) => join(SAMPLES, f)), '--setup', join(SAMPLES, 'setup-3d.json'), '--tare', join(SAMPLES, 'windoff-tare.csv')))
+        .stdout,
+    );
     const text = w.find('[data-testid="repeat-pooled"]').text();
     expect(text).toContain(`CL ${cli.pooled_sd_cl.toPrecision(2)}`);
     expect(text).toContain('75 degrees of freedom');
@@ -118,7 +121,10 @@ describe('balance of a setup', () => {
     expect(w.find('.balance-part').text()).toMatch(/reads its balance from balance-b3\.json/);
     ctx.host.add('balance-b3.json', sample('balance-b3.json'));
     ctx.host.nextChoice = ['balance-b3.json'];
-    await w.findAll('.balance-part button').find((b) => b.text() === 'Open balance file…')!.trigger('click');
+    await w
+      .findAll('.balance-part button')
+      .find((b) => b.text() === 'Open balance file…')!
+      .trigger('click');
     await flushPromises();
     const b = parseBalance('balance-b3.json', sample('balance-b3.json'));
     const cells = w.findAll('.balance-part table[aria-label="Natural zeros"] td.num').map((c) => c.text());
@@ -138,7 +144,10 @@ describe('balance of a setup', () => {
     bad.natural_zeros = [0, 0];
     ctx.host.add('bad.json', JSON.stringify(bad));
     ctx.host.nextChoice = ['bad.json'];
-    await w.findAll('.balance-part button').find((b) => b.text() === 'Open balance file…')!.trigger('click');
+    await w
+      .findAll('.balance-part button')
+      .find((b) => b.text() === 'Open balance file…')!
+      .trigger('click');
     await flushPromises();
     await nextTick();
     expect(w.find('.balance-part [role="alert"]').text()).toBe('bad.json: natural_zeros: 2 numbers; expected 3');

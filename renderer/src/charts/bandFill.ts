@@ -9,6 +9,7 @@ export interface BandOptions {
 }
 
 declare module 'chart.js' {
+  // eslint-disable-next-line @typescript-eslint/no-unused-vars -- declaration merging repeats chart.js's own type parameter
   interface PluginOptionsByType<TType extends ChartType> {
     bandFill?: BandOptions;
   }
@@ -31,7 +32,9 @@ export const bandFill: Plugin<'scatter'> = {
       const pts = band?.points ?? [];
       if (!band || pts.length < 2) continue;
       ctx.beginPath();
-      pts.forEach((p, i) => (i === 0 ? ctx.moveTo(xs.getPixelForValue(p!.x!), ys.getPixelForValue(p!.hi!)) : ctx.lineTo(xs.getPixelForValue(p!.x!), ys.getPixelForValue(p!.hi!))));
+      pts.forEach((p, i) =>
+        i === 0 ? ctx.moveTo(xs.getPixelForValue(p!.x!), ys.getPixelForValue(p!.hi!)) : ctx.lineTo(xs.getPixelForValue(p!.x!), ys.getPixelForValue(p!.hi!)),
+      );
       for (let i = pts.length - 1; i >= 0; i--) ctx.lineTo(xs.getPixelForValue(pts[i]!.x!), ys.getPixelForValue(pts[i]!.lo!));
       ctx.closePath();
       ctx.globalAlpha = 0.18;

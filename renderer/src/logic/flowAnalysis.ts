@@ -3,7 +3,16 @@
  * reduction results and balance documents to what the panels show. The numbers come from core
  * (zeroLiftAngle, upflowFromPair, repeatability); nothing here computes physics of its own.
  */
-import { quadraticTermNames, repeatability, upflowFromPair, zeroLiftAngle, type Balance, type ReductionResult, type RepeatResult, type UpflowResult } from '../../../core/index.ts';
+import {
+  quadraticTermNames,
+  repeatability,
+  upflowFromPair,
+  zeroLiftAngle,
+  type Balance,
+  type ReductionResult,
+  type RepeatResult,
+  type UpflowResult,
+} from '../../../core/index.ts';
 
 export interface BalanceTable {
   /** Column heads: the arguments (outputs or loads), then their products. */
@@ -71,17 +80,28 @@ export type UpflowOutcome = { ok: true; value: UpflowResult; note: string | null
  */
 export function upflowFromRuns(upright: ReductionResult, inverted: ReductionResult, appliedUprightDeg = 0, appliedInvertedDeg = 0): UpflowOutcome {
   const angles = [];
-  for (const [r, what] of [[upright, 'upright'], [inverted, 'inverted']] as const) {
+  for (const [r, what] of [
+    [upright, 'upright'],
+    [inverted, 'inverted'],
+  ] as const) {
     const range = r.fit.linear_range_deg;
     if (!range) return { ok: false, reason: `the ${what} run has no linear range of its lift curve` };
     const pts = r.points.filter((p) => p.alpha_uncorrected_deg >= range[0] - 1e-9 && p.alpha_uncorrected_deg <= range[1] + 1e-9);
-    const z = zeroLiftAngle(pts.map((p) => p.alpha_uncorrected_deg), pts.map((p) => p.cl_uncorrected));
+    const z = zeroLiftAngle(
+      pts.map((p) => p.alpha_uncorrected_deg),
+      pts.map((p) => p.cl_uncorrected),
+    );
     if (!z) return { ok: false, reason: `the ${what} run has too few points in its linear range` };
     angles.push(z);
   }
   const v = upflowFromPair(angles[0]!, angles[1]!);
   const shift = (appliedInvertedDeg - appliedUprightDeg) / 2;
-  if (shift === 0) return { ok: true, value: v, note: appliedUprightDeg !== 0 ? `Both runs already have ${appliedUprightDeg}° applied; it cancels, so this is the whole upflow.` : null };
+  if (shift === 0)
+    return {
+      ok: true,
+      value: v,
+      note: appliedUprightDeg !== 0 ? `Both runs already have ${appliedUprightDeg}° applied; it cancels, so this is the whole upflow.` : null,
+    };
   return {
     ok: true,
     value: { ...v, upflow_deg: v.upflow_deg - shift },
@@ -115,7 +135,13 @@ export interface RepeatBand {
 /** Repeatability of the chosen runs (core `repeatability`) and the band ± 2·s_pooled around the reference run. */
 export function repeatBand(reference: ReductionResult, runs: readonly ReductionResult[], alphaTolDeg?: number): RepeatBand {
   const stats = repeatability(
-    runs.map((r) => ({ name: r.run.name, alphaDeg: r.points.map((p) => p.alpha_deg!), cl: r.points.map((p) => p.cl!), cd: r.points.map((p) => p.cd!), cm: r.points.map((p) => p.cm) })),
+    runs.map((r) => ({
+      name: r.run.name,
+      alphaDeg: r.points.map((p) => p.alpha_deg!),
+      cl: r.points.map((p) => p.cl!),
+      cd: r.points.map((p) => p.cd!),
+      cm: r.points.map((p) => p.cm),
+    })),
     alphaTolDeg,
   );
   const band = (s: number | null, pick: (p: ReductionResult['points'][number]) => { x: number; y: number | null }) =>
