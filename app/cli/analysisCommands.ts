@@ -100,7 +100,8 @@ async function loadSetup(setupPath: string, say: Say): Promise<{ setup: SetupRes
   const transform = await balanceTransformFor(setupPath, setup.value);
   if (transform !== undefined && !('apply' in transform)) return fail(say, [transform]);
   const read = async (path: string): Promise<RunData | number> => {
-    const r = await readRun(path, textStream(path), undefined, transform);
+    const grouping = { alphaTolRad: ((setup.value.setup.grouping?.alpha_tol_deg ?? 0.2) * Math.PI) / 180 };
+    const r = await readRun(path, textStream(path), undefined, grouping, transform);
     return r.ok ? r.value : fail(say, r.errors);
   };
   return { setup: setup.value, read };

@@ -23,5 +23,13 @@ export interface ParseConfig {
   skipEmptyLines?: boolean | 'greedy';
 }
 
-declare const Papa: { parse<T>(input: string, config?: ParseConfig): ParseResult<T> };
+export interface UnparseConfig {
+  newline?: string;
+  delimiter?: string;
+}
+
+declare const Papa: {
+  parse<T>(input: string, config?: ParseConfig): ParseResult<T>;
+  unparse(data: unknown[][], config?: UnparseConfig): string;
+};
 export default Papa;

@@ -9,7 +9,7 @@ import type { Setup } from '../setup/schema.ts';
 import { calibrationRecord } from '../balance/document.ts';
 
 export interface InputFile {
-  role: 'run' | 'setup' | 'tare' | 'balance';
+  role: 'run' | 'setup' | 'tare' | 'columns' | 'balance';
   name: string;
   sha256: string;
 }

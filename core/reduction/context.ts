@@ -3,7 +3,7 @@
  * shape of a stage. Stages read and write the context; the result is assembled from it at the end.
  */
 import type { Notice } from '../contract/messages.ts';
-import type { FitResult } from '../fits/characteristics.ts';
+import type { FitBranch, FitResult, FitSystematic } from '../fits/characteristics.ts';
 import type { RunData } from '../formats/runFile.ts';
 import type { Setup } from '../setup/schema.ts';
 import type { PreparedWall } from '../walls/method.ts';
@@ -34,6 +34,9 @@ export interface ReductionContext {
   /** The wall-correction method applied, when corrections are on. */
   wall: PreparedWall | null;
   fit: FitResult | null;
+  /** Every sweep branch with its own characteristics, and the systematic parts of the fit (set by the fits stage). */
+  fitBranches?: FitBranch[];
+  fitSystematic?: FitSystematic;
   /** True when the run has the channel. */
   has: (ch: import('../formats/channels.ts').Channel) => boolean;
 }

@@ -3,7 +3,7 @@
  * one row per point with corrected and as-measured values, the fits, the factors and the warnings.
  */
 import { formatNotice } from '../contract/messages.ts';
-import type { FitResult } from '../fits/characteristics.ts';
+import type { FitBranch, FitResult, FitSystematic } from '../fits/characteristics.ts';
 import { finiteOrNull } from '../physics/numbers.ts';
 import { NO_FACTORS, type TunnelPoint, type WallFactors } from '../walls/types.ts';
 import type { ReductionContext } from './context.ts';
@@ -62,6 +62,10 @@ export interface ReductionResult {
   run: Record<string, unknown> & { name: string; configuration: string | null };
   points: PointResult[];
   fit: FitResult;
+  /** Every sweep branch of the run (file order) with its own CLmax and slope; `fit` describes one of them. */
+  fit_branches: FitBranch[];
+  /** Systematic parts of the fitted characteristics: characteristic → input → shift at one standard uncertainty. */
+  fit_systematic: FitSystematic;
   factors: WallFactors;
   /**
    * The wall corrections applied: `wake` is the wake model actually used (a Maskell request that fell
@@ -98,6 +102,8 @@ export function assembleResult(ctx: ReductionContext): ReductionResult {
     },
     points,
     fit: ctx.fit!,
+    fit_branches: ctx.fitBranches ?? [],
+    fit_systematic: ctx.fitSystematic ?? {},
     factors: wall ? wall.factors : NO_FACTORS,
     corrections: {
       enabled: ctx.correctionsOn,

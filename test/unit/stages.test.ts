@@ -23,7 +23,7 @@ describe('the stage list', () => {
 
   it('runs in the documented order, the per-basis stages last', () => {
     expect(STAGES.map((s) => s.name)).toEqual([
-      'required columns', 'points', 'readings check', 'tares', 'axes and moment transfer', 'flow angle', 'flow state', 'coefficients',
+      'required columns', 'wind-off points and zero readings', 'points', 'readings check', 'tares', 'axes and moment transfer', 'flow angle', 'flow state', 'coefficients',
       'wall corrections', 'uncertainty', 'fits',
     ]);
     const { shared, perBasis } = splitStages(STAGES);
@@ -64,7 +64,7 @@ describe('wall-correction methods', () => {
   };
 
   it('registers 2D, 3D classic and 3D Maskell, each with a source', () => {
-    expect(WALL_METHODS.map((m) => m.id)).toEqual(['2d', '3d-classic', '3d-maskell']);
+    expect(WALL_METHODS.map((m) => m.id)).toEqual(['2d', '3d-classic', '3d-maskell', '3d-free-jet']);
     for (const m of WALL_METHODS) expect(m.source).toMatch(/Barlow|Allen|Maskell|Glauert/);
   });
 

@@ -1,10 +1,11 @@
 import type { Channel } from '../../formats/channels.ts';
 import { InputError } from '../../contract/messages.ts';
+import { missingChannelMessage } from '../../formats/columnMap.ts';
 import type { Setup } from '../../setup/schema.ts';
 import type { Stage } from '../context.ts';
 
 /**
- * Required columns: the angle, a pitot pressure, the balance's loads in its axes, and the ambient
+ * Required columns: the angle, a dynamic-pressure source (dp_pitot, q or dp_contraction), the balance's loads in its axes, and the ambient
  * readings the setup does not give (docs/data-format.md, run file and setup). Stops with a message
  * naming the header line and what to change.
  */
@@ -14,10 +15,11 @@ export const columnsStage: Stage = {
   run(ctx) {
     const { run, setup, has } = ctx;
     const missing = (ch: string, why: string): never => {
-      throw new InputError({ file: run.file, line: run.headerLine, message: `missing required column "${ch}" (${why})` });
+      // every column of the file with the closest matches, so a column map can be written from the message
+      throw new InputError({ file: run.file, line: run.headerLine, message: missingChannelMessage(ch, why, run.headerCells ?? []) });
     };
     if (!has('alpha')) missing('alpha', 'angle of attack');
-    if (!has('dp_pitot')) missing('dp_pitot', 'pitot-static impact pressure');
+    if (!has('dp_pitot') && !has('q') && !has('dp_contraction')) missing('dp_pitot', 'pitot-static impact pressure; or "q", the dynamic pressure as the facility logs it, or "dp_contraction" with flow.contraction_factor');
     if (setup.balance.axes === 'wind') {
       for (const ch of ['lift', 'drag'] as const) {
         if (!has(ch)) missing(ch, has('normal') && has('axial') ? 'the setup says balance.axes "wind", but the file has normal/axial columns: set balance.axes to "body"' : 'the setup says balance.axes "wind"');

@@ -12,9 +12,11 @@ import { pointsStage, readingsStage } from './points.ts';
 import { taresStage } from './tares.ts';
 import { uncertaintyStage } from './uncertainty.ts';
 import { wallsStage } from './walls.ts';
+import { windOffStage } from './windOff.ts';
 
 export const STAGES: readonly Stage[] = [
   columnsStage,
+  windOffStage,
   pointsStage,
   readingsStage,
   taresStage,
