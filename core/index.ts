@@ -21,3 +21,12 @@ export * from './reduction/engine.ts';
 export * from './reduction/pipeline.ts';
 export * from './setup/schema.ts';
 export * from './setup/fields.ts';
+// --- balance calibration, flow angle, repeatability ---
+export * from './balance/document.ts';
+export * from './balance/convert.ts';
+export * from './balance/calibrate.ts';
+export * from './balance/transform.ts';
+export * from './formats/sampleTransform.ts';
+export * from './flowAngle/upflow.ts';
+export * from './analysis/repeatability.ts';
+// --- end of balance calibration, flow angle, repeatability ---

@@ -13,6 +13,10 @@ import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { dynamicPressure, machFromImpactPressure } from '../core/physics/pitot.ts';
 import { normal } from '../test/support/random.ts';
+import { fitCalibration, parseLoadings } from '../core/balance/calibrate.ts';
+import { outputsFromLoads } from '../core/balance/convert.ts';
+import { validateBalance, type BalanceDocument } from '../core/balance/document.ts';
+import { windToBody } from '../core/physics/axes.ts';
 
 const HERE = dirname(fileURLToPath(import.meta.url));
 const NOTE = 'invented demonstration data (Sweepbook sample campaign); not a measurement';
@@ -213,6 +217,7 @@ export function generate(): void {
     corrections: { enabled: true, solid_blockage_k: 0.74 },
   });
   writeCampaign();
+  balanceAndFlowSamples(amb);
 }
 
 const sha256 = (name: string) => createHash('sha256').update(readFileSync(join(HERE, name))).digest('hex');
@@ -239,5 +244,123 @@ function writeCampaign() {
     baseline: 'run-101-clean.csv',
   });
 }
+
+// --- balance calibration, raw bridge outputs, upflow pair, repeat runs ---
+
+/**
+ * The KM-7 tests on the Polytechnic's sting balance "B3", which logs bridge outputs (mV/V) instead of
+ * loads: its calibration loadings, the balance file fitted from them, a run and a wind-off tare in raw
+ * outputs; an upright/inverted pair for the tunnel's upflow (an invented 0.35° up); six repeat runs of
+ * the clean wing. All invented.
+ */
+function balanceAndFlowSamples(amb: Ambient) {
+  // the invented "true" balance, in the outputs_from_loads form: outputs (mV/V) from normal (N), axial (N), pitch (N m)
+  const truthDoc: BalanceDocument = {
+    format: 'sweepbook-balance',
+    version: 1,
+    loads: ['normal', 'axial', 'pitch'],
+    load_units: ['N', 'N', 'N m'],
+    outputs: ['r1', 'r2', 'r3'],
+    natural_zeros: [0.1182, -0.4315, 0.0267],
+    form: 'outputs_from_loads',
+    linear: [
+      [5.0e-3, 2.0e-4, 1.2e-2],
+      [3.0e-4, 2.2e-2, -8.0e-4],
+      [6.0e-4, -5.0e-4, 9.5e-2],
+    ],
+    //        N²       N·A      N·M      A²       A·M      M²
+    quadratic: [
+      [1.5e-6, 4.0e-6, 0, 0, 2.0e-5, 4.0e-5],
+      [2.5e-6, 0, 1.0e-5, 1.2e-5, 0, 0],
+      [0, 6.0e-6, 3.0e-5, 0, 0, 2.0e-4],
+    ],
+  };
+  const truth = validateBalance('truth', truthDoc);
+  const fs = [200, 40, 10];
+  const noise = rng(300);
+  const loadings: number[][] = [[0, 0, 0], [0, 0, 0], [0, 0, 0]];
+  for (let k = 0; k < 3; k++) for (const f of [-1, -0.5, 0.5, 1]) loadings.push(fs.map((s, i) => (i === k ? f * s : 0)));
+  for (let j = 0; j < 3; j++) for (let k = j + 1; k < 3; k++) for (const fj of [-0.7, 0.7]) for (const fk of [-0.7, -0.35, 0.35, 0.7]) loadings.push(fs.map((s, i) => (i === j ? fj * s : i === k ? fk * s : 0)));
+  for (const m of [[0.5, 0.5, 0.5], [-0.5, 0.4, -0.6], [0.8, -0.3, 0.2]]) loadings.push(m.map((x, i) => x * fs[i]!));
+  const lines = [
+    ...header({ balance: 'KM-7 sting balance B3 (fictional)', date: '2026-11-20', note: NOTE }),
+    'loading,normal [N],axial [N],pitch [N m],r1 [mV/V],r2 [mV/V],r3 [mV/V]',
+    ...loadings.map((F, i) => [i + 1, ...F.map((x) => fmt(x, 3)), ...outputsFromLoads(truth, F).map((r) => fmt(r + noise(1.5e-5), 6))].join(',')),
+  ];
+  writeRun('balance-b3-loadings.csv', lines);
+  const fitted = fitCalibration(parseLoadings('balance-b3-loadings.csv', lines.join('\n'), ['normal', 'axial', 'pitch'], ['r1', 'r2', 'r3']), 'outputs_from_loads');
+  writeJson('balance-b3.json', { ...fitted.document, note: `${NOTE}. ${fitted.document.note}` });
+
+  // run 301: the clean wing on B3, bridge outputs only, 20 samples per point; tare 300 in raw outputs too
+  const sampleOutputs = (lift: number, drag: number, pitch: number, alphaDeg: number) => {
+    const { normal, axial } = windToBody(lift, drag, (alphaDeg * Math.PI) / 180);
+    return outputsFromLoads(truth, [normal, axial, pitch]).map((r) => fmt(r + noise(4e-5), 6));
+  };
+  const raw = [
+    ...header({ run: '301', configuration: 'clean (balance B3, raw outputs)', date: '2026-12-01', tunnel: 'Kestrel Moor Polytechnic LST (fictional)', model: 'KM-7 wing', balance: 'B3, bridge outputs in mV/V', note: NOTE }),
+    'point,alpha [deg],dp_pitot [Pa],p_static [Pa],t_total [degC],rh [%],r1 [mV/V],r2 [mV/V],r3 [mV/V]',
+  ];
+  ALPHAS.forEach((a, k) => {
+    for (let s = 0; s < 20; s++) {
+      const r = readings(CLEAN, a, amb, noise);
+      // buffeting: the loads of each sample swing about the point's mean, more so past the stall
+      const swing = a > 12 ? 4 : 1;
+      raw.push([k + 1, fmt(r.alpha, 3), fmt(r.dp + noise(5), 2), fmt(r.p, 1), fmt(r.t, 2), fmt(r.rh, 1), ...sampleOutputs(r.lift + noise(3 * swing), r.drag + noise(0.4 * swing), r.pitch + noise(0.3 * swing), r.alpha)].join(','));
+    }
+  });
+  writeRun('run-301-raw-outputs.csv', raw);
+  const tare = [
+    ...header({ run: '300', configuration: 'wind-off tare (balance B3, raw outputs)', date: '2026-12-01', model: 'KM-7 wing', note: NOTE }),
+    'point,alpha [deg],r1 [mV/V],r2 [mV/V],r3 [mV/V]',
+  ];
+  for (let a = -8, k = 1; a <= 18; a += 2, k++) {
+    for (let s = 0; s < 5; s++) {
+      const t = weightTare(a);
+      tare.push([k, fmt(a, 3), ...sampleOutputs(t.lift, t.drag, t.pitch, a)].join(','));
+    }
+  }
+  writeRun('windoff-tare-raw.csv', tare);
+  writeJson('setup-3d-raw.json', {
+    note: `${NOTE}. The KM-7 wing on the fictional sting balance B3, which logs bridge outputs; balance-b3.json converts every sample to loads.`,
+    model: { kind: '3d', name: 'KM-7 rectangular wing, 25 % plain flap', area_m2: 0.2025, chord_m: 0.225, span_m: 0.9, volume_m3: 0.0021, moment_ref_offset_m: { x: -0.0169, z: 0 } },
+    tunnel: { name: 'Kestrel Moor Polytechnic LST (fictional)', section: 'closed-rectangular', width_m: 1.2, height_m: 0.9 },
+    balance: { axes: 'body', calibration: 'balance-b3.json' },
+    flow: { gamma: 1.4 },
+    ambient: { p_pa: 99180, t_c: 18.6, rh_pct: 52 },
+    corrections: { enabled: true, wake: 'classic', solid_blockage_k: 0.96, delta: null, tau1: null, tau2: null },
+  });
+
+  // runs 401/402: upright and inverted, loads with the weight tare already removed, tunnel upflow 0.35°
+  const PHI = 0.35;
+  for (const [file, run, sign, seed] of [['run-401-upright.csv', '401', 1, 411], ['run-402-inverted.csv', '402', -1, 412]] as const) {
+    // a careful flow-angularity run: long averages, so a third of the other runs' scatter
+    const n0 = rng(seed);
+    const n = (sd: number) => n0(sd / 3);
+    const out = [
+      ...header({ run, configuration: sign > 0 ? 'clean, upright' : 'clean, inverted', date: '2026-12-02', tunnel: 'Kestrel Moor Polytechnic LST (fictional)', model: 'KM-7 wing', loads: 'weight tare already removed', note: `${NOTE}; made with an upflow of ${PHI}° for the upflow example` }),
+      'alpha [deg],dp_pitot [Pa],p_static [Pa],t_total [degC],rh [%],lift [N],drag [N],pitch [N m]',
+    ];
+    const phi = (sign * PHI * Math.PI) / 180;
+    for (const a of [-6, -5, -4, -3, -2, -1, 0, 1, 2, 3, 4, 5, 6]) {
+      const r = readings(CLEAN, a + sign * PHI, amb, n);
+      const t = weightTare(a + sign * PHI);
+      const L = r.lift - t.lift;
+      const D = r.drag - t.drag;
+      // loads normal and parallel to the tunnel axis: the inverse of L = L'cos φ − D'sin φ, D = D'cos φ + L'sin φ
+      const Lt = L * Math.cos(phi) + D * Math.sin(phi);
+      const Dt = D * Math.cos(phi) - L * Math.sin(phi);
+      out.push([fmt(a + n(0.005), 3), fmt(r.dp, 2), fmt(r.p, 1), fmt(r.t, 2), fmt(r.rh, 1), fmt(Lt, 3), fmt(Dt, 4), fmt(r.pitch - t.pitch, 4)].join(','));
+    }
+    writeRun(file, out);
+  }
+
+  // runs 501–506: six repeats of the clean wing on another day; each repeat has its own small offsets
+  const day = rng(500);
+  for (let i = 0; i < 6; i++) {
+    const shift = { alpha0: CLEAN.alpha0 + day(0.02), cd0: CLEAN.cd0 + day(0.0002), cm0: CLEAN.cm0 + day(0.001) };
+    sweepRun(`run-50${i + 1}-repeat.csv`, `50${i + 1}`, 'clean (repeat)', { ...CLEAN, ...shift }, { ...amb, dp: 610 + day(2) }, 501 + i);
+  }
+}
+// --- end of balance calibration, raw bridge outputs, upflow pair, repeat runs ---
 
 generate();

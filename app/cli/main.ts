@@ -24,6 +24,9 @@ import { VERSION } from '../version.ts';
 import { batchReduce } from './batch.ts';
 import { columnsCommand } from './columns.ts';
 import { describeFsError, runText } from './runSource.ts';
+// --- balance calibration, upflow, repeatability ---
+import { ANALYSIS_USAGE, AnalysisUsageError, balanceTransformFor, calibrateCommand, repeatCommand, upflowCommand } from './analysisCommands.ts';
+// --- end ---
 
 const USAGE = `usage:
   sweepbook reduce RUN.csv --setup SETUP.json [--tare WINDOFF.csv] [--columns MAP.json] [--format json|csv] [--out FILE] [--no-corrections]
@@ -31,6 +34,7 @@ const USAGE = `usage:
   sweepbook columns RUN [--out MAP.json]
   sweepbook project RUN.csv --setup SETUP.json --mass-kg M --wing-area-m2 S [--pressure-altitude-m H]
                     [--temp-c T | --isa-deviation-c D] [--rh-pct RH] [--cl-max X] [--lift-off-factor F] [--tare WINDOFF.csv] [--columns MAP.json]
+${ANALYSIS_USAGE}
   sweepbook --version`;
 
 class UsageError extends Error {}
@@ -49,6 +53,11 @@ export async function main(argv: string[], io = { stdout: process.stdout, stderr
     }
     if (command === 'reduce') return await reduceCommand(rest, io, say);
     if (command === 'project') return await projectCommand(rest, io, say);
+    // --- balance calibration, upflow, repeatability ---
+    if (command === 'calibrate') return await calibrateCommand(rest, io, say);
+    if (command === 'upflow') return await upflowCommand(rest, io, say);
+    if (command === 'repeat') return await repeatCommand(rest, io, say);
+    // --- end ---
     if (command === 'columns') {
       return await columnsCommand(rest, io, say, (m) => {
         throw new UsageError(m);
@@ -56,7 +65,7 @@ export async function main(argv: string[], io = { stdout: process.stdout, stderr
     }
     throw new UsageError(`unknown command "${command}"`);
   } catch (err) {
-    if (err instanceof UsageError || (err as { code?: string }).code?.startsWith('ERR_PARSE_ARGS')) {
+    if (err instanceof UsageError || err instanceof AnalysisUsageError || (err as { code?: string }).code?.startsWith('ERR_PARSE_ARGS')) {
       say(`sweepbook: ${(err as Error).message}`);
       say(USAGE);
       return 2;
@@ -145,9 +154,11 @@ async function loadAndReduce(
     inputs.push({ role: 'columns', name: basename(columnsPath), sha256: createHash('sha256').update(mapText).digest('hex') });
   }
   const grouping = { alphaTolRad: ((setup.value.setup.grouping?.alpha_tol_deg ?? 0.2) * Math.PI) / 180 };
+  const transform = await balanceTransformFor(setupPath, setup.value, inputs); // balance calibration: raw bridge outputs → loads per sample
+  if (transform !== undefined && !('apply' in transform)) return failWith(say, [transform]);
   const read = async (path: string, role: 'run' | 'tare') => {
     const hash = createHash('sha256');
-    const r = await readRun(path, runText(path, hash), mapping && role === 'tare' ? { ...mapping, partial: true } : mapping, grouping);
+    const r = await readRun(path, runText(path, hash), mapping && role === 'tare' ? { ...mapping, partial: true } : mapping, grouping, transform);
     if (r.ok) inputs.push({ role, name: basename(path), sha256: hash.digest('hex') });
     return r;
   };

@@ -6,9 +6,10 @@
  */
 import type { ReductionResult } from '../reduction/pipeline.ts';
 import type { Setup } from '../setup/schema.ts';
+import { calibrationRecord } from '../balance/document.ts';
 
 export interface InputFile {
-  role: 'run' | 'setup' | 'tare' | 'columns';
+  role: 'run' | 'setup' | 'tare' | 'columns' | 'balance';
   name: string;
   sha256: string;
 }
@@ -37,7 +38,8 @@ export function provenanceOf(result: ReductionResult, setup: Setup, meta: { vers
     inputs: meta.inputs,
     corrections: result.corrections,
     factors: result.factors,
-    setup: canonical(setup) as Setup,
+    // a balance calibration is recorded as its document's matrices (not the checked object, nor its residual tables)
+    setup: canonical({ ...setup, balance: { ...setup.balance, calibration: calibrationRecord(setup.balance.calibration) } }) as Setup,
   };
 }
 

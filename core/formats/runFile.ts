@@ -22,6 +22,7 @@ import { CHANNELS, POINT_COLUMN, PRESSURE_SOURCES, defaultConversion, isChannel,
 import { InputError, type Notice } from '../contract/messages.ts';
 import { PointAccumulator, type PointStats } from './pointStats.ts';
 import { lookupUnit, unitsOf, STANDARD_GRAVITY, type UnitConversion } from '../physics/units.ts';
+import type { SampleTransform } from './sampleTransform.ts';
 
 export interface ColumnInfo {
   /** Name as written in the header (without the unit). */
@@ -134,6 +135,8 @@ interface BoundColumn {
   slot: number; // index into the accumulator's channel array
   conv: UnitConversion;
   channel: Channel;
+  /** Per-sample transform hook: the header name of a column read raw for the transform. */
+  raw?: string;
 }
 
 type Phase = 'preamble' | 'unitsRow' | 'data';
@@ -181,9 +184,20 @@ export class RunFileReader {
   // the file's first characters, held back until probed for binary content
   private probe = '';
   private probed = false;
+  // --- per-sample transform hook (see sampleTransform.ts) ---
+  private readonly transform: SampleTransform | undefined;
+  private rawIn: Float64Array = new Float64Array(0);
+  private transformed: Float64Array = new Float64Array(0);
+  private sampleRow: Float64Array = new Float64Array(0);
+  private transformFailures = 0;
+  // --- end of the hook's fields ---
 
-  constructor(file: string, options: { limits?: Partial<ReaderLimits>; mapping?: ColumnMapping; grouping?: GroupingOptions } = {}) {
+  constructor(
+    file: string,
+    options: { limits?: Partial<ReaderLimits>; mapping?: ColumnMapping; grouping?: GroupingOptions; sampleTransform?: SampleTransform } = {},
+  ) {
     this.file = file;
+    this.transform = options.sampleTransform;
     this.limits = { ...DEFAULT_LIMITS, ...options.limits };
     this.mapping = options.mapping ?? {};
     this.alphaTol = options.grouping?.alphaTolRad ?? (DEFAULT_ALPHA_TOL_DEG * Math.PI) / 180;
@@ -459,6 +473,7 @@ export class RunFileReader {
       if (assigned === null) continue; // ignored by the map
       const mapped = assigned ? assigned.channel : this.mapping.names?.[name.toLowerCase()];
       const key = (mapped ?? name).toLowerCase();
+      if (this.transformHeader(name, i, column, key, bound)) continue;
       if (key === 'ignore' || key === '') continue;
       if (key !== POINT_COLUMN && !isChannel(key)) continue; // columns outside the contract are not used
       const earlier = seen.get(key);
@@ -507,7 +522,8 @@ export class RunFileReader {
       bound.push({ index: i, slot: bound.length, conv, channel });
     }
     this.bound = bound;
-    this.channels = bound.map((b) => b.channel);
+    this.channels = bound.filter((b) => b.raw === undefined).map((b) => b.channel);
+    this.transformReady(bound);
     this.values = new Float64Array(bound.length);
     this.fieldSlot = new Int32Array(this.headerWidth).fill(UNUSED_FIELD);
     if (this.pointIndex >= 0) this.fieldSlot[this.pointIndex] = POINT_FIELD;
@@ -751,7 +767,7 @@ export class RunFileReader {
       const v = parseCell(cell, this.decimalComma);
       if (!Number.isFinite(v)) {
         const why = NOT_DECIMAL.test(cell.trim()) ? 'is not a decimal number (hexadecimal, binary and octal forms are not read)' : 'is not a finite number';
-        this.skip(lineNo, col.index + 1, `"${clip(cell)}" in column "${col.channel}" ${why}`);
+        this.skip(lineNo, col.index + 1, `"${clip(cell)}" in column "${col.raw ?? col.channel}" ${why}`);
         return;
       }
       values[b] = v * col.conv.scale + col.conv.offset;
@@ -766,12 +782,72 @@ export class RunFileReader {
    */
   private fold(key: string, lineNo: number, values: Float64Array): void {
     const acc = this.accumulator();
-    acc.add(key, lineNo, values);
+    acc.add(key, lineNo, this.transform ? this.sample(values, lineNo) : values);
     if (acc.size > this.limits.maxPoints) {
       this.fail({ line: lineNo, message: `more than ${this.limits.maxPoints} distinct points; is the "point" column a sample counter?` });
     }
     this.read++;
   }
+
+  // --- per-sample transform hook: raw columns bound after the channels, outputs appended to the channels ---
+
+  /** A header cell the transform reads (bound raw, true) or replaces (ignored with a notice, true); false otherwise. */
+  private transformHeader(name: string, index: number, column: number, key: string, bound: BoundColumn[]): boolean {
+    const t = this.transform;
+    if (!t) return false;
+    const lower = name.toLowerCase();
+    if (t.inputs.some((n) => n.toLowerCase() === lower)) {
+      if (bound.some((b) => b.raw?.toLowerCase() === lower)) this.fail({ line: this.headerLine, column, message: `column "${name}" appears twice` });
+      bound.push({ index, slot: -1, conv: IDENTITY, channel: 'alpha', raw: name });
+      return true;
+    }
+    if ((t.outputs as readonly string[]).includes(key)) {
+      this.warnings.push({ file: this.file, line: this.headerLine, column, message: `column "${name}" is not used: "${key}" comes from ${t.source}` });
+      return true;
+    }
+    return false;
+  }
+
+  /** After the header: every input present, channel slots first, raw slots after them in the transform's order. */
+  private transformReady(bound: BoundColumn[]): void {
+    const t = this.transform;
+    if (!t) return;
+    const raw = t.inputs.map((n) => bound.find((b) => b.raw?.toLowerCase() === n.toLowerCase()));
+    const missing = t.inputs.filter((_, i) => raw[i] === undefined);
+    if (missing.length > 0) {
+      this.fail({
+        line: this.headerLine,
+        message: `missing column${missing.length > 1 ? 's' : ''} ${missing.map((m) => `"${m}"`).join(', ')} (bridge output${missing.length > 1 ? 's' : ''} named by ${t.source})`,
+      });
+    }
+    const channels = bound.filter((b) => b.raw === undefined);
+    channels.forEach((b, i) => (b.slot = i));
+    raw.forEach((b, i) => (b!.slot = channels.length + i));
+    bound.sort((a, b) => a.slot - b.slot);
+    this.channels = [...this.channels, ...t.outputs];
+    this.rawIn = new Float64Array(t.inputs.length);
+    this.transformed = new Float64Array(t.outputs.length);
+    this.sampleRow = new Float64Array(this.channels.length);
+  }
+
+  /** The sample as the accumulator takes it: the read channels, then the transform's outputs in place of its raw inputs. */
+  private sample(values: Float64Array, lineNo: number): Float64Array {
+    const t = this.transform!;
+    const nCh = this.channels.length - t.outputs.length;
+    const row = this.sampleRow;
+    for (let i = 0; i < nCh; i++) row[i] = values[i]!;
+    for (let i = 0; i < this.rawIn.length; i++) this.rawIn[i] = values[nCh + i]!;
+    const why = t.apply(this.rawIn, this.transformed);
+    if (why !== undefined) {
+      this.transformed.fill(Number.NaN);
+      if (++this.transformFailures <= this.limits.maxRowWarnings) {
+        this.warnings.push({ file: this.file, line: lineNo, message: `sample not converted by ${t.source}: ${why}; its point is not reduced` });
+      }
+    }
+    row.set(this.transformed, nCh);
+    return row;
+  }
+  // --- end of the transform hook ---
 
   private skip(line: number, column: number | undefined, why: string): void {
     this.skipped++;
@@ -987,8 +1063,15 @@ function clip(cell: string): string {
   return cell.length > 24 ? `${cell.slice(0, 24)}…` : cell;
 }
 
+/** Unit conversion of a column read raw for a sample transform: none. */
+const IDENTITY: UnitConversion = { ...defaultConversion('alpha'), scale: 1, offset: 0, label: 'as written' };
+
 /** Read a whole run file held in memory (tests, the browser host's small files). */
-export function readRunText(file: string, text: string, options?: { mapping?: ColumnMapping; limits?: Partial<ReaderLimits>; grouping?: GroupingOptions }): RunData {
+export function readRunText(
+  file: string,
+  text: string,
+  options?: { mapping?: ColumnMapping; limits?: Partial<ReaderLimits>; grouping?: GroupingOptions; sampleTransform?: SampleTransform },
+): RunData {
   const reader = new RunFileReader(file, options);
   reader.push(text);
   return reader.finish();

@@ -9,14 +9,21 @@ import { parseSetup, type SetupResult } from '../setup/schema.ts';
 import { commentLine, csvCell, csvLine, type Cell } from '../formats/csvWriter.ts';
 import { provenanceLines, type Provenance } from '../formats/provenance.ts';
 import { SETUP_MAX_BYTES, setupTooLarge } from '../formats/limits.ts';
+import type { SampleTransform } from '../formats/sampleTransform.ts';
 
 export type { ReductionResult, PointResult } from './pipeline.ts';
 
 /** A source of text chunks: a Node stream with utf8 encoding, a browser file's text stream, or an array. */
 export type TextSource = AsyncIterable<string> | Iterable<string>;
 
-export async function readRun(file: string, source: TextSource, mapping?: ColumnMapping, grouping?: GroupingOptions): Promise<Outcome<RunData>> {
-  const reader = new RunFileReader(file, { mapping, grouping });
+export async function readRun(
+  file: string,
+  source: TextSource,
+  mapping?: ColumnMapping,
+  grouping?: GroupingOptions,
+  sampleTransform?: SampleTransform,
+): Promise<Outcome<RunData>> {
+  const reader = new RunFileReader(file, { mapping, grouping, sampleTransform });
   return attemptAsync(async () => {
     for await (const chunk of source as AsyncIterable<string>) reader.push(chunk);
     return reader.finish();

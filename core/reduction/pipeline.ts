@@ -10,6 +10,7 @@ import type { Setup } from '../setup/schema.ts';
 import type { Basis, ReductionContext, Stage } from './context.ts';
 import { assembleResult, type ReductionResult } from './result.ts';
 import { STAGES } from './stages/index.ts';
+import { DEG_PER_RAD } from '../physics/angles.ts';
 
 export type { PointResult, ReductionResult } from './result.ts';
 export { LOW_SPEED_MACH } from './stages/measure.ts';
@@ -40,6 +41,7 @@ function newContext(input: ReduceInput, basis: Basis): ReductionContext {
       gamma: setup.flow.gamma,
       axes: setup.balance.axes,
       offset: setup.model.moment_ref_offset_m,
+      upflow: setup.flow.upflow_deg / DEG_PER_RAD, // flow angle (setup flow.upflow_deg)
     },
     notices: [...(input.setupWarnings ?? []), ...run.warnings],
     points: [],

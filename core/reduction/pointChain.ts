@@ -8,6 +8,7 @@ import { bodyToWind, transferPitch, windToBody } from '../physics/axes.ts';
 import { DEG_PER_RAD } from '../physics/angles.ts';
 import { flowState, type FlowState } from '../physics/flowState.ts';
 import type { TunnelPoint } from '../walls/types.ts';
+import { resolveToFlow } from '../flowAngle/upflow.ts';
 
 /** Point means in SI, tares already removed from the loads. Absent loads are NaN. */
 export interface PointInputs {
@@ -39,6 +40,8 @@ export interface PointGeometry {
   gamma: number;
   axes: 'wind' | 'body';
   offset: { x: number; z: number };
+  /** Flow angularity: upflow φ, rad, positive up (setup `flow.upflow_deg`); absent or 0 leaves α and the loads as they are. */
+  upflow?: number;
 }
 
 /** Loads in both axis systems and the pitching moment at the reference centre. */
@@ -83,11 +86,16 @@ export function resolveLoads(x: PointInputs, g: PointGeometry): ResolvedLoads {
 }
 
 /**
- * Step 2, flow angle: the angle of attack to the flow. Without a flow-angularity correction it is the
- * geometric angle and the loads stay as resolved.
+ * Step 2, flow angle: the angle of attack to the flow. With an upflow φ (setup `flow.upflow_deg`),
+ * α_flow = α + φ and lift and drag are resolved to the true flow direction, L = L'·cos φ − D'·sin φ,
+ * D = D'·cos φ + L'·sin φ (core/flowAngle/upflow.ts; Barlow, Rae & Pope 3rd ed., flow angularity);
+ * body-axis loads and the pitching moment do not depend on it. Without one, α and the loads stay as resolved.
  */
-export function flowAngle(x: PointInputs, loads: ResolvedLoads): { alphaFlow: number; loads: ResolvedLoads } {
-  return { alphaFlow: x.alpha, loads };
+export function flowAngle(x: PointInputs, loads: ResolvedLoads, g?: PointGeometry): { alphaFlow: number; loads: ResolvedLoads } {
+  const phi = g?.upflow ?? 0;
+  if (phi === 0) return { alphaFlow: x.alpha, loads };
+  const { lift, drag } = resolveToFlow(loads.lift, loads.drag, phi);
+  return { alphaFlow: x.alpha + phi, loads: { ...loads, lift, drag } };
 }
 
 /** Step 3, flow state from the pitot-static and ambient readings (docs/methods.md §3–4). */
@@ -115,7 +123,7 @@ export function coefficients(x: PointInputs, alphaFlow: number, loads: ResolvedL
 
 /** The whole chain for one point. */
 export function evaluatePoint(x: PointInputs, g: PointGeometry): Measured {
-  const { alphaFlow, loads } = flowAngle(x, resolveLoads(x, g));
+  const { alphaFlow, loads } = flowAngle(x, resolveLoads(x, g), g);
   const flow = pointFlow(x, g);
   return { ...loads, alphaFlow, flow, tunnel: coefficients(x, alphaFlow, loads, flow, g) };
 }

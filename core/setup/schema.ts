@@ -11,6 +11,7 @@
 import { z } from 'zod';
 import { InputError, type Notice } from '../contract/messages.ts';
 import './fieldMeta.ts';
+import { checkBalanceAxes, validateBalance, type Balance } from '../balance/document.ts';
 import { checkMounting, tunnelSectionOf, type Boundaries, type Mounting } from '../walls/sections.ts';
 import { DEFAULT_FINENESS_RATIO, shapeFactorK } from '../walls/shapeFactor.ts';
 
@@ -223,6 +224,18 @@ const balanceSchema = z
       choices: { wind: 'wind axes (lift, drag)', body: 'body axes (normal, axial)' },
     }),
     // ── balance fields added by later work go below this line, one entry each ──
+    calibration: z
+      .union([z.string().min(1), z.record(z.string(), z.unknown())], {
+        error: 'expected the path of a balance file (relative to the setup file) or a balance document',
+      })
+      .optional()
+      .meta({
+        label: 'Balance calibration',
+        help: 'raw bridge outputs: a balance file beside the setup, or the document inline',
+        details:
+          'The path of a balance file (relative to the setup file) or the same document inline (docs/data-format.md, "Balance file"). The run and its tare then hold bridge outputs; every sample is converted to loads before averaging.',
+        form: false,
+      }),
   })
   .meta({ group: 'Balance' });
 
@@ -237,6 +250,14 @@ const flowSchema = z
         unit: '–',
         help: 'q = factor × dp_contraction; needed when the run logs the contraction pressure drop',
         details: 'The facility calibration of dynamic pressure against the settling-chamber to test-section pressure drop; required when `dp_contraction` is the pressure source.',
+      }),
+    upflow_deg: inRange('upflow angle, positive up', -10, 10, '°')
+      .default(0)
+      .meta({
+        label: 'Upflow φ',
+        unit: 'deg',
+        help: 'flow angularity, positive up; measured by sweepbook upflow',
+        details: 'Applied before the wall corrections: α += φ, and lift and drag are resolved to the flow, L = L′cos φ − D′sin φ, D = D′cos φ + L′sin φ.',
       }),
   })
   .prefault({})
@@ -399,7 +420,9 @@ type Simplify<T> = { [K in keyof T]: T[K] } & {};
  * width), the shape factor K by model kind, and `uncertainty` null when the block is absent.
  */
 export type Setup = Simplify<
-  Omit<Parsed, '$schema' | 'model' | 'tunnel' | 'corrections' | 'uncertainty'> & {
+  Omit<Parsed, '$schema' | 'model' | 'tunnel' | 'corrections' | 'uncertainty' | 'balance'> & {
+    /** `calibration`: checked (inline, or read by the host), a path still to read, or null (the run holds loads). */
+    balance: Simplify<Omit<Parsed['balance'], 'calibration'> & { calibration: Balance | CalibrationPath | null }>;
     model: Simplify<Omit<Parsed['model'], 'area_m2' | 'span_m'> & { area_m2: number; span_m: number }>;
     /** width_m and height_m equal the diameter for a circular section, so every consumer finds a size. */
     tunnel: Simplify<Omit<Parsed['tunnel'], 'width_m' | 'height_m'> & { width_m: number; height_m: number }>;
@@ -407,6 +430,11 @@ export type Setup = Simplify<
     uncertainty: Parsed['uncertainty'] | null;
   }
 >;
+
+/** A balance calibration named by path, still to be read by the host (core reads no files). */
+export interface CalibrationPath {
+  path: string;
+}
 
 /**
  * Default solid-blockage shape factors: 2D Barlow, Rae & Pope 3rd ed. §9.2 (K1 = 0.74, wing spanning the
@@ -470,6 +498,7 @@ export function validateSetup(file: string, json: unknown): SetupResult {
       ...s,
       model: { ...m, area_m2: area, span_m: span },
       tunnel,
+      balance: { ...s.balance, calibration: setupCalibration(file, s.balance.axes, s.balance.calibration) },
       corrections: {
         ...s.corrections,
         solid_blockage_k:
@@ -546,6 +575,15 @@ function checkTunnel(file: string, s: Omit<Parsed, '$schema'>, span: number | un
   return out;
 }
 // ---- end tunnels and mountings ----
+
+/** The setup's calibration: an inline document checked here, a path kept for the host to read. */
+function setupCalibration(file: string, axes: 'wind' | 'body', c: string | Record<string, unknown> | undefined): Balance | CalibrationPath | null {
+  if (c === undefined) return null;
+  if (typeof c === 'string') return { path: c };
+  const b = validateBalance(file, c, 'balance.calibration.');
+  checkBalanceAxes(b, axes);
+  return b;
+}
 
 function round(x: number): string {
   return Number(x.toPrecision(6)).toString();

@@ -20,10 +20,10 @@ export const axesStage: Stage = {
 /** Flow angle: the angle of attack to the flow, and the loads resolved to it. */
 export const flowAngleStage: Stage = {
   name: 'flow angle',
-  source: 'docs/methods.md §5',
+  source: 'upflow from upright and inverted runs, loads resolved to the flow: Barlow, Rae & Pope, Low-Speed Wind Tunnel Testing, 3rd ed. (1999), flow angularity; docs/methods.md §5',
   run(ctx) {
     for (const pt of ctx.points) {
-      const r = flowAngle(pt.inputs, pt.loads!);
+      const r = flowAngle(pt.inputs, pt.loads!, ctx.geometry);
       pt.alphaFlow = r.alphaFlow;
       pt.loads = r.loads;
     }

@@ -76,7 +76,7 @@ export interface WorkbenchState {
   fullScale: FullScaleDraft;
 }
 
-export type ViewId = 'plots' | 'delta' | 'fits' | 'fullscale' | 'detail' | 'samples' | 'setup';
+export type ViewId = 'plots' | 'delta' | 'fits' | 'fullscale' | 'detail' | 'samples' | 'setup' | 'analysis'; // 'analysis': balance, upflow, repeatability
 
 export const RUN_KEY = (file: string) => `run:${file}`;
 export const TARE_KEY = (file: string) => `tare:${file}`;
