@@ -95,7 +95,11 @@ function decimated(alphaDeg: readonly number[], cl: readonly number[], tolerance
   const step = Math.ceil(n / MAX_WINDOW_SEARCH);
   const idx: number[] = [];
   for (let i = 0; i < n; i += step) idx.push(i);
-  const sub = findLinearRange(idx.map((i) => alphaDeg[i]!), idx.map((i) => cl[i]!), tolerance);
+  const sub = findLinearRange(
+    idx.map((i) => alphaDeg[i]!),
+    idx.map((i) => cl[i]!),
+    tolerance,
+  );
   if (!sub) return undefined;
   const from = idx[sub.from]!;
   const to = Math.min(n, idx[sub.to - 1]! + 1);
@@ -105,7 +109,7 @@ function decimated(alphaDeg: readonly number[], cl: readonly number[], tolerance
 /** The points whose α lies in [lo, hi] (setup `fit.alpha_range_deg`), as a range of the ordered arrays. */
 export function rangeFromAlpha(alphaDeg: readonly number[], cl: readonly number[], lo: number, hi: number): LinearRange | undefined {
   const eps = 1e-9 * Math.max(1, Math.abs(lo), Math.abs(hi));
-  let from = alphaDeg.findIndex((a) => a >= lo - eps);
+  const from = alphaDeg.findIndex((a) => a >= lo - eps);
   if (from < 0) return undefined;
   let to = from;
   while (to < alphaDeg.length && alphaDeg[to]! <= hi + eps) to++;
