@@ -106,6 +106,11 @@ export function setupFrom(original: unknown, draft: Draft): Record<string, unkno
   // likewise an uncertainty block with nothing in it: no block means no uncertainties, unweighted fits
   const u = out['uncertainty'];
   if (u !== null && typeof u === 'object' && Object.keys(u).length === 0) delete out['uncertainty'];
+  // and any other block the form created empty (all its fields blank) that the setup did not have
+  const orig = (original ?? {}) as Record<string, unknown>;
+  for (const [key, v] of Object.entries(out)) {
+    if (!(key in orig) && v !== null && typeof v === 'object' && !Array.isArray(v) && Object.keys(v).length === 0) delete out[key];
+  }
   return out;
 }
 
