@@ -447,7 +447,8 @@ function fitOverRange(fit: FitResult, d: BranchData, from: number, to: number, i
     fit.cm_alpha_per_deg = fitLine(a, cmr).slope;
     const dcmdcl = fitLine(cl, cmr).slope;
     fit.cm_cl_slope = dcmdcl;
-    if (input.kind === '3d') fit.x_ac_aft_of_ref_c = -dcmdcl;
+    // aerodynamic centre aft of the moment reference, 3D and 2D alike (for a section: x_ac/c = x_ref/c − dcm/dcl)
+    fit.x_ac_aft_of_ref_c = -dcmdcl;
   }
   return pr;
 }

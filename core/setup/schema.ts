@@ -11,6 +11,8 @@
 import { z } from 'zod';
 import { InputError, type Notice } from '../contract/messages.ts';
 import './fieldMeta.ts';
+import { checkMounting, tunnelSectionOf, type Boundaries, type Mounting } from '../walls/sections.ts';
+import { DEFAULT_FINENESS_RATIO, shapeFactorK } from '../walls/shapeFactor.ts';
 
 const positive = (what: string) =>
   z
@@ -44,12 +46,20 @@ const optionalFactor = (what: string) =>
     .nullable()
     .default(null);
 
+// ---- tunnels and mountings: names ----
+export const SECTIONS = ['closed-rectangular', 'open-rectangular', 'rectangular', 'closed-circular', 'open-circular'] as const;
+export type SectionName = (typeof SECTIONS)[number];
+const WALLS = ['floor', 'ceiling', 'left', 'right'] as const;
+const boundary = (side: string) =>
+  z.enum(['solid', 'free'], { error: 'expected "solid" or "free"' }).meta({ label: `Boundary: ${side}`, help: 'section "rectangular" only', choices: { solid: 'solid wall', free: 'free (jet boundary)' } });
+// ---- end tunnels and mountings ----
+
 const modelSchema = z
   .strictObject({
     kind: z.enum(['2d', '3d'], { error: 'expected "2d" (a wing spanning the tunnel) or "3d"' }).meta({
       label: 'Model',
-      details: '`2d`: a wing section spanning the tunnel width. `3d`: a model in the closed section; needs `area_m2`, `chord_m` and `span_m`.',
-      choices: { '3d': '3D model in the closed section', '2d': '2D wing spanning the section' },
+      details: '`2d`: a wing section spanning the tunnel width between solid side walls. `3d`: a model in the test section; needs `area_m2`, `chord_m` and `span_m`.',
+      choices: { '3d': '3D model', '2d': '2D wing spanning the section' },
     }),
     name: z.string().optional().meta({ label: 'Name', details: 'For people; not used by the reduction.' }),
     area_m2: geometry('reference area', 'm²').optional().meta({
@@ -95,18 +105,79 @@ const modelSchema = z
       .default('elliptic')
       .meta({ label: 'Span loading', help: 'for the computed lift-interference factor δ', form: false }),
     // ── model fields added by later work go below this line, one entry each ──
+    // ---- tunnels and mountings (present in the read-back setup only when given) ----
+    mounting: z.enum(['full', 'half'], { error: 'expected "full" or "half" (a half model on a reflection wall)' }).optional().meta({
+      label: 'Mounting',
+      defaultText: 'full',
+      choices: { full: 'full model', half: 'half model on a reflection wall' },
+      details: '`half`: a half model standing on the solid wall named by `reflection_wall`; `span_m` is then the semi-span and `area_m2`, `volume_m3` the half model\'s. Corrected as the full model mirrored across that wall (docs/methods.md §7a).',
+    }),
+    reflection_wall: z.enum(WALLS, { error: 'expected "floor", "ceiling", "left" or "right"' }).optional().meta({
+      label: 'Reflection wall (half model)',
+      help: 'a half model: span is the semi-span, area the half-model area',
+      choices: { floor: 'floor', ceiling: 'ceiling', left: 'left wall', right: 'right wall' },
+    }),
+    moment_ref_xc: inRange('moment reference aft of the leading edge, in chords', -2, 3, '').optional().meta({
+      label: 'Moment reference aft of the leading edge',
+      unit: 'c',
+      help: 'empty: 0.25 (quarter chord)',
+      defaultText: '0.25',
+      details: 'Chordwise position of the moment reference centre, in chords aft of the reference chord\'s leading edge; the streamline-curvature moment terms (2D and 3D) are referred to it.',
+    }),
+    fineness_ratio: inRange('length / diameter of the equivalent body of revolution', 1, 100, '').optional().meta({
+      label: 'Body fineness ratio (length / diameter)',
+      unit: '–',
+      help: 'sets K = 1 + k1; empty: 6',
+      defaultText: '6',
+      details: 'Sets the default solid-blockage shape factor K = 1 + k1 of a prolate spheroid of this fineness (docs/methods.md §7).',
+    }),
+    tail_arm_m: geometry('tail arm, wing quarter chord to tail quarter chord', 'm').optional().meta({
+      label: 'Tail arm (wing c/4 to tail c/4)',
+      unit: 'm',
+      help: 'tail-on models only',
+    }),
+    tail_cm_per_deg: finite('∂Cm/∂α at the tail, per degree').optional().meta({
+      label: 'Pitching moment per degree of tail angle',
+      unit: '1/deg',
+      help: 'from runs at two tail incidences',
+      details: 'With `tail_arm_m`, the tail-on moment correction ΔCm_t = −(∂Cm/∂α_t)·Δα_t is applied (docs/methods.md §7).',
+    }),
+    // ---- end tunnels and mountings ----
   })
   .meta({ group: 'Model' });
 
 const tunnelSchema = z
   .strictObject({
     name: z.string().optional().meta({ label: 'Tunnel name', help: 'for people; not used by the reduction', form: false }),
-    section: z
-      .literal('closed-rectangular', { error: 'expected "closed-rectangular" (the only section supported so far)' })
-      .meta({ label: 'Test section', help: 'the shape and walls of the test section', form: false }),
-    width_m: geometry('test-section width', 'm').meta({ label: 'Test-section width B', unit: 'm', details: 'Along the model span.' }),
-    height_m: geometry('test-section height', 'm').meta({ label: 'Test-section height H', unit: 'm' }),
+    section: z.enum(SECTIONS, { error: `expected one of ${SECTIONS.map((x) => `"${x}"`).join(', ')}` }).meta({
+      label: 'Test section',
+      help: 'the shape and walls of the test section',
+      choices: {
+        'closed-rectangular': 'closed rectangular',
+        'open-rectangular': 'open rectangular jet',
+        rectangular: 'rectangular, each side chosen',
+        'closed-circular': 'closed circular',
+        'open-circular': 'open circular jet',
+      },
+      details: 'Rectangular sections take `width_m` and `height_m`, circular ones `diameter_m`; `rectangular` needs `boundaries`.',
+    }),
+    width_m: geometry('test-section width', 'm')
+      .optional()
+      .meta({ label: 'Test-section width B', unit: 'm', help: 'rectangular sections', details: 'Along the model span. Required for rectangular sections.' }),
+    height_m: geometry('test-section height', 'm').optional().meta({ label: 'Test-section height H', unit: 'm', help: 'rectangular sections', details: 'Required for rectangular sections.' }),
     // ── tunnel fields added by later work go below this line, one entry each ──
+    // ---- tunnels and mountings ----
+    diameter_m: geometry('test-section diameter', 'm').optional().meta({ label: 'Diameter D', unit: 'm', help: 'circular sections', details: 'Required for circular sections.' }),
+    fillet_m: finite('leg of the 45° corner fillets, m')
+      .nonnegative({ error: 'expected 0 or a positive number (leg of the 45° corner fillets, m)' })
+      .max(1e3, { error: 'expected 0 to 1000 m (leg of the 45° corner fillets)' })
+      .optional()
+      .meta({ label: 'Corner fillet leg f', unit: 'm', help: '45° fillets; C = B·H − 2f²', details: 'Rectangular sections; refused when a leg reaches half the shorter side.' }),
+    boundaries: z
+      .strictObject({ floor: boundary('floor'), ceiling: boundary('ceiling'), left: boundary('left'), right: boundary('right') })
+      .optional()
+      .meta({ details: 'Section `rectangular` only, and then required: each side `solid` or `free`.' }),
+    // ---- end tunnels and mountings ----
   })
   .meta({ group: 'Tunnel' });
 
@@ -167,8 +238,8 @@ const correctionsSchema = z
       .meta({
         label: 'Solid-blockage shape factor K',
         unit: '–',
-        help: 'empty: 0.96 (3D) or 0.74 (2D)',
-        defaultText: '0.74 (2D), 0.96 (3D)',
+        help: 'empty: 1 + k1 of the body (3D) or 0.74 (2D)',
+        defaultText: '0.74 (2D); 3D: 1 + k1 of a prolate spheroid of model.fineness_ratio (1.045 for 6)',
         formKind: 'auto-number',
       }),
     delta: optionalFactor('lift-interference factor δ').meta({
@@ -292,15 +363,21 @@ type Simplify<T> = { [K in keyof T]: T[K] } & {};
  * width), the shape factor K by model kind, and `uncertainty` null when the block is absent.
  */
 export type Setup = Simplify<
-  Omit<Parsed, '$schema' | 'model' | 'corrections' | 'uncertainty'> & {
+  Omit<Parsed, '$schema' | 'model' | 'tunnel' | 'corrections' | 'uncertainty'> & {
     model: Simplify<Omit<Parsed['model'], 'area_m2' | 'span_m'> & { area_m2: number; span_m: number }>;
+    /** width_m and height_m equal the diameter for a circular section, so every consumer finds a size. */
+    tunnel: Simplify<Omit<Parsed['tunnel'], 'width_m' | 'height_m'> & { width_m: number; height_m: number }>;
     corrections: Simplify<Omit<Parsed['corrections'], 'solid_blockage_k'> & { solid_blockage_k: number }>;
     uncertainty: Parsed['uncertainty'] | null;
   }
 >;
 
-/** Default solid-blockage shape factors: Barlow, Rae & Pope 3rd ed. §9.2 (K1 = 0.74, wing spanning the tunnel) and §10.1 (typical wing/body, 0.96). */
-export const DEFAULT_SOLID_BLOCKAGE_K = { '2d': 0.74, '3d': 0.96 } as const;
+/**
+ * Default solid-blockage shape factors: 2D Barlow, Rae & Pope 3rd ed. §9.2 (K1 = 0.74, wing spanning the
+ * tunnel); 3D K = 1 + k1 of a prolate spheroid of fineness ratio 6 (Lamb's added mass, on the point-doublet
+ * normalisation of the computed τ1; core/walls/shapeFactor.ts), or of `model.fineness_ratio` when given.
+ */
+export const DEFAULT_SOLID_BLOCKAGE_K = { '2d': 0.74, '3d': shapeFactorK(DEFAULT_FINENESS_RATIO) } as const;
 
 export interface SetupResult {
   setup: Setup;
@@ -334,9 +411,10 @@ export function validateSetup(file: string, json: unknown): SetupResult {
   const m = s.model;
   let area: number;
   let span: number;
+  const tunnel = checkTunnel(file, s, m.kind === '3d' ? m.span_m : undefined, warnings);
   if (m.kind === '2d') {
-    area = m.chord_m * s.tunnel.width_m;
-    span = s.tunnel.width_m;
+    area = m.chord_m * tunnel.width_m;
+    span = tunnel.width_m;
     if (m.area_m2 !== undefined && Math.abs(m.area_m2 - area) > 1e-6 * area) {
       warnings.push({
         file,
@@ -355,11 +433,83 @@ export function validateSetup(file: string, json: unknown): SetupResult {
     setup: {
       ...s,
       model: { ...m, area_m2: area, span_m: span },
-      corrections: { ...s.corrections, solid_blockage_k: s.corrections.solid_blockage_k ?? DEFAULT_SOLID_BLOCKAGE_K[m.kind] },
+      tunnel,
+      corrections: {
+        ...s.corrections,
+        solid_blockage_k:
+          s.corrections.solid_blockage_k ?? (m.kind === '3d' && m.fineness_ratio !== undefined ? shapeFactorK(m.fineness_ratio) : DEFAULT_SOLID_BLOCKAGE_K[m.kind]),
+      },
       uncertainty: s.uncertainty ?? null,
     },
   };
 }
+
+// ---- tunnels and mountings: checks ----
+export { tunnelSectionOf, mountingOf } from '../walls/sections.ts';
+
+/** The entries whose value is not undefined. */
+function definedOnly<T extends Record<string, unknown>>(o: T): Partial<{ [K in keyof T]: Exclude<T[K], undefined> }> {
+  return Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined)) as Partial<{ [K in keyof T]: Exclude<T[K], undefined> }>;
+}
+
+const article = (word: string) => (/^[aeiou]/.test(word) ? 'an' : 'a');
+
+/** Size, boundaries, fillets and mounting checked together; refusals name the field, cautions become warnings. */
+function checkTunnel(file: string, s: Omit<Parsed, '$schema'>, span: number | undefined, warnings: Notice[]): Setup['tunnel'] {
+  const t = s.tunnel;
+  const m = s.model;
+  const refuse = (field: string, message: string): never => {
+    throw new InputError({ file, field, message });
+  };
+  const circular = t.section === 'closed-circular' || t.section === 'open-circular';
+  let width: number;
+  let height: number;
+  let diameter: number | null = null;
+  if (circular) {
+    if (t.diameter_m === undefined) refuse('tunnel.diameter_m', `required for ${article(t.section)} ${t.section} section (diameter, m)`);
+    diameter = t.diameter_m!;
+    for (const k of ['width_m', 'height_m'] as const) {
+      if (t[k] !== undefined && t[k] !== diameter) refuse(`tunnel.${k}`, `a circular section is sized by tunnel.diameter_m (${diameter} m); ${t[k]} m here disagrees — remove it`);
+    }
+    if (t.fillet_m) refuse('tunnel.fillet_m', 'corner fillets apply to rectangular sections only');
+    width = height = diameter;
+  } else {
+    if (t.width_m === undefined) refuse('tunnel.width_m', `required for ${article(t.section)} ${t.section} section (width along the span, m)`);
+    if (t.height_m === undefined) refuse('tunnel.height_m', `required for ${article(t.section)} ${t.section} section (height, m)`);
+    if (t.diameter_m !== undefined) refuse('tunnel.diameter_m', `only for circular sections; a ${t.section} section is sized by width_m and height_m`);
+    width = t.width_m!;
+    height = t.height_m!;
+  }
+  let boundaries: Boundaries;
+  if (t.section === 'rectangular') {
+    if (!t.boundaries) refuse('tunnel.boundaries', 'required for section "rectangular": { "floor", "ceiling", "left", "right" }, each "solid" or "free"');
+    boundaries = t.boundaries!;
+  } else {
+    if (t.boundaries) refuse('tunnel.boundaries', `only for section "rectangular"; "${t.section}" fixes every boundary (use "rectangular" to set each side)`);
+    const kind = t.section.startsWith('open') ? 'free' : 'solid';
+    boundaries = { floor: kind, ceiling: kind, left: kind, right: kind };
+  }
+  if (m.mounting !== 'half' && m.reflection_wall !== undefined) refuse('model.reflection_wall', 'applies to a half model only (set model.mounting to "half")');
+  if (m.mounting === 'half' && m.reflection_wall === undefined) refuse('model.reflection_wall', 'required for a half model: the wall it stands on, "floor", "ceiling", "left" or "right"');
+  if (m.tail_cm_per_deg !== undefined && m.tail_arm_m === undefined) warnings.push({ file, field: 'model.tail_cm_per_deg', message: 'given without model.tail_arm_m: no tail-on correction is made' });
+  const out: Setup['tunnel'] = {
+    ...(t.name !== undefined ? { name: t.name } : {}),
+    section: t.section,
+    width_m: width,
+    height_m: height,
+    ...definedOnly({ diameter_m: diameter ?? undefined, boundaries: t.section === 'rectangular' ? boundaries : undefined, fillet_m: t.fillet_m }),
+  };
+  const section = tunnelSectionOf(out);
+  const mounting: Mounting = m.mounting === 'half' ? { kind: 'half', wall: m.reflection_wall! } : { kind: 'full' };
+  if (m.kind === '2d' && t.section === 'open-rectangular') {
+    refuse('tunnel.section', 'a 2d model spans the width between solid side walls; for free floor and ceiling between solid sides use section "rectangular" with boundaries');
+  }
+  const { errors, cautions } = checkMounting(section, mounting, m.kind, span);
+  if (errors.length > 0) refuse(errors[0]!.field, errors[0]!.message);
+  for (const c of cautions) warnings.push({ file, field: c.field, message: c.message });
+  return out;
+}
+// ---- end tunnels and mountings ----
 
 function round(x: number): string {
   return Number(x.toPrecision(6)).toString();

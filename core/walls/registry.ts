@@ -5,13 +5,19 @@
 import type { Setup } from '../setup/schema.ts';
 import type { WallMethod } from './method.ts';
 import { wall2dMethod } from './wall2d.ts';
-import { classic3dMethod, maskell3dMethod } from './wall3d.ts';
+import { classic3dMethod, freeJet3dMethod, isFreeJet, maskell3dMethod } from './wall3d.ts';
 
-export const WALL_METHODS: readonly WallMethod[] = [wall2dMethod, classic3dMethod, maskell3dMethod];
+export const WALL_METHODS: readonly WallMethod[] = [wall2dMethod, classic3dMethod, maskell3dMethod, freeJet3dMethod];
 
-/** The id a setup asks for: "2d" for a 2D model, else "3d-" and the wake model. */
+/**
+ * The id a setup asks for: "2d" for a 2D model, else "3d-" and the wake model; a 3D model in a section
+ * with a free boundary asks for "3d-free-jet" unless Maskell is asked for by name (that method then
+ * reports its fallback to the free-jet corrections).
+ */
 export function requestedWallMethod(setup: Setup): string {
-  return setup.model.kind === '2d' ? '2d' : `3d-${setup.corrections.wake}`;
+  if (setup.model.kind === '2d') return '2d';
+  if (setup.corrections.wake === 'classic' && isFreeJet(setup)) return '3d-free-jet';
+  return `3d-${setup.corrections.wake}`;
 }
 
 /**

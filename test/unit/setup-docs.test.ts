@@ -64,7 +64,7 @@ describe('setup field metadata', () => {
       const value = f.path.split('.').reduce<unknown>((o, k) => (o as Record<string, unknown>)[k], setup);
       expect(value, f.path).toEqual(f.default);
     }
-    expect(setup.corrections.solid_blockage_k).toBe(0.96);
+    expect(setup.corrections.solid_blockage_k).toBeCloseTo(1.0452, 4); // 1 + k1 of a prolate spheroid of fineness 6 (Lamb §373)
     expect(setup.uncertainty).toBeNull();
   });
 

@@ -64,7 +64,7 @@ describe('wall-correction methods', () => {
   };
 
   it('registers 2D, 3D classic and 3D Maskell, each with a source', () => {
-    expect(WALL_METHODS.map((m) => m.id)).toEqual(['2d', '3d-classic', '3d-maskell']);
+    expect(WALL_METHODS.map((m) => m.id)).toEqual(['2d', '3d-classic', '3d-maskell', '3d-free-jet']);
     for (const m of WALL_METHODS) expect(m.source).toMatch(/Barlow|Allen|Maskell|Glauert/);
   });
 

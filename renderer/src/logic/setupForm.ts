@@ -103,13 +103,22 @@ export function setupFrom(original: unknown, draft: Draft): Record<string, unkno
   const model = out['model'] as Record<string, unknown> | undefined;
   const off = model?.['moment_ref_offset_m'] as Record<string, unknown> | undefined;
   if (off && off['x'] === undefined && off['z'] === undefined) delete model!['moment_ref_offset_m'];
+  // only what the chosen section and mounting take is sent; the other boxes keep their text for switching back
+  const tunnel = out['tunnel'] as Record<string, unknown> | undefined;
+  if (tunnel) {
+    const section = String(tunnel['section'] ?? 'closed-rectangular');
+    const circular = section.endsWith('circular');
+    for (const key of circular ? ['width_m', 'height_m', 'fillet_m', 'boundaries'] : ['diameter_m']) delete tunnel[key];
+    if (section !== 'rectangular') delete tunnel['boundaries'];
+  }
+  if (model && model['mounting'] !== 'half') delete model['reflection_wall'];
   // likewise an uncertainty block with nothing in it: no block means no uncertainties, unweighted fits
   const u = out['uncertainty'];
   if (u !== null && typeof u === 'object' && Object.keys(u).length === 0) delete out['uncertainty'];
-  // and any other block the form created empty (all its fields blank) that the setup did not have
-  const orig = (original ?? {}) as Record<string, unknown>;
-  for (const [key, v] of Object.entries(out)) {
-    if (!(key in orig) && v !== null && typeof v === 'object' && !Array.isArray(v) && Object.keys(v).length === 0) delete out[key];
+  // a block the form opened only because it has fields (grouping, fit) and left empty is not written
+  const had = (original ?? {}) as Record<string, unknown>;
+  for (const [key, value] of Object.entries(out)) {
+    if (!(key in had) && value !== null && typeof value === 'object' && !Array.isArray(value) && Object.keys(value).length === 0) delete out[key];
   }
   return out;
 }
