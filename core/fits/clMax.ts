@@ -42,7 +42,14 @@ export function stallDrop(sigma: number): number {
  * the uncertainty of a parabola vertex comes from first-order propagation through the vertex formula
  * (JCGM 100:2008 eq. 10, sensitivities by central differences).
  */
-export function findClMax(alphaDeg: readonly number[], cl: readonly number[], drop: number, uCl?: readonly number[], uAlpha?: readonly number[], fixedMethod?: ClMax['method']): ClMaxResult {
+export function findClMax(
+  alphaDeg: readonly number[],
+  cl: readonly number[],
+  drop: number,
+  uCl?: readonly number[],
+  uAlpha?: readonly number[],
+  fixedMethod?: ClMax['method'],
+): ClMaxResult {
   const n = alphaDeg.length;
   if (n < 3) return { reason: `only ${n} points` };
   if (n > DENSE_POINTS) return denseClMax(alphaDeg, cl, drop, uCl);
@@ -57,7 +64,9 @@ export function findClMax(alphaDeg: readonly number[], cl: readonly number[], dr
   }
   if (stall < 0) {
     return m === n - 1
-      ? { reason: `no peak was reached: the highest CL is at the highest angle of the sweep (α = ${alphaDeg[m]!.toFixed(2)}°), so the sweep does not reach stall` }
+      ? {
+          reason: `no peak was reached: the highest CL is at the highest angle of the sweep (α = ${alphaDeg[m]!.toFixed(2)}°), so the sweep does not reach stall`,
+        }
       : { reason: `CL does not drop by more than ${drop.toFixed(3)} after its highest value (α = ${alphaDeg[m]!.toFixed(2)}°): no stall is seen` };
   }
   const peak = { peak: m, stall, cl_max: cl[m]!, alpha_cl_max_deg: alphaDeg[m]!, method: 'measured peak' as ClMax['method'] };
@@ -143,7 +152,9 @@ function denseClMax(alphaDeg: readonly number[], cl: readonly number[], drop: nu
   }
   if (stall < 0) {
     return m >= n - 1 - half
-      ? { reason: `no peak was reached: the highest CL is at the highest angles of the sweep (α = ${alphaDeg[n - 1]!.toFixed(2)}°), so the sweep does not reach stall` }
+      ? {
+          reason: `no peak was reached: the highest CL is at the highest angles of the sweep (α = ${alphaDeg[n - 1]!.toFixed(2)}°), so the sweep does not reach stall`,
+        }
       : { reason: `CL does not drop by more than ${drop.toFixed(3)} after its highest value (α = ${sa[m]!.toFixed(2)}°): no stall is seen` };
   }
   let u: number | null = null;

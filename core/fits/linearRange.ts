@@ -95,7 +95,11 @@ function decimated(alphaDeg: readonly number[], cl: readonly number[], tolerance
   const step = Math.ceil(n / MAX_WINDOW_SEARCH);
   const idx: number[] = [];
   for (let i = 0; i < n; i += step) idx.push(i);
-  const sub = findLinearRange(idx.map((i) => alphaDeg[i]!), idx.map((i) => cl[i]!), tolerance);
+  const sub = findLinearRange(
+    idx.map((i) => alphaDeg[i]!),
+    idx.map((i) => cl[i]!),
+    tolerance,
+  );
   if (!sub) return undefined;
   const from = idx[sub.from]!;
   const to = Math.min(n, idx[sub.to - 1]! + 1);

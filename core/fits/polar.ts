@@ -26,7 +26,15 @@ export interface PolarFit {
  * cambered polar whenever CL_mindrag differs from zero by more than two of its standard errors (a cambered
  * wing's polar is not centred on CL = 0, and fitting CD0 + k·CL² to it biases k), else k.
  */
-export function dragPolar(cl: readonly number[], cd: readonly number[], kind: '2d' | '3d', aspectRatio: number, uCl?: readonly number[], uCd?: readonly number[], sigmaCd = 0): PolarFit | undefined {
+export function dragPolar(
+  cl: readonly number[],
+  cd: readonly number[],
+  kind: '2d' | '3d',
+  aspectRatio: number,
+  uCl?: readonly number[],
+  uCd?: readonly number[],
+  sigmaCd = 0,
+): PolarFit | undefined {
   const x = cl.map((c) => c * c);
   const ux = uCl ? cl.map((c, i) => 2 * Math.abs(c) * uCl[i]!) : undefined;
   const line = regressLineEV(x, cd, uCd, ux, sigmaCd);
@@ -64,7 +72,9 @@ export function dragPolar(cl: readonly number[], cd: readonly number[], kind: '2
       out.oswald_e_stderr = kse === null ? null : (out.oswald_e * kse) / k;
       out.oswald_source = useCambered ? 'cambered polar' : 'polar through CL = 0';
       if (out.oswald_e < OSWALD_PLAUSIBLE[0] || out.oswald_e > OSWALD_PLAUSIBLE[1]) {
-        out.warnings.push(`Oswald efficiency ${out.oswald_e.toFixed(2)} (from the ${out.oswald_source}) lies outside ${OSWALD_PLAUSIBLE[0]}–${OSWALD_PLAUSIBLE[1]}, the usual span for a wing; check the aspect ratio, the drag tare and the linear range`);
+        out.warnings.push(
+          `Oswald efficiency ${out.oswald_e.toFixed(2)} (from the ${out.oswald_source}) lies outside ${OSWALD_PLAUSIBLE[0]}–${OSWALD_PLAUSIBLE[1]}, the usual span for a wing; check the aspect ratio, the drag tare and the linear range`,
+        );
       }
     } else {
       out.warnings.push('the drag polar has no positive CL² term; Oswald efficiency is not given');

@@ -38,7 +38,10 @@ export function splitBranches(alphaDeg: readonly number[]): Branch[] {
   for (let i = 1; i + 1 < n; i++) d2.push(Math.abs(alphaDeg[i + 1]! - 2 * alphaDeg[i]! + alphaDeg[i - 1]!));
   const jitter = d2.length > 0 ? (1.4826 * medianOf(d2)) / Math.sqrt(6) : 0;
   const tol = Math.max(0.02, 0.2 * medianOf(steps.filter((s) => s > 0)), 4 * jitter);
-  interface Stretch { dir: number; points: number[] }
+  interface Stretch {
+    dir: number;
+    points: number[];
+  }
   const stretches: Stretch[] = [];
   let cur: Stretch = { dir: 0, points: [0] };
   for (let i = 1; i < n; i++) {
@@ -103,13 +106,7 @@ export interface Hysteresis {
  * branch inside the common α span, ΔCL = CL_up(α) − CL_down(α) with CL_up interpolated linearly;
  * the loop is the α span where |ΔCL| exceeds `tol`. Undefined when the branches never differ by that.
  */
-export function hysteresisLoop(
-  alphaDeg: readonly number[],
-  cl: readonly number[],
-  up: Branch,
-  down: Branch,
-  tol: number,
-): Hysteresis | undefined {
+export function hysteresisLoop(alphaDeg: readonly number[], cl: readonly number[], up: Branch, down: Branch, tol: number): Hysteresis | undefined {
   const u = byRisingAlpha(alphaDeg, up.points);
   const [dLo, dHi] = extent(down.points.map((i) => alphaDeg[i]!));
   const lo = Math.max(alphaDeg[u[0]!]!, dLo);

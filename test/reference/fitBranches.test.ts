@@ -98,7 +98,9 @@ describe('CLmax at the first stall', () => {
 
   it('keeps the first peak of a deep sweep whose post-stall lift rises again to a higher second peak at 37°', () => {
     const a = up(0, 45);
-    const cl = a.map((x) => (x <= 14 ? liftUp(x) : x <= 24 ? 0.97 - 0.04 * (x - 14) : 0.57 + 0.06 * (x - 24) * (x <= 37 ? 1 : 0) + (x > 37 ? 0.78 - 0.05 * (x - 37) : 0)));
+    const cl = a.map((x) =>
+      x <= 14 ? liftUp(x) : x <= 24 ? 0.97 - 0.04 * (x - 14) : 0.57 + 0.06 * (x - 24) * (x <= 37 ? 1 : 0) + (x > 37 ? 0.78 - 0.05 * (x - 37) : 0),
+    );
     expect(Math.max(...cl)).toBeGreaterThan(1.2); // the post-stall peak is the higher one
     const r = fitPolar(input(a, cl));
     expect(r.fit.alpha_cl_max_deg!).toBeGreaterThan(12);
@@ -122,7 +124,13 @@ describe('CLmax at the first stall', () => {
   it('carries a standard uncertainty when the points have stated random uncertainties', () => {
     const a = up(0, 16);
     const cl = a.map((x) => 1.2 - 0.004 * (x - 12.4) ** 2);
-    const r = findClMax(a, cl, 0.02, a.map(() => 0.01), a.map(() => 0.05));
+    const r = findClMax(
+      a,
+      cl,
+      0.02,
+      a.map(() => 0.01),
+      a.map(() => 0.05),
+    );
     if ('reason' in r) throw new Error(r.reason);
     // vertex of three points with equal u: u(CLmax) lies between u/√3 and u (first-order propagation)
     expect(r.u!).toBeGreaterThan(0.01 / Math.sqrt(3));
@@ -187,7 +195,14 @@ describe('drag polar', () => {
   it('warns when e falls outside 0.3–1.2', () => {
     const a = up(-4, 8);
     const cl = a.map((x) => 0.08 * (x + 2));
-    const r = fitPolar(input(a, cl, cl.map((c) => 0.01 + 0.2 * c * c), { aspectRatio: 8 }));
+    const r = fitPolar(
+      input(
+        a,
+        cl,
+        cl.map((c) => 0.01 + 0.2 * c * c),
+        { aspectRatio: 8 },
+      ),
+    );
     expect(r.fit.oswald_e!).toBeLessThan(0.3);
     expect(r.warnings.join()).toMatch(/Oswald efficiency 0\.2\d .* outside 0\.3–1\.2/);
   });
@@ -198,10 +213,12 @@ describe('differences against a baseline', () => {
     const a = up(-6, 18);
     const make = (s: number) => {
       const cl = a.map((x) => s * liftUp(x));
-      return fitPolar(input(a, cl, undefined, {
-        random: { alphaDeg: a.map(() => 0.02), cl: a.map(() => 0.004), cd: a.map(() => 0.0004) },
-        systematic: [{ input: 'area', alphaDeg: a.map(() => 0), cl: cl.map((c) => -0.01 * c), cd: cl.map(() => 0), cm: cl.map(() => 0) }],
-      }));
+      return fitPolar(
+        input(a, cl, undefined, {
+          random: { alphaDeg: a.map(() => 0.02), cl: a.map(() => 0.004), cd: a.map(() => 0.0004) },
+          systematic: [{ input: 'area', alphaDeg: a.map(() => 0), cl: cl.map((c) => -0.01 * c), cd: cl.map(() => 0), cm: cl.map(() => 0) }],
+        }),
+      );
     };
     const run = make(1.1);
     const base = make(1.0);

@@ -10,12 +10,25 @@ import { fitPolar } from '../../core/fits/characteristics.ts';
  */
 const DIR = resolve(__dirname, '../fixtures/real');
 function load(name: string) {
-  const rows = readFileSync(join(DIR, `${name}.csv`), 'utf8').trim().split('\n').slice(1).map((l) => l.split(',').map(Number));
+  const rows = readFileSync(join(DIR, `${name}.csv`), 'utf8')
+    .trim()
+    .split('\n')
+    .slice(1)
+    .map((l) => l.split(',').map(Number));
   return { alpha: rows.map((r) => r[0]!), cl: rows.map((r) => r[1]!), cd: rows.map((r) => r[2]!) };
 }
 function fit(name: string) {
   const d = load(name);
-  return fitPolar({ alphaDeg: d.alpha, cl: d.cl, cd: d.cd, cm: d.cl.map(() => Number.NaN), clScatter: d.cl.map(() => 0), kind: '2d', aspectRatio: 0, runName: name });
+  return fitPolar({
+    alphaDeg: d.alpha,
+    cl: d.cl,
+    cd: d.cd,
+    cm: d.cl.map(() => Number.NaN),
+    clScatter: d.cl.map(() => 0),
+    kind: '2d',
+    aspectRatio: 0,
+    runName: name,
+  });
 }
 /** Independent check: plain least-squares slope (textbook formula) through the source's points with α in [lo, hi]. */
 function lsSlope(alpha: number[], cl: number[], lo: number, hi: number): number {

@@ -10,7 +10,19 @@ import { evaluate, propagatePoint, type Correct } from '../../core/uncertainty/p
 const DEG = Math.PI / 180;
 const g: PointGeometry = { area: 0.2025, chord: 0.225, span: 0.9, gamma: 1.4, axes: 'wind', offset: { x: 0, z: 0 } };
 const identity: Correct = (t) => t;
-const x: PointInputs = { alpha: 6 * DEG, dp: 613, p: 99000, T0: 292, rh: 0.5, force1: 0.6 * 610 * g.area, force2: 0.03 * 610 * g.area, side: Number.NaN, pitch: Number.NaN, roll: Number.NaN, yaw: Number.NaN };
+const x: PointInputs = {
+  alpha: 6 * DEG,
+  dp: 613,
+  p: 99000,
+  T0: 292,
+  rh: 0.5,
+  force1: 0.6 * 610 * g.area,
+  force2: 0.03 * 610 * g.area,
+  side: Number.NaN,
+  pitch: Number.NaN,
+  roll: Number.NaN,
+  yaw: Number.NaN,
+};
 const sd: Partial<Record<Channel, number>> = { lift: 0.8, drag: 0.1, dp_pitot: 4 };
 const spread = { n: 25, sd: (ch: Channel) => sd[ch] ?? 0 };
 
@@ -22,7 +34,13 @@ describe('random and systematic parts of a point uncertainty', () => {
   });
 
   it('adds up: u² = random² + Σ systematic shifts², the pitot calibration counted once as systematic and its scatter as random', () => {
-    const u = propagatePoint(x, g, { dp_pitot_pa: 1.5, force_n: 0.1, alpha_deg: 0.02, area_rel: 0.003, chord_rel: 0.002, alpha_offset_deg: 0.05 }, spread, identity);
+    const u = propagatePoint(
+      x,
+      g,
+      { dp_pitot_pa: 1.5, force_n: 0.1, alpha_deg: 0.02, area_rel: 0.003, chord_rel: 0.002, alpha_offset_deg: 0.05 },
+      spread,
+      identity,
+    );
     const names = u.systematic.map((s) => s.input).sort();
     expect(names).toEqual(['alpha offset', 'area', 'chord', 'dp_pitot calibration']);
     for (const k of ['cl', 'cd'] as const) {
