@@ -213,7 +213,7 @@ export async function upflowCommand(args: string[], io: Out, say: Say): Promise<
   for (const [run, tare] of runs) {
     const r = await reduceOne(s, run, tare, true, say);
     if (typeof r === 'number') return r;
-    warnings.push(...r.warnings.map((w) => `${r.run.name}: ${w}`));
+    for (const w of r.warnings) warnings.push(`${r.run.name}: ${w}`);
     const range = r.fit.linear_range_deg;
     if (!range) return fail(say, [{ file: run, message: 'no linear range of the lift curve was found, so its zero-lift angle cannot be measured' }]);
     const inRange = r.points.filter((p) => p.alpha_uncorrected_deg >= range[0] - 1e-9 && p.alpha_uncorrected_deg <= range[1] + 1e-9);

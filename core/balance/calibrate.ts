@@ -28,6 +28,7 @@ import {
 } from './document.ts';
 import { loadsFromOutputs } from './convert.ts';
 import { leastSquares, type Matrix } from './matrix.ts';
+import { maxOf } from '../physics/numbers.ts';
 
 export interface Loadings {
   file: string;
@@ -208,8 +209,8 @@ export function fitCalibration(l: Loadings, form: BalanceForm, linearOnly = fals
     return s.loads.map((x, k) => l.applied[i]![k]! - x);
   });
   const residualSd = l.loads.map((_, k) => Math.sqrt(residuals.reduce((s, r) => s + r[k]! ** 2, 0) / (n - p)));
-  const residualMax = l.loads.map((_, k) => Math.max(...residuals.map((r) => Math.abs(r[k]!))));
-  const largestLoad = l.loads.map((_, k) => Math.max(...l.applied.map((f) => Math.abs(f[k]!))));
+  const residualMax = l.loads.map((_, k) => maxOf(residuals.map((r) => Math.abs(r[k]!))));
+  const largestLoad = l.loads.map((_, k) => maxOf(l.applied.map((f) => Math.abs(f[k]!))));
   const pct = (v: number[]) => v.map((x, k) => (largestLoad[k]! > 0 ? (100 * x) / largestLoad[k]! : null));
   const note = [
     l.metadata['balance'] ? `balance ${l.metadata['balance']}` : null,

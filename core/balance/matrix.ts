@@ -4,6 +4,7 @@
  * which never forms the normal equations (Golub & Van Loan, Matrix Computations, 4th ed., §3.2 and
  * §5.2–5.3). Matrices are arrays of rows.
  */
+import { maxOf } from '../physics/numbers.ts';
 
 export type Matrix = number[][];
 
@@ -15,7 +16,7 @@ export type Matrix = number[][];
 export function invert(a: Matrix): Matrix | undefined {
   const n = a.length;
   const m = a.map((row, i) => [...row, ...Array.from({ length: n }, (_, j) => (i === j ? 1 : 0))]);
-  const colScale = Array.from({ length: n }, (_, j) => Math.max(...a.map((r) => Math.abs(r[j]!))));
+  const colScale = Array.from({ length: n }, (_, j) => maxOf(a.map((r) => Math.abs(r[j]!))));
   for (let k = 0; k < n; k++) {
     let p = k;
     for (let i = k + 1; i < n; i++) if (Math.abs(m[i]![k]!) > Math.abs(m[p]![k]!)) p = i;

@@ -13,6 +13,7 @@
  * the true flow direction: L = L'·cos φ − D'·sin φ, D = D'·cos φ + L'·sin φ (a rotation of axes by φ,
  * same source; without it the lift's component CL·φ stays in the drag).
  */
+import { maxOf, minOf } from '../physics/numbers.ts';
 
 /** Lift and drag in the true flow direction from those normal and parallel to the tunnel axis (φ in rad). */
 export function resolveToFlow(liftTunnel: number, dragTunnel: number, phi: number): { lift: number; drag: number } {
@@ -62,7 +63,7 @@ export function zeroLiftAngle(alphaDeg: readonly number[], cl: readonly number[]
   const varMean = s2 / n;
   const varB = s2 / sxx;
   const u = Math.sqrt(varMean / (b * b) + (my * my * varB) / b ** 4);
-  return { alphaDeg: alpha0, uDeg: u, n, rangeDeg: [Math.min(...alphaDeg), Math.max(...alphaDeg)] };
+  return { alphaDeg: alpha0, uDeg: u, n, rangeDeg: [minOf(alphaDeg), maxOf(alphaDeg)] };
 }
 
 export interface UpflowResult {
