@@ -8,6 +8,7 @@ import type { Notice } from '../contract/messages.ts';
 import type { RunData } from '../formats/runFile.ts';
 import type { Setup } from '../setup/schema.ts';
 import type { Basis, ReductionContext, Stage } from './context.ts';
+import type { PointRecord } from './record.ts';
 import { assembleResult, type ReductionResult } from './result.ts';
 import { STAGES } from './stages/index.ts';
 import { DEG_PER_RAD } from '../physics/angles.ts';
@@ -67,7 +68,12 @@ function runStages(ctx: ReductionContext, stages: readonly Stage[]): void {
 
 /** The context for another basis, sharing everything the shared stages made (records are copied, so per-basis stages cannot disturb each other). */
 function fork(ctx: ReductionContext, basis: Basis, correctionsOn: boolean): ReductionContext {
-  return { ...ctx, basis, correctionsOn, notices: [...ctx.notices], skipped: [...ctx.skipped], points: ctx.points.map((p) => ({ ...p })) };
+  return { ...ctx, basis, correctionsOn, notices: [...ctx.notices], skipped: [...ctx.skipped], points: ctx.points.map(copyRecord) };
+}
+
+/** A shallow copy of a point record that keeps its prototype (its channel look-ups are methods). */
+function copyRecord(p: PointRecord): PointRecord {
+  return Object.assign(Object.create(Object.getPrototypeOf(p) as object) as PointRecord, p);
 }
 
 /**

@@ -16,9 +16,9 @@ export interface PointRecord {
   /** Samples averaged into the point. */
   samples: number;
   /** Channel mean in SI, undefined when the run has no such column. */
-  mean: (ch: Channel) => number | undefined;
+  mean(ch: Channel): number | undefined;
   /** Channel sample standard deviation in SI (0 for one sample or an absent column). */
-  sd: (ch: Channel) => number;
+  sd(ch: Channel): number;
   /** True for a wind-off point (no coefficients are reduced from it). */
   windOff: boolean;
   /** The point's means with ambient defaults filled in and tares removed from the loads (SI). */

@@ -262,6 +262,9 @@ export function prepareRun(run: RunData, setup: Setup, tare: RunData | undefined
   const on = points
     .filter((_, i) => roles[i] === 'on')
     .map((p) => {
+      const shift = zeroShiftAt(position(p), start, end);
+      // unchanged points are passed on as they are: a copy per point doubled the memory of large runs
+      if (source === 'dp_pitot' && !shift && width === p.mean.length) return p;
       const mean = new Float64Array(width);
       const std = new Float64Array(width);
       mean.set(p.mean);
@@ -274,7 +277,6 @@ export function prepareRun(run: RunData, setup: Setup, tare: RunData | undefined
         // first order: the spread of q carried through dp/dq ≈ dp/q
         std[dpIndex] = q > 0 ? (p.std[si]! * (source === 'dp_contraction' ? factor! : 1) * dp) / q : 0;
       }
-      const shift = zeroShiftAt(position(p), start, end);
       if (shift) loads.forEach((c, k) => (mean[idx(c)] = mean[idx(c)]! - shift[k]!));
       return { ...p, mean, std };
     });

@@ -1,5 +1,6 @@
 import type { Channel } from '../../formats/channels.ts';
 import { skipPoint, pointName, type Stage } from '../context.ts';
+import type { PointStats } from '../../formats/pointStats.ts';
 import type { PointRecord } from '../record.ts';
 
 /**
@@ -14,42 +15,58 @@ export const pointsStage: Stage = {
     const idx = new Map(run.channels.map((ch, i) => [ch, i] as const));
     const [f1, f2] = setup.balance.axes === 'wind' ? (['lift', 'drag'] as const) : (['normal', 'axial'] as const);
     ctx.points = run.points.map((pt): PointRecord => {
-      const mean = (ch: Channel) => {
-        const i = idx.get(ch);
-        return i === undefined ? undefined : pt.mean[i];
+      const rec = new ReadPoint(pt, idx);
+      const load = (ch: Channel) => rec.mean(ch) ?? Number.NaN;
+      rec.rh = rec.mean('rh') ?? setup.ambient.rh_pct! / 100;
+      rec.inputs = {
+        alpha: rec.mean('alpha')!,
+        dp: rec.mean('dp_pitot')!,
+        p: rec.mean('p_static') ?? setup.ambient.p_pa!,
+        T0: rec.mean('t_total') ?? setup.ambient.t_c! + 273.15,
+        rh: rec.rh,
+        force1: load(f1),
+        force2: load(f2),
+        side: load('side'),
+        pitch: load('pitch'),
+        roll: load('roll'),
+        yaw: load('yaw'),
       };
-      const sd = (ch: Channel) => {
-        const i = idx.get(ch);
-        return i === undefined ? 0 : pt.std[i]!;
-      };
-      const load = (ch: Channel) => mean(ch) ?? Number.NaN;
-      const rh = mean('rh') ?? setup.ambient.rh_pct! / 100;
-      return {
-        key: pt.key,
-        line: pt.line,
-        samples: pt.n,
-        mean,
-        sd,
-        windOff: false,
-        rh,
-        clScatter: 0,
-        inputs: {
-          alpha: mean('alpha')!,
-          dp: mean('dp_pitot')!,
-          p: mean('p_static') ?? setup.ambient.p_pa!,
-          T0: mean('t_total') ?? setup.ambient.t_c! + 273.15,
-          rh,
-          force1: load(f1),
-          force2: load(f2),
-          side: load('side'),
-          pitch: load('pitch'),
-          roll: load('roll'),
-          yaw: load('yaw'),
-        },
-      };
+      return rec;
     });
   },
 };
+
+/**
+ * A point record made from the reader's statistics. Channel means and deviations are looked up
+ * through one index shared by the run (methods on the prototype, not closures per point: a run of a
+ * million points keeps one copy of them).
+ */
+class ReadPoint implements PointRecord {
+  key: string;
+  line: number;
+  samples: number;
+  windOff = false;
+  rh = 0;
+  clScatter = 0;
+  inputs!: PointRecord['inputs'];
+  private readonly stats: PointStats;
+  private readonly index: ReadonlyMap<Channel, number>;
+  constructor(stats: PointStats, index: ReadonlyMap<Channel, number>) {
+    this.stats = stats;
+    this.index = index;
+    this.key = stats.key;
+    this.line = stats.line;
+    this.samples = stats.n;
+  }
+  mean(ch: Channel): number | undefined {
+    const i = this.index.get(ch);
+    return i === undefined ? undefined : this.stats.mean[i];
+  }
+  sd(ch: Channel): number {
+    const i = this.index.get(ch);
+    return i === undefined ? 0 : this.stats.std[i]!;
+  }
+}
 
 /**
  * Readings that cannot be reduced (no positive impact pressure, static pressure or temperature, a

@@ -14,6 +14,6 @@ export const uncertaintyStage: Stage = {
     const spec = ctx.setup.uncertainty;
     if (!spec) return;
     const correct: Correct = ctx.wall ? ctx.wall.correct : (t) => t;
-    for (const pt of ctx.points) pt.u = propagatePoint(pt.inputs, ctx.geometry, spec, { n: pt.samples, sd: pt.sd }, correct);
+    for (const pt of ctx.points) pt.u = propagatePoint(pt.inputs, ctx.geometry, spec, { n: pt.samples, sd: (ch) => pt.sd(ch) }, correct);
   },
 };
