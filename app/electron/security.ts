@@ -1,5 +1,5 @@
 /**
- * The window's security settings (DESIGN §5), kept in one place so a test can assert them:
+ * The window's security settings (docs/architecture.md §9), kept in one place so a test can assert them:
  * context isolation, sandbox, no Node in the renderer, a strict Content-Security-Policy, no remote
  * content, navigation and new windows denied, permission requests denied, external links only to an
  * allow-list and only through the system browser.

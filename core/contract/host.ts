@@ -1,5 +1,5 @@
 /**
- * The one interface through which the renderer reaches the outside world (DESIGN §1). Implemented
+ * The one interface through which the renderer reaches the outside world (docs/architecture.md §1). Implemented
  * twice: by the Electron preload (contextBridge → IPC → main process) and by the browser host (file
  * inputs, downloads, local storage). Types only: core stays free of any host.
  */

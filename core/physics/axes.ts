@@ -1,5 +1,5 @@
 /**
- * Balance axes and moment reference (DESIGN §3.2). Angles in radians, forces in N, moments in N m.
+ * Balance axes and moment reference (docs/data-format.md §4). Angles in radians, forces in N, moments in N m.
  * Normal force positive up, axial force positive aft, pitching moment positive nose-up.
  */
 
@@ -18,7 +18,7 @@ export function windToBody(lift: number, drag: number, alpha: number): { normal:
 }
 
 /**
- * Pitching moment at the moment reference centre from the balance moment centre (DESIGN §3.2):
+ * Pitching moment at the moment reference centre from the balance moment centre (docs/data-format.md §4):
  * M_ref = M_bmc − N·x − A·z, with (x, z) the reference centre's offset from the balance centre,
  * x toward the nose, z up.
  */

@@ -1,5 +1,5 @@
 /**
- * Flow state of one test point from pitot-static and ambient readings (DESIGN §3.4).
+ * Flow state of one test point from pitot-static and ambient readings (docs/data-format.md).
  * RH is measured where the air is at rest, so the water-vapour mole fraction is taken at the
  * stagnation condition and carried unchanged into the test section.
  */

@@ -17,7 +17,7 @@ export interface Section {
 export type Loading = 'elliptic' | 'uniform';
 
 /**
- * Closed form of δ for a vanishingly small span in a closed rectangular section (DESIGN §4;
+ * Closed form of δ for a vanishingly small span in a closed rectangular section (docs/methods.md §7;
  * Glauert R&M 1566): δ = (πH/8B)·[1/3 + 2·Σ_{n≥1} (−1)^{n+1}/sinh²(nπH/B)].
  */
 export function deltaSmallSpan({ B, H }: Section): number {

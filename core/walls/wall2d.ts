@@ -59,7 +59,7 @@ export function wakeBlockage2d(chord: number, height: number, cdU: number): numb
 /**
  * Corrected point (BRP eqs. 9.30–9.36):
  * V = V_u(1+ε), q = q_u(1+2ε), Re = Re_u(1+ε), M = M_u(1+ε);
- * α = α_u + (57.3σ/2π)(cl_u + 4cm_u); cl = cl_u(1 − σ − 2ε); cm = cm_u(1 − 2ε) + σ·cl/4 (corrected cl, DESIGN §3.4);
+ * α = α_u + (57.3σ/2π)(cl_u + 4cm_u); cl = cl_u(1 − σ − 2ε); cm = cm_u(1 − 2ε) + σ·cl/4 (corrected cl, docs/data-format.md);
  * cd = cd_u(1 − 3ε_sb − 2ε_wb). The cm terms are about the quarter chord: a moment about a reference at
  * x_ref/c is moved there first, cm_c/4 = cm_ref + cl·(0.25 − x_ref/c), and back after (drag's arm neglected,
  * as in the published formulas).

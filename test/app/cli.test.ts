@@ -18,12 +18,12 @@ function tmp(name: string, text: string | Buffer): string {
   return p;
 }
 
-// The keys DESIGN §3.3 names; the output may carry more, never fewer.
+// The keys docs/data-format.md §8 names; the output may carry more, never fewer.
 const POINT_KEYS = ['alpha_deg', 'alpha_uncorrected_deg', 'q_pa', 'q_uncorrected_pa', 'v_mps', 'mach', 'reynolds', 'rho_kgm3', 'mu_pas', 'cl', 'cd', 'cm', 'cl_uncorrected', 'cd_uncorrected', 'cm_uncorrected', 'eps_solid', 'eps_wake', 'samples', 'v_uncorrected_mps', 'mach_uncorrected', 'reynolds_uncorrected'];
 const FIT_KEYS = ['cl_alpha_per_deg', 'cl_alpha_stderr_per_deg', 'alpha_zero_lift_deg', 'cl_max', 'alpha_cl_max_deg', 'linear_range_deg', 'cd0', 'k_induced', 'oswald_e', 'ld_max', 'cl_at_ld_max', 'cm_alpha_per_deg'];
 const FACTOR_KEYS = ['sigma', 'delta', 'tau1', 'tau2', 'solid_blockage_k'];
 
-describe('sweepbook reduce (command line, DESIGN §3.3)', () => {
+describe('sweepbook reduce (command line, docs/data-format.md §8)', () => {
   it('prints the contract JSON with every key, and only JSON on stdout', async () => {
     const r = await runCli('reduce', S('run-101-clean.csv'), '--setup', S('setup-3d.json'), '--tare', S('windoff-tare.csv'), '--format', 'json');
     expect(r.code).toBe(0);

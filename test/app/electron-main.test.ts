@@ -13,7 +13,7 @@ const APP_ROOT = '/opt/sweepbook/dist/renderer';
 const appEvent = { senderFrame: { url: 'app://sweepbook/index.html' } } as never;
 const foreignEvent = { senderFrame: { url: 'https://example.com/' } } as never;
 
-describe('window security settings (DESIGN §5)', () => {
+describe('window security settings (docs/architecture.md §9)', () => {
   it('isolates the page: context isolation, sandbox, no Node anywhere', () => {
     const w = webPreferences('/x/preload.cjs');
     expect(w).toMatchObject({ contextIsolation: true, sandbox: true, nodeIntegration: false, nodeIntegrationInWorker: false, nodeIntegrationInSubFrames: false, webSecurity: true, webviewTag: false });

@@ -7,7 +7,7 @@ import { parseCampaign, serializeCampaign } from '../../core/formats/campaign.ts
 import { runCli } from '../support/cli.ts';
 
 /**
- * Raw run files are opened read-only and never written (DESIGN §5, issue 5): after reductions to JSON
+ * Raw run files are opened read-only and never written (docs/architecture.md §9): after reductions to JSON
  * and CSV, a projection, refused attempts to write over an input, and a campaign saved in the same
  * folder, every raw file has its bytes and its modification time unchanged.
  */

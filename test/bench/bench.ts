@@ -1,7 +1,7 @@
 /**
  * `npm run bench`: how fast the command line reduces a big time-history run, against the floor
  * (papaparse alone over the same chunked read) and a vectorised pandas/numpy script, and whether
- * memory stays flat as the number of samples grows (issue 6).
+ * memory stays flat as the number of samples grows (docs/performance.md, targets).
  *
  * Every figure is a median over whole child processes, run in turn (one of each task per round) so
  * that load from other work on the machine falls on all of them alike. Data files are generated
@@ -249,7 +249,7 @@ async function main(): Promise<void> {
     console.log(textTable(['task', ...labels.slice(1).flatMap((l) => [`time ${l}`, `memory ${l}`])], growth, ['l', ...labels.slice(1).flatMap(() => ['r', 'r'] as const)]));
   }
 
-  console.log('\nTargets (issue 6):');
+  console.log('\nTargets (docs/performance.md):');
   const verdict = (ok: boolean) => (ok ? 'met' : 'NOT met');
   const bare1 = find('1M', 'bare');
   for (const id of ['cli-bundle', 'cli-tsx']) {

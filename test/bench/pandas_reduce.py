@@ -65,7 +65,7 @@ def flow_state(p, dp, T0, rh, gamma, chord):
 
 def delta_closed_form(B, H, terms=20):
     """Lift interference of a vanishing-span wing in a closed rectangular section, by images
-    (DESIGN §4): δ = (πH/8B)·[1/3 + 2·Σ (−1)^(n+1)/sinh²(nπH/B)]."""
+    (docs/methods.md §7): δ = (πH/8B)·[1/3 + 2·Σ (−1)^(n+1)/sinh²(nπH/B)]."""
     s = sum((-1) ** (n + 1) / math.sinh(n * math.pi * H / B) ** 2 for n in range(1, terms + 1))
     return math.pi * H / (8 * B) * (1 / 3 + 2 * s)
 

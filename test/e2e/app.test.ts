@@ -21,7 +21,7 @@ import { ARTIFACTS, browserAvailable, openSession, ROOT, type Session } from './
 const SAMPLES = join(ROOT, 'sample-runs');
 const RUN_101 = join(SAMPLES, 'run-101-clean.csv');
 
-/** The command line's reduction of a sample run (DESIGN §3.3), the reference for the exports. */
+/** The command line's reduction of a sample run (docs/data-format.md §8), the reference for the exports. */
 function cli(args: string[]): string {
   return execFileSync(process.execPath, [join(ROOT, 'bin/sweepbook.js'), 'reduce', ...args], { cwd: ROOT, encoding: 'utf8', stdio: ['ignore', 'pipe', 'ignore'] });
 }
@@ -390,7 +390,7 @@ run('Sweepbook in a real browser (browser host)', () => {
       return { gap: w.__gap, longest: w.__longest };
     });
     console.info(`1,000,000 rows read and reduced in ${seconds.toFixed(1)} s; longest main-thread task ${longest.toFixed(0)} ms; longest pause of the page's timer ${gap.toFixed(0)} ms`);
-    // issue 6: no main-thread block over 100 ms, first plot within 3 s; CI shares 2 cores with other
+    // performance target (docs/performance.md): no main-thread block over 100 ms, first plot within 3 s; CI shares 2 cores with other
     // suites, so the test allows twice those (the README records the figures measured alone)
     expect(longest).toBeLessThan(200);
     expect(seconds).toBeLessThan(6);

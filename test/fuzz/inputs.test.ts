@@ -4,7 +4,7 @@ import { jsonErrorOffset } from '../../core/setup/schema.ts';
 import { runBatch, type BatchResult } from './batch.ts';
 
 /**
- * The quick fuzz run of `npm test` (issue 5): a few hundred generated run files and setup files through
+ * The quick fuzz run of `npm test`: a few hundred generated run files and setup files through
  * readRun / readSetup / reduceRun and the command line, each case in a child process under a watchdog.
  * `npm run fuzz` runs the same properties on 10,000 cases of each. Seeds are fixed; a failure prints
  * its seed, the case number and the shrunk input.

@@ -1,5 +1,5 @@
 /**
- * Crash-safety test of campaign saves (issue 5): a child process (test/fuzz/save-child.ts) saves a
+ * Crash-safety test of campaign saves: a child process (test/fuzz/save-child.ts) saves a
  * campaign repeatedly and is killed with SIGKILL at a random moment; afterwards the campaign file must
  * parse (core/campaign.ts) and be exactly the old or the new version, and the backup must parse too.
  * The next save, by the next child, must clean up the temp files the killed one left behind.

@@ -1,5 +1,5 @@
 /**
- * What every fuzz case must satisfy (issue 5, DESIGN §5 "errors are values, not crashes"):
+ * What every fuzz case must satisfy (docs/architecture.md §8, "errors are values, not crashes"):
  * - readRun / readSetup / reduceRun return an Outcome and never throw;
  * - a refusal names the file with a line (and column), or the setup field;
  * - a result holds no NaN or ±Infinity anywhere, and every field the contract makes a number is one;
@@ -41,7 +41,7 @@ export interface CaseReport {
 /** A single case longer than this breaks the "never hangs" property (the child's watchdog kills far longer ones). */
 export const CASE_TIME_BOUND_MS = 5_000;
 
-/** Point fields the contract makes numbers whatever the input (DESIGN §3.3; core/reduce.ts PointResult). */
+/** Point fields the contract makes numbers whatever the input (docs/data-format.md §8; core/reduction/result.ts PointResult). */
 export const MANDATORY_POINT_NUMBERS = [
   'line', 'samples', 'alpha_deg', 'alpha_uncorrected_deg', 'q_pa', 'q_uncorrected_pa', 'v_mps', 'v_uncorrected_mps',
   'mach', 'mach_uncorrected', 'reynolds', 'reynolds_uncorrected', 'rho_kgm3', 'mu_pas', 'p_static_pa', 'p_total_pa',

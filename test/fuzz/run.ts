@@ -1,5 +1,5 @@
 /**
- * `npm run fuzz` (issue 5): 10,000 generated run files and 10,000 generated setup files through the
+ * `npm run fuzz`: 10,000 generated run files and 10,000 generated setup files through the
  * engine API and the command line, then at least 200 kills of a process saving a campaign. Prints the
  * counts and exits non-zero on any uncaught error, stack trace, hang, other broken property, or
  * unreadable campaign or backup. Known issues (test/fuzz/known-issues.ts) are counted and listed.

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { killTest } from './kill.ts';
 
 /**
- * Crash-safe campaign saves (issue 5), the quick version of `npm run fuzz`'s 200 kills: a process saving
+ * Crash-safe campaign saves, the quick version of `npm run fuzz`'s 200 kills: a process saving
  * a campaign in a loop is killed with SIGKILL at random moments; the campaign must always be exactly the
  * old or the new version and its backup a whole version too.
  */

@@ -6,7 +6,7 @@ import { normal } from '../support/random.ts';
  * Coverage of the fits' standard errors by Monte Carlo, in the manner of JCGM 101:2008 (propagation of
  * distributions by simulation): synthetic sweeps with a known lift line and polar get normal noise on α,
  * CL and CD; over many such runs the interval estimate ± 2 standard errors must hold the truth in about
- * 95 % of them, and the acceptance band is 90–98 % (DESIGN of the fits: "not more than 10 %" outside).
+ * 95 % of them, and the acceptance band is 90–98 % (docs/methods.md §8: "not more than 10 %" outside).
  * The sweep runs past a trailing-edge stall, so the automatic choice of the linear range is part of what
  * is tested (the selection adds its own uncertainty). Truth: invented wing, slope 0.075 per deg,
  * α0 = −2°, CD0 = 0.012, k = 0.06, aspect ratio 6; stall bending from 10° with drag rising from there.

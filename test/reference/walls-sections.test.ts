@@ -54,7 +54,7 @@ describe('held-out values of δ at vanishing span', () => {
     expect(f.delta).toBeCloseTo(-0.125, 10);
   });
 
-  it('closed square section: δ = 0.137 (DESIGN closed form; Barlow, Rae & Pope classic tabulated value), also from the generic image sum', () => {
+  it('closed square section: δ = 0.137 (closed form of docs/methods.md §7; Barlow, Rae & Pope classic tabulated value), also from the generic image sum', () => {
     expect(deltaVanishingSpan(rect(1, 1, { spanLo: 'solid', spanHi: 'solid', liftLo: 'solid', liftHi: 'solid' }))).toBeCloseTo(0.1368, 4);
     for (const [B, H] of [
       [1, 1],

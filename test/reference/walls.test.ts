@@ -8,7 +8,7 @@ const RAD = 180 / Math.PI;
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 
 describe('lift-interference factor δ (method of images)', () => {
-  it('gives 0.1368 for a square closed section at vanishing span (DESIGN §4; Barlow, Rae & Pope 3rd ed. Table 10.x classic value 0.137)', () => {
+  it('gives 0.1368 for a square closed section at vanishing span (docs/methods.md §7; Barlow, Rae & Pope 3rd ed. Table 10.x classic value 0.137)', () => {
     expect(deltaSmallSpan({ B: 1, H: 1 })).toBeCloseTo(0.1368, 4);
   });
 

@@ -4,7 +4,7 @@ import { join, relative, resolve, sep } from 'node:path';
 import { describe, expect, it } from 'vitest';
 
 /**
- * The layering of DESIGN §1: core is pure (no Node, no Electron, no DOM-only hosts, nothing of app or
+ * The layering of docs/architecture.md §1: core is pure (no Node, no Electron, no DOM-only hosts, nothing of app or
  * renderer); renderer never imports Node or Electron and nothing of app; app never imports renderer.
  */
 const ROOT = resolve(__dirname, '../..');

@@ -68,7 +68,7 @@ describe('round trip: known coefficients → readings → reduction', () => {
         expect(p.cy_uncorrected!).toBeCloseTo(t.cy, 9);
         expect(p.c_roll_uncorrected!).toBeCloseTo(t.cr, 9);
         expect(p.c_yaw_uncorrected!).toBeCloseTo(t.cn, 9);
-        // corrections off: the corrected fields are the measured ones (DESIGN §3.3)
+        // corrections off: the corrected fields are the measured ones (docs/data-format.md §8)
         expect(p.cl).toBe(p.cl_uncorrected);
         expect(p.eps_wake).toBeNull();
       });

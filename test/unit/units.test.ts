@@ -17,13 +17,13 @@ describe('unit conversion to SI', () => {
     expect(normaliseUnit(' InH2O ')).toBe('inh2o');
   });
 
-  // Factors: NIST SP 811 (2008), Appendix B.8 and B.9; water columns conventional (DESIGN §3.4).
+  // Factors: NIST SP 811 (2008), Appendix B.8 and B.9; water columns conventional (docs/data-format.md).
   it.each([
     [1, 'kPa', 1000],
     [1, 'hPa', 100],
     [1, 'mbar', 100],
     [1, 'psi', 6894.757], // NIST SP 811 B.8: 6.894 757 E+03 Pa
-    [1, 'inH2O', 249.08891], // conventional inch of water, DESIGN §3.4 / NIST SP 811 B.8 footnote (249.089 Pa)
+    [1, 'inH2O', 249.08891], // conventional inch of water, docs/data-format.md §1.1 / NIST SP 811 B.8 footnote (249.089 Pa)
     [1, 'mmH2O', 9.80665], // NIST SP 811 B.8: conventional mmH2O 9.806 65 Pa
     [1, 'torr', 133.3224], // NIST SP 811 B.8: 1.333 224 E+02 Pa
     [1, 'lbf', 4.448222], // NIST SP 811 B.8: 4.448 222 E+00 N
