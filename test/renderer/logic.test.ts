@@ -14,7 +14,7 @@ import { deltas, interpolate, curveOf } from '../../renderer/src/logic/delta.ts'
 import { fitHeader, fitRows, fitsCsvExport, pointsCsvExport } from '../../renderer/src/logic/exportTables.ts';
 import { fitCell, FIT_ROWS, fitRowsFor } from '../../renderer/src/logic/fitRows.ts';
 import { fixed, millions, significant } from '../../renderer/src/logic/numberFormat.ts';
-import { configurationOrder, RUN_COLOURS, styleFor } from '../../renderer/src/logic/palette.ts';
+import { assignStyles, colourOf, configurationOrder, RUN_COLOURS, styleFor } from '../../renderer/src/logic/palette.ts';
 import { columnsWithValues } from '../../renderer/src/logic/pointColumns.ts';
 import type { Provenance } from '../../renderer/src/logic/provenance.ts';
 import { checkSetup, draftFrom, setupFrom } from '../../renderer/src/logic/setupForm.ts';
@@ -53,14 +53,55 @@ describe('palette', () => {
     expect(RUN_COLOURS[RUN_COLOURS.length - 1]).toBe('#F0E442');
   });
 
-  it('gives configurations distinct markers and dashes, runs distinct colours', () => {
+  it('gives configurations distinct markers, runs distinct colours', () => {
     const order = configurationOrder(['clean', 'flap 10', 'clean', null, 'flap 20']);
     expect(order).toEqual(['clean', 'flap 10', '', 'flap 20']);
     const styles = order.map((_, i) => styleFor(i, i));
     expect(new Set(styles.map((s) => s.marker)).size).toBe(4);
-    expect(new Set(styles.map((s) => s.dash.join(','))).size).toBe(4);
     expect(new Set(styles.map((s) => s.colour)).size).toBe(4);
-    expect(styleFor(9, 0).colour).toBe(RUN_COLOURS[1]);
+  });
+
+  it('never gives two of a thousand runs the same colour, and only valid hex colours', () => {
+    const colours = Array.from({ length: 1000 }, (_, i) => colourOf(i));
+    expect(new Set(colours).size).toBe(1000);
+    for (const c of colours) expect(c).toMatch(/^#[0-9A-F]{6}$/);
+    expect(colourOf(8)).not.toBe(RUN_COLOURS[0]);
+  });
+
+  it('draws the second run of a configuration open and dashed, the first filled and solid', () => {
+    const styles = assignStyles(
+      [
+        { file: 'a', configuration: 'clean' },
+        { file: 'b', configuration: 'flap' },
+        { file: 'c', configuration: 'clean' },
+      ],
+      ['clean', 'flap'],
+    );
+    const [a, b, c] = ['a', 'b', 'c'].map((f) => styles.get(f)!);
+    expect(a!.marker).toBe(c!.marker);
+    expect(a!.marker).not.toBe(b!.marker);
+    expect([a!.filled, a!.dash.length, a!.repeat]).toEqual([true, 0, 0]);
+    expect([c!.filled, c!.dash.length > 0, c!.repeat]).toEqual([false, true, 1]);
+    expect(new Set([a!.colour, b!.colour, c!.colour]).size).toBe(3);
+  });
+
+  it('honours a chosen colour slot unless an earlier run holds it, and fills the gaps with the rest', () => {
+    const styles = assignStyles(
+      [
+        { file: 'a', configuration: null },
+        { file: 'b', configuration: null, chosen: 0 },
+        { file: 'c', configuration: null, chosen: 0 },
+      ],
+      [''],
+    );
+    expect(styles.get('b')!.colour).toBe(RUN_COLOURS[0]);
+    expect(styles.get('a')!.colour).toBe(RUN_COLOURS[1]);
+    expect(styles.get('c')!.colour).toBe(RUN_COLOURS[2]);
+  });
+
+  it('spends no colour on runs left out of the list (only reduced runs are passed in)', () => {
+    const styles = assignStyles([{ file: 'second', configuration: null }], ['']);
+    expect(styles.get('second')!.colour).toBe(RUN_COLOURS[0]);
   });
 });
 

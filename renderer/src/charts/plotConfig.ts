@@ -37,9 +37,12 @@ export function dataset(s: Series): ChartDataset<'scatter'> {
     borderColor: s.style.colour,
     backgroundColor: s.style.colour,
     pointBorderColor: s.style.colour === '#F0E442' ? '#6b6310' : s.style.colour,
+    // a repeat of a configuration: an open, larger ring, so it shows even when it lies on its twin
+    pointBackgroundColor: s.style.filled ? s.style.colour : 'rgba(255,255,255,0)',
+    pointBorderWidth: s.style.filled ? 1 : 1.8,
     pointStyle: s.style.marker,
-    pointRadius: 4,
-    pointHoverRadius: 6,
+    pointRadius: s.style.filled ? 4 : 6,
+    pointHoverRadius: s.style.filled ? 6 : 8,
     borderWidth: 1.8,
     borderDash: [...s.style.dash],
   };
