@@ -8,6 +8,7 @@ import { stat } from 'node:fs/promises';
 import { createServer, type IncomingMessage, type ServerResponse } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { extname, resolve, sep } from 'node:path';
+import { mayHaveKey, newStorageKey, STORAGE_KEY_PATH } from './storageKey.ts';
 
 export interface StaticServerOptions {
   /** Folder served at "/". */
@@ -17,6 +18,8 @@ export interface StaticServerOptions {
   host?: string;
   /** 0 picks a free port. */
   port?: number;
+  /** Key the page encrypts its kept campaign with (storageKey.ts); a fresh one per server when not given. */
+  storageKey?: string;
 }
 
 export interface StaticServer {
@@ -70,12 +73,27 @@ export function startStaticServer(options: StaticServerOptions): Promise<StaticS
     .map(([prefix, folder]) => ({ prefix: prefix.endsWith('/') ? prefix : `${prefix}/`, folder }))
     .sort((a, b) => b.prefix.length - a.prefix.length);
 
+  const storageKey = options.storageKey ?? newStorageKey();
+  function sendStorageKey(req: IncomingMessage, res: ServerResponse): void {
+    if (!mayHaveKey(req.headers['sec-fetch-site'])) {
+      res.writeHead(403, { 'Content-Type': 'text/plain; charset=utf-8' }).end('only for this page\n');
+      return;
+    }
+    const body = JSON.stringify({ key: storageKey });
+    res.writeHead(200, { 'Content-Type': 'application/json; charset=utf-8', 'Content-Length': Buffer.byteLength(body), 'Cache-Control': 'no-store', 'X-Content-Type-Options': 'nosniff' });
+    res.end(req.method === 'HEAD' ? undefined : body);
+  }
+
   async function handle(req: IncomingMessage, res: ServerResponse): Promise<void> {
     if (req.method !== 'GET' && req.method !== 'HEAD') {
       res.writeHead(405, { Allow: 'GET, HEAD', 'Content-Type': 'text/plain; charset=utf-8' }).end('method not allowed\n');
       return;
     }
     const path = new URL(req.url ?? '/', 'http://localhost').pathname;
+    if (path === STORAGE_KEY_PATH) {
+      sendStorageKey(req, res);
+      return;
+    }
     const mount = mounts.find((m) => path.startsWith(m.prefix));
     const file = mount ? resolveInside(mount.folder, path.slice(mount.prefix.length - 1)) : resolveInside(options.root, path);
     if (!file) {

@@ -1,0 +1,189 @@
+/**
+ * The window as a test engineer meets it on a laptop, in real headless Chromium through the browser
+ * host: nothing wider than a 1024×700 window on any tab, the working campaign and the recent list kept
+ * across a reload and a restart of the server (and unreadable without the server's key), and two runs
+ * of one configuration drawn so that neither hides the other.
+ */
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { request } from 'node:http';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { startStaticServer } from '../../app/serve/static.ts';
+import { STORAGE_KEY_PATH } from '../../app/serve/storageKey.ts';
+import { ARTIFACTS, browserAvailable, openSession, ROOT, type Session } from './browserSetup.ts';
+import { overflowOf, SAMPLE_RUNS, showView, VIEWS } from './screenshots.ts';
+
+const SAMPLES = join(ROOT, 'sample-runs');
+
+async function waitReady(page: Page, file: string, timeout = 30_000) {
+  await page.locator(`tbody[data-run="${file}"][data-status="ready"]`).waitFor({ timeout });
+}
+
+async function waitKept(page: Page) {
+  await page.locator('html[data-kept="kept"]').waitFor({ timeout: 15_000 });
+}
+
+function get(url: string, headers: Record<string, string>): Promise<{ status: number; body: string }> {
+  return new Promise((resolve, reject) => {
+    request(url, { headers }, (res) => {
+      let body = '';
+      res.on('data', (c: Buffer) => (body += c.toString()));
+      res.on('end', () => resolve({ status: res.statusCode ?? 0, body }));
+    })
+      .on('error', reject)
+      .end();
+  });
+}
+
+const run = browserAvailable() ? describe : describe.skip;
+
+run('the window on a laptop screen, kept across reloads', () => {
+  let s: Session;
+  let page: Page;
+  let work: string;
+
+  beforeAll(async () => {
+    work = mkdtempSync(join(tmpdir(), 'sweepbook-e2e-window-'));
+    s = await openSession();
+    page = s.page;
+    await page.setViewportSize({ width: 1024, height: 700 });
+    await page.goto(s.server.url);
+    for (const f of SAMPLE_RUNS) await waitReady(page, f);
+  });
+
+  afterAll(async () => {
+    await s?.close();
+    if (work) rmSync(work, { recursive: true, force: true });
+  });
+
+  it('fits 1024×700 on every tab: no sideways scrolling, every tab on screen', async () => {
+    for (const v of VIEWS) {
+      await showView(page, v.tab);
+      expect(await overflowOf(page), `${v.tab} is wider than the window`).toBe(0);
+      const tabs = await page.getByRole('tab').evaluateAll((els) => els.map((e) => e.getBoundingClientRect().right));
+      for (const right of tabs) expect(right).toBeLessThanOrEqual(1024);
+    }
+    await page.screenshot({ path: join(ARTIFACTS, 'window-1024x700-setup.png') });
+    await showView(page, 'Plots');
+  });
+
+  it('shows the corrected / as-measured switch only on the views it changes', async () => {
+    const expectations: Record<string, boolean> = { Plots: true, 'Against baseline': true, Characteristics: true, 'Run detail': false, 'Sample scatter': false, Setup: false };
+    for (const [tab, shown] of Object.entries(expectations)) {
+      await showView(page, tab);
+      expect(await page.getByRole('radiogroup', { name: 'Values shown' }).count(), tab).toBe(shown ? 1 : 0);
+    }
+    await showView(page, 'Plots');
+    // nothing carries uncertainties in the sample: the error-bar box is disabled and not ticked
+    const box = page.getByLabel('Error bars');
+    expect(await box.isDisabled()).toBe(true);
+    expect(await box.isChecked()).toBe(false);
+  });
+
+  it('draws two runs of one configuration distinguishably: own colour, same marker, the repeat open and dashed', async () => {
+    const swatch = (file: string) => page.locator(`tbody[data-run="${file}"] svg.swatch`);
+    const attrs = async (file: string) => {
+      const el = swatch(file);
+      return { colour: await el.getAttribute('data-colour'), marker: await el.getAttribute('data-marker'), dash: await el.getAttribute('data-dash'), filled: await el.getAttribute('data-filled') };
+    };
+    const first = await attrs('run-101-clean.csv');
+    const repeat = await attrs('run-104-clean-timehistory.csv');
+    expect(repeat.marker).toBe(first.marker);
+    expect(repeat.colour).not.toBe(first.colour);
+    expect(first).toMatchObject({ dash: 'solid', filled: 'filled' });
+    expect(repeat.dash).not.toBe('solid');
+    expect(repeat.filled).toBe('open');
+    // every shown run has its own colour
+    const colours = await page.locator('.runs-table svg.swatch').evaluateAll((els) => els.map((e) => e.getAttribute('data-colour')));
+    expect(new Set(colours).size).toBe(colours.length);
+  });
+
+  it('keeps the campaign, an imported run and unsaved changes across a reload', async () => {
+    const text = readFileSync(join(SAMPLES, 'run-101-clean.csv'), 'utf8').replace('# run: 101', '# run: 105');
+    const file = join(work, 'run-105-clean-repeat.csv');
+    writeFileSync(file, text);
+    const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.getByRole('button', { name: 'Import runs…' }).click()]);
+    await chooser.setFiles(file);
+    await page.locator('tbody[data-run="run-105-clean-repeat.csv"]').waitFor();
+    await page.getByLabel('Campaign name').fill('Flap study, day 2');
+    await waitKept(page);
+    const before = await page.locator('.runs-table tbody').evaluateAll((els) => els.map((e) => e.getAttribute('data-run')));
+    const status105 = await page.locator('tbody[data-run="run-105-clean-repeat.csv"]').getAttribute('data-status');
+
+    await page.reload();
+    for (const f of SAMPLE_RUNS) await waitReady(page, f);
+    const after = await page.locator('.runs-table tbody').evaluateAll((els) => els.map((e) => e.getAttribute('data-run')));
+    expect(after).toEqual(before);
+    expect(await page.getByLabel('Campaign name').inputValue()).toBe('Flap study, day 2');
+    expect(await page.locator('tbody[data-run="run-105-clean-repeat.csv"]').getAttribute('data-status')).toBe(status105);
+    // still unsaved: a reload is not a save
+    expect(await page.locator('.dirty').count()).toBe(1);
+  });
+
+  it('keeps the recent list across a reload', async () => {
+    const [d] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Save as…' }).click()]);
+    await d.path();
+    await expect.poll(() => page.getByLabel('Recent campaigns').locator('option').count()).toBeGreaterThan(1);
+    const names = await page.getByLabel('Recent campaigns').locator('option').allTextContents();
+    await page.reload();
+    await waitReady(page, 'run-101-clean.csv');
+    expect(await page.getByLabel('Recent campaigns').locator('option').allTextContents()).toEqual(names);
+  });
+
+  it('keeps what it stores unreadable without the key its own server hands out, and hands the key to no other page', async () => {
+    await waitKept(page);
+    const raw = await page.evaluate(async () => {
+      const db = await new Promise<IDBDatabase>((res, rej) => {
+        const r = indexedDB.open('sweepbook-kept');
+        r.onsuccess = () => res(r.result);
+        r.onerror = () => rej(r.error);
+      });
+      const values = await new Promise<unknown[]>((res, rej) => {
+        const r = db.transaction('values').objectStore('values').getAll();
+        r.onsuccess = () => res(r.result);
+        r.onerror = () => rej(r.error);
+      });
+      return values.map((v) => new TextDecoder('latin1').decode(v as Uint8Array));
+    });
+    expect(raw.length).toBeGreaterThan(2);
+    for (const v of raw) {
+      expect(v).not.toContain('Flap study');
+      expect(v).not.toContain('alpha');
+    }
+    const url = new URL(STORAGE_KEY_PATH, s.server.url).href;
+    expect((await get(url, { 'Sec-Fetch-Site': 'same-site' })).status).toBe(403);
+    expect((await get(url, { 'Sec-Fetch-Site': 'cross-site' })).status).toBe(403);
+    const own = await get(url, { 'Sec-Fetch-Site': 'same-origin' });
+    expect(own.status).toBe(200);
+    expect(JSON.parse(own.body).key).toMatch(/^[A-Za-z0-9+/]{43}=$/);
+  });
+
+  it('brings the campaign back after the server restarts on the same address with the same key, and not with another key', async () => {
+    const port = Number(new URL(s.server.url).port);
+    const key = JSON.parse((await get(new URL(STORAGE_KEY_PATH, s.server.url).href, {})).body).key as string;
+    const root = join(s.profile, 'renderer');
+    await s.server.close();
+    const again = await startStaticServer({ root, extra: { '/sample-runs/': SAMPLES }, port, storageKey: key });
+    try {
+      await page.reload();
+      await waitReady(page, 'run-105-clean-repeat.csv').catch(() => undefined);
+      expect(await page.locator('tbody[data-run="run-105-clean-repeat.csv"]').count()).toBe(1);
+    } finally {
+      await again.close();
+    }
+    // another program on the same address, without the key: it finds nothing it can read
+    const stranger = await startStaticServer({ root, extra: { '/sample-runs/': SAMPLES }, port });
+    try {
+      await page.reload();
+      await page.locator('.runs-panel').waitFor();
+      await page.waitForTimeout(1500);
+      expect(await page.locator('tbody[data-run="run-105-clean-repeat.csv"]').count()).toBe(0);
+    } finally {
+      await stranger.close();
+    }
+    // the session's own close() closes its server again; give it one that is still open
+    s.server = await startStaticServer({ root, extra: { '/sample-runs/': SAMPLES }, port, storageKey: key });
+  });
+});
