@@ -17,3 +17,6 @@ export * from './physics/units.ts';
 export * from './reduction/engine.ts';
 export * from './reduction/pipeline.ts';
 export * from './setup/schema.ts';
+
+// ---- report tables (point table with trade names, units row, rounded numbers) ----
+export * from './formats/reportTable.ts';

@@ -280,14 +280,27 @@ describe('exports', () => {
     runs: [{ name: '101', configuration: 'clean', file: 'run-101-clean.csv', record }],
   };
 
-  it('writes the point table exactly as core does, after its own provenance lines', () => {
+  it('writes the point table as the report table after raw, unquoted provenance lines a comment-skipping reader skips', async () => {
     const csv = pointsCsvExport(prov, result);
-    const own = csv.split('\n').filter((l) => l.includes('exported_') || l.includes('campaign:') || l.includes('units:') || l.includes('un-suffixed') || l.includes('Caution'));
-    expect(own.length).toBeGreaterThanOrEqual(5);
-    expect(csv.endsWith(pointsCsv(result, record))).toBe(true);
-    // text from the campaign cannot become a formula or break the CSV: one quoted cell starting with "#"
-    expect(csv).toContain('"# campaign: =HYPERLINK(""x""), ""quoted"""');
+    const lines = csv.split('\n');
+    const comments = lines.filter((l) => l.startsWith('# '));
+    expect(comments.some((l) => l.startsWith('# exported_at: '))).toBe(true);
+    expect(comments.some((l) => l.startsWith('# Caution'))).toBe(true);
+    expect(lines.some((l) => l.startsWith('"#'))).toBe(false);
     expect(csv).toContain('# run: run-101-clean.csv sha256 ' + 'ab'.repeat(32));
+    // text from the campaign cannot become a formula when a spreadsheet splits the line at its commas
+    expect(csv).toContain('# campaign: =HYPERLINK("x"), "quoted"');
+    expect(csv).not.toMatch(/,\s*=/);
+    const Papa = (await import('papaparse')).default;
+    const parsed = Papa.parse<string[]>(csv, { comments: '#', skipEmptyLines: true });
+    expect(parsed.errors).toEqual([]);
+    const [header, units, ...rows] = parsed.data;
+    expect(header!.slice(0, 7)).toEqual(['point', 'samples', 'alpha', 'CL', 'CD', 'Cm', 'L/D']);
+    expect(units!.slice(0, 8)).toEqual(['-', '-', 'deg', '-', '-', '-', '-', 'Pa']);
+    expect(rows.length).toBe(result.points.length);
+    for (const r of rows) for (const cell of r.slice(1)) if (cell !== '') expect(cell.replace(/^-/, '').replace(/e.*$/, '').replace('.', '').replace(/^0+/, '').length, cell).toBeLessThanOrEqual(7);
+    const cl = header!.indexOf('CL');
+    rows.forEach((r, i) => expect(Math.abs(Number(r[cl]) - result.points[i]!.cl!)).toBeLessThanOrEqual(0.5e-4 + 1e-12));
   });
 
   it('writes the fit summary with the linear range split into two columns', () => {

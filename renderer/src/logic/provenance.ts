@@ -23,7 +23,7 @@ export interface Provenance {
 
 export const UNITS_NOTE =
   'units: SI (pressure Pa, speed m/s, density kg/m3, viscosity Pa s, temperature K, force N, moment N m), angles in degrees; coefficients dimensionless';
-export const VALUES_NOTE = 'un-suffixed values are free-air corrected; *_uncorrected are as measured in the tunnel';
+export const VALUES_NOTE = 'values are free-air corrected unless named "as measured" (*_uncorrected), which are as measured in the tunnel';
 export const CAUTION =
   'Caution: model-test results at the test Reynolds number. Using them for a full-scale aircraft (stall speed, loads) needs scale-effect assessment; certified data and licensed practice govern.';
 
