@@ -241,10 +241,13 @@ run('Sweepbook in a real browser (browser host)', () => {
     const names = sheets.map((x) => x.sheet);
     expect(names).toEqual(['Fit summary', 'Points 101', 'Points 103', 'Provenance']);
     const points = sheets.find((x) => x.sheet === 'Points 101')!.data;
-    expect(points[0]).toEqual([...POINT_COLUMNS]);
-    expect(points.length - 1).toBe(cliJson.points.length);
-    cliJson.points.forEach((p, i) => POINT_COLUMNS.forEach((k, j) => {
-      const v = points[i + 1]![j] ?? null;
+    // trade names and a units row above full-precision numbers
+    const keys = (points[0] as string[]).map((h) => REPORT_COLUMNS.find((c) => c.header === h)!.key);
+    expect(keys.every((k) => (POINT_COLUMNS as readonly string[]).includes(k))).toBe(true);
+    expect(points[1]![keys.indexOf('alpha_deg')]).toBe('deg');
+    expect(points.length - 2).toBe(cliJson.points.length);
+    cliJson.points.forEach((p, i) => keys.forEach((k, j) => {
+      const v = points[i + 2]![j] ?? null;
       const ref = p[k] ?? null;
       expectSame(typeof ref === 'string' && typeof v === 'number' ? String(v) : v, ref, `${k} point ${i}`);
     }));

@@ -19,7 +19,7 @@ import { columnsWithValues } from '../../renderer/src/logic/pointColumns.ts';
 import type { Provenance } from '../../renderer/src/logic/provenance.ts';
 import { checkSetup, draftFrom, setupFrom } from '../../renderer/src/logic/setupForm.ts';
 import { toTsv } from '../../renderer/src/logic/tsv.ts';
-import { sheetName, workbookSheets } from '../../renderer/src/logic/xlsxExport.ts';
+import { numberFormat, pointSheet, sheetName, workbookSheets } from '../../renderer/src/logic/xlsxExport.ts';
 import { boxRange, wheelFactor, zoomAbout } from '../../renderer/src/logic/zoom.ts';
 import { sniffHeader } from '../../renderer/src/worker/headerSniff.ts';
 import { sample } from './support.ts';
@@ -332,7 +332,20 @@ describe('exports', () => {
     const sheets = workbookSheets(prov, [{ name: '101', configuration: '=HYPERLINK("http://x","flap")', file: 'run-101-clean.csv', result, asMeasured: result }]);
     const texts = sheets.flatMap((sh) => (sh.data as unknown[][]).flat()).map((c) => (c && typeof c === 'object' && 'value' in c ? (c as { value: unknown }).value : c)).filter((v): v is string => typeof v === 'string');
     expect(texts.some((t) => t.includes('HYPERLINK'))).toBe(true);
-    expect(texts.filter((t) => /^[=+\-@\t\r]/.test(t))).toEqual([]);
+    // the units row's "-" (a ratio) is a text cell, which a spreadsheet never evaluates
+    expect(texts.filter((t) => t !== '-' && /^[=+\-@\t\r]/.test(t))).toEqual([]);
+  });
+
+  it('writes point sheets with trade names, a units row, both frozen, number formats and widths', () => {
+    const sheet = pointSheet('101', result);
+    const [head, units, first] = sheet.data as { value: unknown; format?: string }[][];
+    expect(head!.slice(0, 4).map((c) => c.value)).toEqual(['point', 'samples', 'alpha', 'CL']);
+    expect(units![2]!.value).toBe('deg');
+    expect(sheet.stickyRowsCount).toBe(2);
+    expect(first![3]!.format).toBe('0.0000');
+    expect(first![3]!.value).toBe(result.points[0]!.cl);
+    expect(sheet.columns!.every((c) => (c.width ?? 0) >= 9)).toBe(true);
+    expect(numberFormat({ key: 'reynolds', header: 'Re', unit: '-', decimals: 'sig:4' })).toBe('0.000E+00');
   });
 
   it('copies tab-separated text a spreadsheet cannot run as a formula', () => {

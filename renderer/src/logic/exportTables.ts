@@ -85,3 +85,14 @@ export function pointRows(result: ReductionResult): { header: string[]; rows: Ce
 export function safeName(text: string): string {
   return text.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-+|-+$/g, '') || 'run';
 }
+
+/**
+ * A file name part from a campaign or run name, whole words only: a name longer than `max` characters
+ * is cut at the last separator before it, never inside a word.
+ */
+export function fileStem(text: string, max = 80): string {
+  const name = safeName(text);
+  if (name.length <= max) return name;
+  const cut = name.slice(0, max + 1).search(/[-_.][^-_.]*$/);
+  return cut > 0 ? name.slice(0, cut) : name.slice(0, max);
+}

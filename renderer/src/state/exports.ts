@@ -6,7 +6,7 @@ import { ref } from 'vue';
 import { renderPng, dataUrlBytes } from '../charts/renderImage.ts';
 import { plotConfig } from '../charts/plotConfig.ts';
 import { anyUncertainty, ERROR_BAR_NOTE } from '../logic/errorBars.ts';
-import { fitsCsvExport, pointsCsvExport, safeName, type FitSource } from '../logic/exportTables.ts';
+import { fileStem, fitsCsvExport, pointsCsvExport, type FitSource } from '../logic/exportTables.ts';
 import { PLOTS, plotSpec, type PlotId } from '../logic/plotSpecs.ts';
 import { provenanceFooter, provenanceLines } from '../logic/provenance.ts';
 import type { Host } from '../host/hostAccess.ts';
@@ -27,7 +27,7 @@ export function createExports(wb: Workbench, host: Host, limits: PlotLimits, doc
   const printJob = ref<PrintJob | null>(null);
 
   function campaignStem(): string {
-    return safeName(wb.state.campaign.name).slice(0, 40);
+    return fileStem(wb.state.campaign.name);
   }
 
   function fitSources(files: readonly string[]): FitSource[] {
@@ -57,7 +57,7 @@ export function createExports(wb: Workbench, host: Host, limits: PlotLimits, doc
       const e = file ? wb.state.entries[file] : undefined;
       if (!file || !e?.result) return nothing('Point table CSV');
       const text = pointsCsvExport(await wb.provenance([file], 'corrected'), e.result);
-      await host.saveExport(`${safeName(e.result.run.name)}-points.csv`, text, 'text/csv');
+      await host.saveExport(`${fileStem(e.result.run.name)}-points.csv`, text, 'text/csv');
     });
 
   const exportFitsCsv = (files: readonly string[] = wb.shownRuns.value) =>
@@ -99,8 +99,8 @@ export function createExports(wb: Workbench, host: Host, limits: PlotLimits, doc
       const axesFont = { size: 20, weight: 'bold' as const };
       cfg.options!.scales!['x']!.title!.font = axesFont;
       cfg.options!.scales!['y']!.title!.font = axesFont;
-      cfg.options!.scales!['x']!.ticks = { font: { size: 17 } };
-      cfg.options!.scales!['y']!.ticks = { font: { size: 17 } };
+      cfg.options!.scales!['x']!.ticks = { includeBounds: false, font: { size: 17 } };
+      cfg.options!.scales!['y']!.ticks = { includeBounds: false, font: { size: 17 } };
     }
     return renderPng(cfg, width, height, doc);
   }
