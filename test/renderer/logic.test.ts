@@ -9,7 +9,7 @@ import { attempt } from '../../core/contract/messages.ts';
 import { provenanceOf } from '../../core/formats/provenance.ts';
 import type { PointResult, ReductionResult } from '../../core/reduction/pipeline.ts';
 import { readRunText } from '../../core/formats/runFile.ts';
-import { choiceProblems, initialChoices, mappingFrom, needsMapping, type CellChoice } from '../../renderer/src/logic/columnMapping.ts';
+import { ASSIGNMENT_LABELS, choiceProblems, choicesFromDocument, columnMapDocument, initialChoices, mappingFrom, needsMapping, type CellChoice } from '../../renderer/src/logic/columnMapping.ts';
 import { deltas, interpolate, curveOf } from '../../renderer/src/logic/delta.ts';
 import { fitHeader, fitRows, fitsCsvExport, pointsCsvExport } from '../../renderer/src/logic/exportTables.ts';
 import { fitCell, FIT_ROWS, fitRowsFor } from '../../renderer/src/logic/fitRows.ts';
@@ -227,12 +227,56 @@ describe('header sniffing', () => {
     expect(h.line).toBe(4);
     expect(h.delimiter).toBe(';');
     expect(h.cells).toEqual([
-      { name: 'Alpha', unit: 'deg' },
-      { name: 'DP_Pitot', unit: 'kPa' },
+      { name: 'Alpha', unit: 'deg', unitFrom: 'brackets' },
+      { name: 'DP_Pitot', unit: 'kPa', unitFrom: 'brackets' },
       { name: 'Lift', unit: null },
     ]);
     expect(h.preview).toEqual([['1,5', '0,6', '3'], ['2,0', '0,6', '4']]);
     expect(h.signature).toBe('alpha [deg];dp_pitot [kpa];lift');
+  });
+
+  it('reads units written in parentheses and in a units row below the header', () => {
+    const h = sniffHeader('AoA (deg),Pitot (mbar),Lift,Drag,Note\n,,kgf,N,-\n1,2,3,4,x\n')!;
+    expect(h.cells.map((c) => [c.unit, c.unitFrom ?? null])).toEqual([
+      ['deg', 'parentheses'],
+      ['mbar', 'parentheses'],
+      ['kgf', 'units row'],
+      ['N', 'units row'],
+      ['-', 'units row'],
+    ]);
+    expect(h.unitsRow).toBe(2);
+    expect(h.preview).toEqual([['1', '2', '3', '4', 'x']]);
+    // a row of numbers is data, not units
+    expect(sniffHeader('a,b\n1,2\n')!.unitsRow).toBeUndefined();
+  });
+
+  it('starts every column with a stated unit: the file\'s, else the usual one marked as not in the file', () => {
+    const h = sniffHeader('AoA (deg),pitot (mbar),lift\n1,2,3\n')!;
+    const c = initialChoices(h, null);
+    expect(c.map((x) => [x.assign, x.unit, x.unitFrom ?? null])).toEqual([
+      ['alpha', 'deg', 'parentheses'],
+      ['dp_pitot', 'mbar', 'parentheses'],
+      ['lift', 'N', null],
+    ]);
+    expect(ASSIGNMENT_LABELS.dp_pitot).toMatch(/pitot/);
+    expect(Object.values(ASSIGNMENT_LABELS).some((l) => /default|_/.test(l))).toBe(false);
+  });
+
+  it('writes and reads column-map files; a key the file lacks, an unknown channel or unit is named', () => {
+    const h = sniffHeader('AoA (deg),pitot (mbar),lift,note\n1,2,3,x\n')!;
+    const c = initialChoices(h, null);
+    const doc = columnMapDocument(c, h);
+    expect(doc).toEqual({ format: 'sweepbook-columns', version: 1, columns: { 'AoA (deg)': { channel: 'alpha', unit: 'deg' }, 'pitot (mbar)': { channel: 'dp_pitot', unit: 'mbar' }, lift: { channel: 'lift', unit: 'N' }, note: null } });
+    const back = choicesFromDocument(JSON.stringify(doc), h, c.map((x) => ({ ...x, assign: 'ignore' as const, unit: '' })), 'map.json');
+    expect(back.problems).toEqual([]);
+    expect(back.choices.map((x) => [x.assign, x.unit])).toEqual(c.map((x) => [x.assign, x.unit]));
+    const bad = choicesFromDocument(JSON.stringify({ format: 'sweepbook-columns', version: 1, columns: { Pbar: { channel: 'p_static' }, lift: { channel: 'lifts' }, 'AoA (deg)': { channel: 'alpha', unit: 'Pa' } } }), h, c, 'map.json');
+    expect(bad.problems).toEqual([
+      'map.json: columns."Pbar": this file has no such column',
+      'map.json: columns."lift".channel: "lifts" is not a channel',
+      'map.json: columns."AoA (deg)".unit: "Pa" is not a unit of angle of attack α',
+    ]);
+    expect(choicesFromDocument('{', h, c, 'map.json').problems[0]).toMatch(/^map\.json: not JSON/);
   });
 
   it('waits for the header line to be complete', () => {

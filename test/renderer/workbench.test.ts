@@ -120,7 +120,7 @@ describe('workbench', () => {
     const e = ctx.wb.state.entries['run-301.csv']!;
     expect(e.status).toBe('needs-mapping');
     expect(e.errors[0]).toMatch(/^run-301\.csv:7: missing required column "alpha"/);
-    expect(e.header?.cells[0]).toEqual({ name: 'AoA', unit: 'deg' });
+    expect(e.header?.cells[0]).toEqual({ name: 'AoA', unit: 'deg', unitFrom: 'brackets' });
 
     await ctx.wb.applyMapping('run-301.csv', { names: { aoa: 'alpha', pitot: 'dp_pitot' }, units: {} });
     expect(ctx.wb.state.entries['run-301.csv']!.status).toBe('ready');
