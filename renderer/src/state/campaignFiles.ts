@@ -24,6 +24,7 @@ export function createCampaignFiles(base: CampaignState, host: Host, loader: Run
     state.tares = {};
     state.banners = [];
     state.mappingFor = null;
+    state.unconfirmed = [];
     state.currentRun = null;
     state.editingSetup = Object.keys(campaign.setups)[0] ?? null;
   }

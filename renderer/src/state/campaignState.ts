@@ -74,6 +74,8 @@ export interface WorkbenchState {
   errorBars: boolean;
   /** What was typed into the full-scale estimate, kept while other views are shown. */
   fullScale: FullScaleDraft;
+  /** Imported runs whose setup and tare the user has not confirmed yet (ImportChoice.vue). */
+  unconfirmed: string[];
 }
 
 export type ViewId = 'plots' | 'delta' | 'fits' | 'fullscale' | 'detail' | 'samples' | 'setup';
@@ -122,6 +124,7 @@ export function createCampaignState(host: Host) {
     view: 'plots',
     errorBars: true,
     fullScale: emptyDraft(),
+    unconfirmed: [],
   });
   let bannerId = 0;
 
