@@ -183,12 +183,15 @@ export function createBrowserHost(win: Window): SweepbookHost & HostExtras {
     return hex(await subtle.digest('SHA-256', await blobOf(id).arrayBuffer()));
   }
 
-  /** Campaign text plus the run files chosen with it, matched by file name. */
+  /**
+   * Campaign text plus the run files chosen with it, matched by file name. Hashes are left to the loader,
+   * which works them out as it reads each run, so a campaign of a thousand runs is listed at once.
+   */
   async function resolveCampaign(id: string, name: string, text: string, available: Map<string, ChosenFile>): Promise<OpenedCampaign> {
     const runs: OpenedRun[] = [];
     for (const file of filesNamedBy(text)) {
       const chosen = available.get(baseName(file));
-      runs.push({ file, id: chosen?.id ?? null, sha256: chosen ? await sha256(chosen.id) : null, size: chosen?.size });
+      runs.push({ file, id: chosen?.id ?? null, sha256: null, size: chosen?.size });
     }
     return { id, name, text, runs };
   }
