@@ -100,6 +100,85 @@ run('the window on a laptop screen, kept across reloads', () => {
     expect(new Set(colours).size).toBe(colours.length);
   });
 
+  it('imports a run whose header gives units in parentheses: every unit stated, channels in trade words, setup and tare chosen explicitly', async () => {
+    const text = readFileSync(join(SAMPLES, 'run-101-clean.csv'), 'utf8')
+      .replace('# run: 101', '# run: 106')
+      .replace('alpha [deg],dp_pitot [Pa]', 'AoA (deg),Pitot dp (Pa)');
+    const file = join(work, 'run-106-clean.csv');
+    writeFileSync(file, text);
+    const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.getByRole('button', { name: 'Import runs…' }).click()]);
+    await chooser.setFiles(file);
+    const row = page.locator('tbody[data-run="run-106-clean.csv"]');
+    await page.locator('tbody[data-run="run-106-clean.csv"][data-status="needs-mapping"]').waitFor();
+    await row.getByRole('button', { name: 'Assign columns…' }).click();
+    const dialog = page.locator('dialog.mapping-dialog');
+    await dialog.waitFor();
+    expect(await dialog.getByLabel('What column AoA (deg) holds').inputValue()).toBe('alpha');
+    expect(await dialog.getByLabel('Unit of column AoA (deg)').inputValue()).toBe('deg');
+    expect(await dialog.locator('tr[data-column="AoA (deg)"] .unit-source').textContent()).toBe('header: deg');
+    expect(await dialog.locator('tr[data-column="lift"] .unit-source').textContent()).toBe('header: N');
+    const labels = await dialog.getByLabel('What column AoA (deg) holds').locator('option').allTextContents();
+    expect(labels).toContain('angle of attack α');
+    expect(labels.some((l) => /default|_/.test(l))).toBe(false);
+    expect(await dialog.textContent()).not.toContain('contract default');
+    await page.screenshot({ path: join(ARTIFACTS, 'window-column-step-1024x700.png') });
+    await dialog.getByRole('button', { name: 'Read the file with these columns' }).click();
+    await waitReady(page, 'run-106-clean.csv');
+
+    // the run waits for its setup and tare, proposed from the runs of the same model and configuration
+    const strip = page.getByRole('region', { name: 'Setup and tare of imported runs' });
+    await strip.waitFor();
+    expect(await row.locator('.tag', { hasText: 'setup to confirm' }).count()).toBe(1);
+    expect(await strip.getByLabel('Setup for 106').inputValue()).toBe('KM-7 wing');
+    expect(await strip.getByLabel('Tare for 106').inputValue()).toBe('windoff-tare.csv');
+    expect(await strip.locator('tr[data-import="run-106-clean.csv"]').textContent()).toContain('same model and configuration');
+    expect(await overflowOf(page)).toBe(0);
+    await page.screenshot({ path: join(ARTIFACTS, 'window-import-choice-1024x700.png') });
+    await strip.getByRole('button', { name: 'Use these' }).click();
+    await expect.poll(() => strip.count()).toBe(0);
+    await waitReady(page, 'run-106-clean.csv');
+    expect(await row.locator('.tag', { hasText: 'no tare' }).count()).toBe(0);
+    expect(await row.locator('.tag', { hasText: 'setup to confirm' }).count()).toBe(0);
+    // the run without a tare says so
+    expect(await page.locator('tbody[data-run="run-201-section.csv"] .tag', { hasText: 'no tare' }).count()).toBe(1);
+  });
+
+  it('compares drag at constant lift beside matched α, and refuses a 2D section against a 3D baseline with the reason', async () => {
+    await showView(page, 'Against baseline');
+    await page.getByLabel('Baseline run').selectOption('run-101-clean.csv');
+    const refused = page.locator('[data-refused="run-201-section.csv"]');
+    await refused.waitFor();
+    expect(await refused.textContent()).toMatch(/201 is a 2D section and the baseline 101 a 3D model/);
+    const panel = page.locator('[data-plot="delta-cd-at-cl"]');
+    expect(await panel.getAttribute('data-series')).toContain('102 · flap 10');
+    expect(await panel.getAttribute('data-series')).not.toContain('201');
+    expect(await overflowOf(page)).toBe(0);
+    await page.screenshot({ path: join(ARTIFACTS, 'window-baseline-1024x700.png') });
+    await showView(page, 'Plots');
+    expect(await page.locator('.mixed-kinds').textContent()).toMatch(/201 is a 2D section/);
+  });
+
+  it('writes the points CSV a comment-skipping reader reads: raw # lines, header, units row, at most 7 significant digits', async () => {
+    await page.locator('tbody[data-run="run-101-clean.csv"] .run-row .run-name').click();
+    const [d] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Points CSV' }).click()]);
+    expect(d.suggestedFilename()).toBe('101-points.csv');
+    const text = readFileSync((await d.path())!, 'utf8');
+    expect(text).not.toMatch(/^"#/m);
+    const Papa = (await import('papaparse')).default;
+    const parsed = Papa.parse<string[]>(text, { comments: '#', skipEmptyLines: true });
+    expect(parsed.errors).toEqual([]);
+    const [header, units, ...rows] = parsed.data;
+    expect(header!.slice(0, 4)).toEqual(['point', 'samples', 'alpha', 'CL']);
+    expect(units!.slice(0, 3)).toEqual(['-', '-', 'deg']);
+    for (const r of rows) {
+      for (const cell of r.slice(1)) {
+        if (cell === '') continue;
+        const digits = cell.replace(/^-/, '').replace(/e.*$/i, '').replace('.', '').replace(/^0+/, '');
+        expect(digits.length, cell).toBeLessThanOrEqual(7);
+      }
+    }
+  });
+
   it('keeps the campaign, an imported run and unsaved changes across a reload', async () => {
     const text = readFileSync(join(SAMPLES, 'run-101-clean.csv'), 'utf8').replace('# run: 101', '# run: 105');
     const file = join(work, 'run-105-clean-repeat.csv');
