@@ -5,7 +5,7 @@
 import { contextBridge, ipcRenderer, webUtils } from 'electron';
 import type { ChosenFile, MenuCommand, SweepbookHost } from '../../core/index.ts';
 
-const host: SweepbookHost & { adoptDroppedFile(file: File): Promise<ChosenFile> } = {
+const host: SweepbookHost & { adoptDroppedFile(file: File): Promise<ChosenFile>; onOpenRecent(listener: (id: string) => void): () => void } = {
   kind: 'electron',
   chooseRunFiles: () => ipcRenderer.invoke('runs:choose'),
   readChunks: async (id, onChunk, chunkBytes) => {
@@ -32,6 +32,14 @@ const host: SweepbookHost & { adoptDroppedFile(file: File): Promise<ChosenFile> 
   print: () => ipcRenderer.invoke('app:print'),
   adoptDroppedFile: (file) => ipcRenderer.invoke('file:adopt-dropped', webUtils.getPathForFile(file)),
   openRecentCampaign: (id) => ipcRenderer.invoke('campaign:open-recent', id),
+  // File → Open Recent in the native menu: the id is the recent list's own, checked again by campaign:open-recent
+  onOpenRecent: (listener) => {
+    const fn = (_e: unknown, id: unknown) => {
+      if (typeof id === 'string') listener(id);
+    };
+    ipcRenderer.on('menu:open-recent', fn);
+    return () => ipcRenderer.removeListener('menu:open-recent', fn);
+  },
   openCampaignBackup: (id) => ipcRenderer.invoke('campaign:open-backup', id),
 };
 

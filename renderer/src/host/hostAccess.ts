@@ -20,6 +20,8 @@ export interface HostExtras {
    * host finds them again (the browser host; the desktop window works on files on disk instead).
    */
   keepSession?(session: KeptSession): Promise<void>;
+  /** File → Open Recent in a native menu (the Electron preload): the id to pass to openRecentCampaign. */
+  onOpenRecent?(listener: (id: string) => void): () => void;
   /** The campaign kept by keepSession, its files chosen again under new ids; null when nothing is kept. */
   restoreSession?(): Promise<RestoredSession | null>;
 }
