@@ -179,6 +179,25 @@ run('the window on a laptop screen, kept across reloads', () => {
     }
   });
 
+  it('takes axis ranges typed in, refuses ends the wrong way round, and keeps ticks on round values', async () => {
+    const panel = page.locator('[data-plot="cl-alpha"]');
+    await panel.getByRole('button', { name: 'Ranges…' }).click();
+    const form = panel.getByRole('form', { name: /Axis ranges/ });
+    await form.getByLabel('α from').fill('4');
+    await form.getByLabel('α to').fill('2');
+    await form.getByRole('button', { name: 'Apply' }).click();
+    expect(await form.getByRole('alert').textContent()).toMatch(/lower end \(4\) must be below the upper end \(2\)/);
+    await form.getByLabel('α from').fill('-2.5');
+    await form.getByLabel('α to').fill('12.5');
+    await form.getByLabel('CL from').fill('0');
+    await form.getByLabel('CL to').fill('1.2');
+    await form.getByRole('button', { name: 'Apply' }).click();
+    await expect.poll(() => panel.getAttribute('data-zoomed')).toBe('yes');
+    expect(await overflowOf(page)).toBe(0);
+    await panel.getByRole('button', { name: 'Reset zoom' }).click();
+    await expect.poll(() => panel.getAttribute('data-zoomed')).toBe('no');
+  });
+
   it('keeps the campaign, an imported run and unsaved changes across a reload', async () => {
     const text = readFileSync(join(SAMPLES, 'run-101-clean.csv'), 'utf8').replace('# run: 101', '# run: 105');
     const file = join(work, 'run-105-clean-repeat.csv');

@@ -20,7 +20,7 @@ import type { Provenance } from '../../renderer/src/logic/provenance.ts';
 import { checkSetup, draftFrom, setupFrom } from '../../renderer/src/logic/setupForm.ts';
 import { toTsv } from '../../renderer/src/logic/tsv.ts';
 import { numberFormat, pointSheet, sheetName, workbookSheets } from '../../renderer/src/logic/xlsxExport.ts';
-import { boxRange, wheelFactor, zoomAbout } from '../../renderer/src/logic/zoom.ts';
+import { boxRange, typedRange, wheelFactor, zoomAbout } from '../../renderer/src/logic/zoom.ts';
 import { sniffHeader } from '../../renderer/src/worker/headerSniff.ts';
 import { sample } from './support.ts';
 
@@ -102,6 +102,21 @@ describe('palette', () => {
   it('spends no colour on runs left out of the list (only reduced runs are passed in)', () => {
     const styles = assignStyles([{ file: 'second', configuration: null }], ['']);
     expect(styles.get('second')!.colour).toBe(RUN_COLOURS[0]);
+  });
+});
+
+describe('typed axis ranges', () => {
+  it('takes two numbers, lower first, a decimal comma too', () => {
+    expect(typedRange('-5', '20', 'α')).toEqual({ range: { min: -5, max: 20 }, problem: null });
+    expect(typedRange('0,5', '1.5', 'CL')).toEqual({ range: { min: 0.5, max: 1.5 }, problem: null });
+  });
+  it('leaves the axis automatic when both ends are empty', () => {
+    expect(typedRange(' ', '', 'α')).toEqual({ range: null, problem: null });
+  });
+  it('says what is wrong with one end missing, text, or the ends the wrong way round', () => {
+    expect(typedRange('1', '', 'α [deg]').problem).toBe('α [deg]: give both ends as numbers, or leave both empty for the full range');
+    expect(typedRange('a', '2', 'α').problem).toMatch(/give both ends as numbers/);
+    expect(typedRange('3', '3', 'CL').problem).toBe('CL: the lower end (3) must be below the upper end (3)');
   });
 });
 
