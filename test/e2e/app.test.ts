@@ -345,6 +345,8 @@ run('Sweepbook in a real browser (browser host)', () => {
     const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.getByRole('button', { name: 'Open…' }).click()]);
     await chooser.setFiles(chosen);
     await page.locator('tbody[data-run="run-103-flap20.csv"][data-status="missing"]').waitFor();
+    // the hashes are checked as each run is read (a campaign of many runs is listed first)
+    await waitReady(page, 'run-102-flap10.csv');
     const banners = await page.locator('.banner').allTextContents();
     expect(banners.join('\n')).toContain('Not found beside the campaign: run-103-flap20.csv');
     expect(banners.join('\n')).toMatch(/run-102-flap10\.csv: the file has changed since the campaign was saved/);

@@ -50,3 +50,25 @@ export function provenanceFooter(p: Provenance): string {
   });
   return `Sweepbook ${TOOL_VERSION} · exported ${p.exportedAt} · ${p.campaign} · ${runs.join(', ')}`;
 }
+
+/**
+ * Provenance for a figure, a few legible lines: tool, time and campaign, then per run its file and
+ * hash, setup, correction method and factors under their symbols. More than `maxRuns` runs are counted.
+ */
+export function figureProvenance(p: Provenance, factorText: (r: RunRecord) => string, maxRuns = 8): string[] {
+  const lines = [`Sweepbook ${TOOL_VERSION} · exported ${p.exportedAt} · campaign ${p.campaign}`];
+  for (const r of p.runs.slice(0, maxRuns)) {
+    const input = r.record.inputs.find((i) => i.role === 'run');
+    const setup = r.record.inputs.find((i) => i.role === 'setup');
+    const tare = r.record.inputs.find((i) => i.role === 'tare');
+    const c = r.record.corrections;
+    const method = c.enabled ? `${c.kind.toUpperCase()} wall corrections${c.wake ? `, ${c.wake} wake blockage` : ''}` : 'no wall corrections';
+    const factors = factorText(r.record);
+    lines.push(
+      `${r.name}: ${r.file} (sha256 ${input ? input.sha256.slice(0, 12) : '?'}…) · setup ${setup ? setup.name.replace(/^.*setups\["(.*)"\]$/, '"$1"') : '?'} · ${tare ? `tare ${tare.name}` : 'no tare'} · ${method}${factors ? ` (${factors})` : ''}`,
+    );
+  }
+  if (p.runs.length > maxRuns) lines.push(`… and ${p.runs.length - maxRuns} more runs (their provenance is in the CSV and workbook exports)`);
+  lines.push(CAUTION);
+  return lines;
+}

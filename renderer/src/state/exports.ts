@@ -8,13 +8,17 @@ import { plotConfig } from '../charts/plotConfig.ts';
 import { anyUncertainty, ERROR_BAR_NOTE } from '../logic/errorBars.ts';
 import { fileStem, fitsCsvExport, pointsCsvExport, type FitSource } from '../logic/exportTables.ts';
 import { PLOTS, plotSpec, type PlotId } from '../logic/plotSpecs.ts';
-import { provenanceFooter, provenanceLines } from '../logic/provenance.ts';
+import { figureProvenance, provenanceFooter, provenanceLines } from '../logic/provenance.ts';
+import { factorLine } from '../logic/factorNames.ts';
+import { svgFigure } from '../charts/svgFigure.ts';
 import type { Host } from '../host/hostAccess.ts';
 import type { PlotLimits } from './plotLimits.ts';
 import { overlaySeries } from './plotSeries.ts';
 import type { Workbench } from './workbench.ts';
 
 export const PNG_SIZE = { width: 1400, height: 900 } as const;
+/** SVG figures: A4-landscape-like proportions at 96 px per inch. */
+export const SVG_SIZE = { width: 1100, height: 780 } as const;
 
 export interface PrintJob {
   file: string;
@@ -112,6 +116,27 @@ export function createExports(wb: Workbench, host: Host, limits: PlotLimits, doc
       await host.saveExport(`${campaignStem()}-${id}.png`, dataUrlBytes(url), 'image/png');
     });
 
+  /** The plot as an SVG figure (vector) at the chosen size, with a provenance block of legible lines. */
+  const exportPlotSvg = (id: PlotId = 'cl-alpha', size: { width: number; height: number } = SVG_SIZE) =>
+    guarded('SVG export', async () => {
+      if (wb.shownRuns.value.length === 0) return nothing('Plot SVG');
+      const spec = plotSpec(id);
+      const series = overlaySeries(wb, spec, wb.state.basis);
+      const basis = wb.state.basis === 'corrected' ? 'free-air corrected' : 'as measured in the tunnel';
+      const prov = await wb.provenance(wb.shownRuns.value);
+      const svg = svgFigure({
+        title: `${spec.title}, ${spec.y.title.split(' ')[0]} vs ${spec.x.title.split(' ')[0]} (${basis}) · ${wb.state.campaign.name}`,
+        xTitle: spec.x.title,
+        yTitle: spec.y.title,
+        series,
+        limits: limits.get(id),
+        width: size.width,
+        height: size.height,
+        provenance: figureProvenance(prov, (r) => factorLine(r.factors)),
+      });
+      await host.saveExport(`${campaignStem()}-${id}.svg`, svg, 'image/svg+xml');
+    });
+
   /** Put text on the clipboard; falls back to a hidden text area where the clipboard API is refused. */
   async function copyText(text: string): Promise<boolean> {
     try {
@@ -143,7 +168,7 @@ export function createExports(wb: Workbench, host: Host, limits: PlotLimits, doc
       await host.print();
     });
 
-  return { printJob, exportPointsCsv, exportFitsCsv, exportXlsx, exportPlotPng, copyText, printSummary, plotImage };
+  return { printJob, exportPlotSvg, exportPointsCsv, exportFitsCsv, exportXlsx, exportPlotPng, copyText, printSummary, plotImage };
 }
 
 export type Exports = ReturnType<typeof createExports>;
