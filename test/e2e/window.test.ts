@@ -202,9 +202,10 @@ run('the window on a laptop screen, kept across reloads', () => {
     const [d] = await Promise.all([page.waitForEvent('download'), page.locator('[data-plot="cl-alpha"]').getByRole('button', { name: 'SVG' }).click()]);
     expect(d.suggestedFilename()).toBe('KM-7-wing-flap-study-invented-demonstration-campaign-cl-alpha.svg');
     const svg = readFileSync((await d.path())!, 'utf8');
+    writeFileSync(join(ARTIFACTS, 'window-figure.svg'), svg);
     expect(svg).toMatch(/^<svg xmlns="http:\/\/www.w3.org\/2000\/svg"/);
     expect(svg).toContain('<g class="provenance" font-size="12"');
-    expect(svg).toMatch(/101: run-101-clean\.csv \(sha256 [0-9a-f]{12}…\) · setup "KM-7 wing" · tare windoff-tare\.csv · 3D wall corrections/);
+    expect(svg).toMatch(/101: run-101-clean\.csv \(sha256 [0-9a-f]{12}…\) · setup &quot;KM-7 wing&quot; · tare windoff-tare\.csv · 3D wall corrections/);
     expect(svg).toMatch(/δ = [0-9.]+/);
   });
 

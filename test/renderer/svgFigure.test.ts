@@ -1,6 +1,6 @@
 /** SVG figures: round ticks, runs in their styles, a legible provenance block, text escaped. */
 import { describe, expect, it } from 'vitest';
-import { niceStep, niceTicks, svgFigure } from '../../renderer/src/charts/svgFigure.ts';
+import { niceStep, niceTicks, svgFigure, wrapLines } from '../../renderer/src/charts/svgFigure.ts';
 import { styleFor } from '../../renderer/src/logic/palette.ts';
 
 describe('svg figure', () => {
@@ -10,6 +10,14 @@ describe('svg figure', () => {
     expect(niceTicks(-7.3, 17.2)).toEqual([-5, 0, 5, 10, 15]);
     expect(niceTicks(0.013, 0.087)).toEqual([0.02, 0.04, 0.06, 0.08]);
     expect(niceStep(0)).toBe(1);
+  });
+
+  it('wraps long provenance lines at a separator, never losing text', () => {
+    const line = 'run-101-clean.csv (sha256 abc…) · setup "KM-7 wing" · tare windoff-tare.csv · 3D wall corrections, classic wake blockage';
+    const wrapped = wrapLines([line], 60);
+    for (const l of wrapped) expect(l.length).toBeLessThanOrEqual(64);
+    expect(wrapped.join(' ').replace(/\s+/g, ' ')).toBe(line.replace(/\s+/g, ' '));
+    expect(wrapLines(['short'], 60)).toEqual(['short']);
   });
 
   it('draws each run in its colour, the repeat with open markers and a dash, and writes the provenance at 12 px', () => {
@@ -30,7 +38,7 @@ describe('svg figure', () => {
     expect(svg).toContain('stroke="#0072B2"');
     expect(svg).toContain('stroke="#D55E00"');
     expect(svg).toMatch(/stroke="#D55E00" stroke-width="1.8" stroke-dasharray="8 4"/);
-    expect(svg).toMatch(/<circle [^>]*fill="#ffffff" stroke="#D55E00"/);
+    expect(svg).toMatch(/<circle [^>]*fill="none" stroke="#D55E00"/);
     expect(svg).toContain('<g class="provenance" font-size="12"');
     expect(svg).toContain('δ = 0.125, τ1 = 0.84');
     expect(svg.trim().endsWith('</svg>')).toBe(true);

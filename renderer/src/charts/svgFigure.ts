@@ -68,9 +68,30 @@ function marker(kind: string, x: number, y: number, r: number, fill: string, str
   }
 }
 
+/** Lines no wider than about `chars` characters, broken after a " · " or ", " (else at a space). */
+export function wrapLines(lines: readonly string[], chars: number): string[] {
+  const out: string[] = [];
+  for (const line of lines) {
+    let rest = line;
+    let first = true;
+    while (rest.length > chars) {
+      const head = rest.slice(0, chars);
+      const cut = Math.max(head.lastIndexOf(' · '), head.lastIndexOf(', '), head.lastIndexOf(' ('));
+      const at = cut > chars / 3 ? cut + (head[cut] === ' ' && head[cut + 1] === '(' ? 0 : 2) : head.lastIndexOf(' ') > 0 ? head.lastIndexOf(' ') : chars;
+      out.push((first ? '' : '    ') + rest.slice(0, at).trimEnd());
+      rest = rest.slice(at).trimStart();
+      first = false;
+    }
+    out.push((first ? '' : '    ') + rest);
+  }
+  return out;
+}
+
 export function svgFigure(o: SvgFigureOptions): string {
   const legendRows = Math.ceil(o.series.length / 3);
-  const provH = o.provenance.length * 16 + 12;
+  // 12 px DejaVu Sans runs about 7 px a character
+  const provenance = wrapLines(o.provenance, Math.floor((o.width - 48) / 7));
+  const provH = provenance.length * 16 + 12;
   const plot = { left: 80, top: 44, right: o.width - 24, bottom: o.height - 56 - legendRows * 20 - provH };
   const xs = o.series.flatMap((s) => s.points.map((p) => p.x));
   const ys = o.series.flatMap((s) => s.points.map((p) => p.y));
@@ -96,7 +117,8 @@ export function svgFigure(o: SvgFigureOptions): string {
   parts.push(`<text transform="translate(22 ${(plot.top + plot.bottom) / 2}) rotate(-90)" text-anchor="middle" font-size="14" font-weight="bold">${esc(o.yTitle)}</text>`);
   parts.push(`<g clip-path="url(#plot-area)">`);
   for (const s of o.series) {
-    const fill = s.style.filled ? s.style.colour : '#ffffff';
+    // open rings stay see-through, so a repeat lying on its twin shows both
+    const fill = s.style.filled ? s.style.colour : 'none';
     const r = s.style.filled ? 4 : 5.5;
     if (s.joined !== false && s.points.length > 1) {
       const d = s.points.map((p, i) => `${i ? 'L' : 'M'}${px(p.x).toFixed(1)} ${py(p.y).toFixed(1)}`).join('');
@@ -116,7 +138,7 @@ export function svgFigure(o: SvgFigureOptions): string {
   });
   const provTop = legendTop + legendRows * 20 + 8;
   parts.push(`<g class="provenance" font-size="12" fill="#333">`);
-  o.provenance.forEach((l, i) => parts.push(`<text x="24" y="${provTop + i * 16}">${esc(l)}</text>`));
+  provenance.forEach((l, i) => parts.push(`<text x="24" y="${provTop + i * 16}">${esc(l)}</text>`));
   parts.push(`</g></svg>`);
   return parts.join('\n') + '\n';
 }
