@@ -8,15 +8,18 @@ export * from './contract/messages.ts';
 export * from './fits/characteristics.ts';
 export * from './formats/campaign.ts';
 export * from './formats/channels.ts';
+export * from './formats/columnMap.ts';
 export * from './formats/csvWriter.ts';
 export * from './formats/provenance.ts';
 export * from './formats/runFile.ts';
+export * from './formats/sheet.ts';
 export * from './fullscale/stallSpeed.ts';
 export * from './physics/air.ts';
 export * from './physics/units.ts';
 export * from './reduction/engine.ts';
 export * from './reduction/pipeline.ts';
 export * from './setup/schema.ts';
+export * from './setup/fields.ts';
 
 // ---- report tables (point table with trade names, units row, rounded numbers) ----
 export * from './formats/reportTable.ts';

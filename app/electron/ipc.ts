@@ -10,6 +10,7 @@ import type { ChosenFile, OpenedCampaign } from '../../core/index.ts';
 import { writeFileAtomic } from '../files/atomic.ts';
 import { FileGrants, sha256File, streamText } from './grants.ts';
 import type { RecentList } from './recent.ts';
+import { INVOKE, type InvokeChannel } from './ipcChannels.ts';
 import { isAppUrl } from './security.ts';
 
 export interface IpcDeps {
@@ -42,7 +43,7 @@ type Handler = (event: IpcMainInvokeEvent, ...args: unknown[]) => unknown;
 export function registerIpc(deps: IpcDeps): Map<string, Handler> {
   const handlers = new Map<string, Handler>();
   const streams = new Map<string, AsyncIterator<string>>();
-  const on = (channel: string, fn: (...args: unknown[]) => unknown) => {
+  const on = (channel: InvokeChannel, fn: (...args: unknown[]) => unknown) => {
     const handler: Handler = (event, ...args) => {
       const url = event.senderFrame?.url ?? '';
       if (!isAppUrl(url)) throw new Error(`refused: IPC from a page that is not the app (${url || 'unknown'})`);
@@ -53,7 +54,7 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
   };
   const chosen = async (path: string): Promise<ChosenFile> => {
     const g = deps.grants.grant(path, 'read');
-    let size = 0;
+    let size: number;
     try {
       size = (await stat(g.path)).size;
     } catch {
@@ -62,7 +63,7 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
     return { id: g.id, name: g.name, size };
   };
 
-  on('runs:choose', async () => {
+  on(INVOKE.chooseRunFiles, async () => {
     const win = deps.window();
     const opts = {
       title: 'Import run files',
@@ -76,13 +77,13 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
     return r.canceled ? [] : Promise.all(r.filePaths.map(chosen));
   });
 
-  on('file:adopt-dropped', async (path) => {
+  on(INVOKE.adoptDroppedFile, async (path) => {
     const p = schemas.droppedPath.parse(path);
     if (!RUN_EXTENSIONS.includes(extname(p).toLowerCase())) throw new Error(`refused: ${p} is not a run file (${RUN_EXTENSIONS.join(', ')})`);
     return chosen(p);
   });
 
-  on('file:open-stream', async (id, chunkBytes) => {
+  on(INVOKE.openStream, async (id, chunkBytes) => {
     const g = deps.grants.get(schemas.id.parse(id), 'read');
     const queue: string[] = [];
     let done = false;
@@ -110,7 +111,7 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
     return streamId;
   });
 
-  on('file:next-chunk', async (streamId) => {
+  on(INVOKE.nextChunk, async (streamId) => {
     const it = streams.get(String(streamId));
     if (!it) throw new Error('refused: unknown stream');
     const r = await it.next();
@@ -121,7 +122,7 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
     return r.value;
   });
 
-  on('file:sha256', async (id) => sha256File(deps.grants.get(schemas.id.parse(id), 'read').path));
+  on(INVOKE.sha256, async (id) => sha256File(deps.grants.get(schemas.id.parse(id), 'read').path));
 
   const openCampaignAt = async (path: string, from: string = path): Promise<OpenedCampaign> => {
     const g = deps.grants.grant(path, 'write');
@@ -144,7 +145,7 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
       }
     }
     await deps.recent.add(g.path);
-    let backupAvailable = false;
+    let backupAvailable: boolean;
     try {
       await readFile(`${g.path}.bak`);
       backupAvailable = true;
@@ -154,13 +155,13 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
     return { id: g.id, name: g.name, text, runs, backupAvailable };
   };
 
-  on('campaign:sample', async () => {
+  on(INVOKE.openSampleCampaign, async () => {
     const opened = await openCampaignAt(deps.sampleCampaignPath);
     // the bundled sample is never overwritten: saving it asks for a new place
     return { ...opened, id: `sample:${opened.id}` };
   });
 
-  on('campaign:open', async () => {
+  on(INVOKE.openCampaign, async () => {
     const win = deps.window();
     const opts = { title: 'Open campaign', properties: ['openFile'] as 'openFile'[], filters: [{ name: 'Sweepbook campaign', extensions: ['json'] }] };
     const r = win ? await deps.dialog.showOpenDialog(win, opts) : await deps.dialog.showOpenDialog(opts);
@@ -168,19 +169,19 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
     return openCampaignAt(r.filePaths[0]!);
   });
 
-  on('campaign:open-recent', async (path) => {
+  on(INVOKE.openRecentCampaign, async (path) => {
     const p = schemas.droppedPath.parse(path);
     if (!(await deps.recent.list()).includes(p)) throw new Error('refused: not a recent campaign');
     return openCampaignAt(p);
   });
 
   // the previous version kept beside a campaign: opened in its place after the user agreed; saving writes the campaign file
-  on('campaign:open-backup', async (id) => {
+  on(INVOKE.openCampaignBackup, async (id) => {
     const g = deps.grants.get(schemas.id.parse(id), 'write');
     return openCampaignAt(g.path, `${g.path}.bak`);
   });
 
-  on('campaign:save', async (...args) => {
+  on(INVOKE.saveCampaign, async (...args) => {
     const [text, options] = schemas.saveCampaign.parse(args);
     let path: string | undefined;
     if (options.id && !options.saveAs) path = deps.grants.get(options.id, 'write').path;
@@ -197,7 +198,7 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
     return { id: g.id, name: g.name };
   });
 
-  on('export:save', async (...args) => {
+  on(INVOKE.saveExport, async (...args) => {
     const [name, data] = schemas.saveExport.parse(args);
     const win = deps.window();
     const opts = { title: 'Export', defaultPath: name };
@@ -209,9 +210,9 @@ export function registerIpc(deps: IpcDeps): Map<string, Handler> {
     return true;
   });
 
-  on('recent:list', async () => (await deps.recent.list()).map((p) => ({ id: p, name: p.split(/[\\/]/).pop() ?? p })));
-  on('app:set-dirty', async (dirty) => deps.setDirty(schemas.dirty.parse(dirty)));
-  on('app:print', async () => deps.print());
+  on(INVOKE.recentCampaigns, async () => (await deps.recent.list()).map((p) => ({ id: p, name: p.split(/[\\/]/).pop() ?? p })));
+  on(INVOKE.setDirty, async (dirty) => deps.setDirty(schemas.dirty.parse(dirty)));
+  on(INVOKE.print, async () => deps.print());
   return handlers;
 }
 

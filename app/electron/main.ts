@@ -9,6 +9,7 @@ import { pathToFileURL } from 'node:url';
 import type { MenuCommand } from '../../core/index.ts';
 import { FileGrants } from './grants.ts';
 import { registerIpc, SAMPLE_CAMPAIGN_FILE } from './ipc.ts';
+import { EVENTS } from './ipcChannels.ts';
 import { menuTemplate } from './menu.ts';
 import { APP_ORIGIN, APP_SCHEME, resolveAppUrl } from './protocol.ts';
 import { recentList } from './recent.ts';
@@ -22,14 +23,14 @@ let win: BrowserWindow | undefined;
 let dirty = false;
 
 function send(command: MenuCommand) {
-  win?.webContents.send('menu:command', command);
+  win?.webContents.send(EVENTS.menuCommand, command);
 }
 
 async function buildMenu(recent: ReturnType<typeof recentList>) {
   const paths = await recent.list();
   const template = menuTemplate(send, {
     isMac: process.platform === 'darwin',
-    recent: paths.map((p) => ({ name: p.split(/[\\/]/).pop() ?? p, open: () => win?.webContents.send('menu:open-recent', p) })),
+    recent: paths.map((p) => ({ name: p.split(/[\\/]/).pop() ?? p, open: () => win?.webContents.send(EVENTS.menuOpenRecent, p) })),
   });
   Menu.setApplicationMenu(Menu.buildFromTemplate(template));
 }

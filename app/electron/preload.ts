@@ -4,43 +4,44 @@
  */
 import { contextBridge, ipcRenderer, webUtils } from 'electron';
 import type { ChosenFile, MenuCommand, SweepbookHost } from '../../core/index.ts';
+import { EVENTS, INVOKE } from './ipcChannels.ts';
 
 const host: SweepbookHost & { adoptDroppedFile(file: File): Promise<ChosenFile>; onOpenRecent(listener: (id: string) => void): () => void } = {
   kind: 'electron',
-  chooseRunFiles: () => ipcRenderer.invoke('runs:choose'),
+  chooseRunFiles: () => ipcRenderer.invoke(INVOKE.chooseRunFiles),
   readChunks: async (id, onChunk, chunkBytes) => {
-    const stream: string = await ipcRenderer.invoke('file:open-stream', id, chunkBytes);
+    const stream: string = await ipcRenderer.invoke(INVOKE.openStream, id, chunkBytes);
     for (;;) {
-      const chunk: string | null = await ipcRenderer.invoke('file:next-chunk', stream);
+      const chunk: string | null = await ipcRenderer.invoke(INVOKE.nextChunk, stream);
       if (chunk === null) return;
       // a renderer that returns a promise gets back-pressure: the next chunk waits for it
       await (onChunk(chunk) as unknown);
     }
   },
-  sha256: (id) => ipcRenderer.invoke('file:sha256', id),
-  openSampleCampaign: () => ipcRenderer.invoke('campaign:sample'),
-  openCampaign: () => ipcRenderer.invoke('campaign:open'),
-  saveCampaign: (text, options) => ipcRenderer.invoke('campaign:save', text, options),
-  saveExport: (name, data, mime) => ipcRenderer.invoke('export:save', name, data, mime),
-  recentCampaigns: () => ipcRenderer.invoke('recent:list'),
+  sha256: (id) => ipcRenderer.invoke(INVOKE.sha256, id),
+  openSampleCampaign: () => ipcRenderer.invoke(INVOKE.openSampleCampaign),
+  openCampaign: () => ipcRenderer.invoke(INVOKE.openCampaign),
+  saveCampaign: (text, options) => ipcRenderer.invoke(INVOKE.saveCampaign, text, options),
+  saveExport: (name, data, mime) => ipcRenderer.invoke(INVOKE.saveExport, name, data, mime),
+  recentCampaigns: () => ipcRenderer.invoke(INVOKE.recentCampaigns),
   onMenuCommand: (listener) => {
     const fn = (_e: unknown, command: MenuCommand) => listener(command);
-    ipcRenderer.on('menu:command', fn);
-    return () => ipcRenderer.removeListener('menu:command', fn);
+    ipcRenderer.on(EVENTS.menuCommand, fn);
+    return () => ipcRenderer.removeListener(EVENTS.menuCommand, fn);
   },
-  setDirty: (dirty) => void ipcRenderer.invoke('app:set-dirty', dirty),
-  print: () => ipcRenderer.invoke('app:print'),
-  adoptDroppedFile: (file) => ipcRenderer.invoke('file:adopt-dropped', webUtils.getPathForFile(file)),
-  openRecentCampaign: (id) => ipcRenderer.invoke('campaign:open-recent', id),
+  setDirty: (dirty) => void ipcRenderer.invoke(INVOKE.setDirty, dirty),
+  print: () => ipcRenderer.invoke(INVOKE.print),
+  adoptDroppedFile: (file) => ipcRenderer.invoke(INVOKE.adoptDroppedFile, webUtils.getPathForFile(file)),
+  openRecentCampaign: (id) => ipcRenderer.invoke(INVOKE.openRecentCampaign, id),
   // File → Open Recent in the native menu: the id is the recent list's own, checked again by campaign:open-recent
   onOpenRecent: (listener) => {
     const fn = (_e: unknown, id: unknown) => {
       if (typeof id === 'string') listener(id);
     };
-    ipcRenderer.on('menu:open-recent', fn);
-    return () => ipcRenderer.removeListener('menu:open-recent', fn);
+    ipcRenderer.on(EVENTS.menuOpenRecent, fn);
+    return () => ipcRenderer.removeListener(EVENTS.menuOpenRecent, fn);
   },
-  openCampaignBackup: (id) => ipcRenderer.invoke('campaign:open-backup', id),
+  openCampaignBackup: (id) => ipcRenderer.invoke(INVOKE.openCampaignBackup, id),
 };
 
 contextBridge.exposeInMainWorld('sweepbook', host);

@@ -166,3 +166,123 @@ export function regressLine(x: ArrayLike<number>, y: ArrayLike<number>, w?: Arra
   const covariance = (-scale * mx) / sxx;
   return { slope, intercept, varSlope, varIntercept, covariance, chi2, n };
 }
+
+/**
+ * Straight line y = a + b·x with errors in both variables by the effective-variance method
+ * (Orear, Am. J. Phys. 50 (1982) 912; ISO/TS 28037:2010 §7 for the same model): each point is
+ * weighted by 1/(u_y² + b²·u_x²), the slope iterated to a fixed point from the unweighted fit.
+ * Without stated uncertainties (uy undefined) it is the ordinary fit with the residual variance
+ * (Draper & Smith ch. 1), which already holds the scatter of both variables. With stated random
+ * uncertainties the covariance is scaled by the Birge ratio max(1, χ²/(n − 2)) as in regressLine.
+ * `sigmaFloor` (unweighted fits only): an independent estimate of the points' scatter (e.g. the robust
+ * estimate from the whole branch); the residual variance is not taken below its square, because a range
+ * chosen for its small residuals understates the scatter it was chosen from.
+ */
+export function regressLineEV(
+  x: ArrayLike<number>,
+  y: ArrayLike<number>,
+  uy?: ArrayLike<number>,
+  ux?: ArrayLike<number>,
+  sigmaFloor = 0,
+): LineRegression | undefined {
+  const ols = regressLine(x, y);
+  if (ols && !uy && ols.n > 2) {
+    const s2 = ols.chi2 / (ols.n - 2);
+    const f = s2 > 0 ? Math.max(1, (sigmaFloor * sigmaFloor) / s2) : 1;
+    if (f > 1) return { ...ols, varSlope: ols.varSlope * f, varIntercept: ols.varIntercept * f, covariance: ols.covariance * f };
+  }
+  if (!ols || !uy) return ols;
+  let fit = ols;
+  const n = x.length;
+  for (let it = 0; it < 6; it++) {
+    const w = new Array<number>(n);
+    for (let i = 0; i < n; i++) {
+      const v = uy[i]! ** 2 + (ux ? fit.slope ** 2 * ux[i]! ** 2 : 0);
+      if (!(v > 0)) return ols;
+      w[i] = 1 / v;
+    }
+    const next = regressLine(x, y, w);
+    if (!next) return fit;
+    const done = Math.abs(next.slope - fit.slope) <= 1e-12 * Math.max(1, Math.abs(next.slope));
+    fit = next;
+    if (done) break;
+  }
+  return fit;
+}
+
+export interface QuadraticRegression {
+  /** Coefficients c0 + c1·x + c2·x². */
+  c: [number, number, number];
+  /** 3 × 3 covariance of the coefficients. */
+  cov: number[][];
+  n: number;
+}
+
+/**
+ * Weighted least-squares parabola with the covariance of its coefficients: (XᵀWX)⁻¹ scaled by the
+ * residual variance (unit weights) or by the Birge ratio max(1, χ²/(n − 3)) (weights 1/u²).
+ * Draper & Smith ch. 5 and 9. x is centred internally for conditioning and mapped back exactly.
+ */
+export function regressQuadratic(x: ArrayLike<number>, y: ArrayLike<number>, w?: ArrayLike<number>): QuadraticRegression | undefined {
+  const n = x.length;
+  if (n < 4) return undefined;
+  let sw = 0;
+  let m = 0;
+  for (let i = 0; i < n; i++) {
+    sw += w ? w[i]! : 1;
+    m += (w ? w[i]! : 1) * x[i]!;
+  }
+  m /= sw;
+  // normal equations in t = x − m
+  const A = [
+    [0, 0, 0],
+    [0, 0, 0],
+    [0, 0, 0],
+  ];
+  const B = [0, 0, 0];
+  for (let i = 0; i < n; i++) {
+    const wi = w ? w[i]! : 1;
+    const t = x[i]! - m;
+    const p = [1, t, t * t];
+    for (let r = 0; r < 3; r++) {
+      for (let c = 0; c < 3; c++) A[r]![c]! += wi * p[r]! * p[c]!;
+      B[r]! += wi * p[r]! * y[i]!;
+    }
+  }
+  const inv = invert3(A);
+  if (!inv) return undefined;
+  const d = [0, 1, 2].map((r) => inv[r]![0]! * B[0]! + inv[r]![1]! * B[1]! + inv[r]![2]! * B[2]!);
+  let chi2 = 0;
+  for (let i = 0; i < n; i++) {
+    const t = x[i]! - m;
+    chi2 += (w ? w[i]! : 1) * (y[i]! - d[0]! - d[1]! * t - d[2]! * t * t) ** 2;
+  }
+  const dof = n - 3;
+  const scale = w ? Math.max(1, chi2 / dof) : chi2 / dof;
+  // back to powers of x: c0 = d0 − d1·m + d2·m², c1 = d1 − 2·d2·m, c2 = d2 (a linear map J)
+  const J = [
+    [1, -m, m * m],
+    [0, 1, -2 * m],
+    [0, 0, 1],
+  ];
+  const c = [0, 1, 2].map((r) => J[r]![0]! * d[0]! + J[r]![1]! * d[1]! + J[r]![2]! * d[2]!) as [number, number, number];
+  const cov = [0, 1, 2].map((r) => [0, 1, 2].map((s) => {
+    let v = 0;
+    for (let a = 0; a < 3; a++) for (let b = 0; b < 3; b++) v += J[r]![a]! * inv[a]![b]! * J[s]![b]!;
+    return v * scale;
+  }));
+  return { c, cov, n };
+}
+
+function invert3(A: number[][]): number[][] | undefined {
+  const [a, b, c] = A[0]!;
+  const [d, e, f] = A[1]!;
+  const [g, h, k] = A[2]!;
+  const det = a! * (e! * k! - f! * h!) - b! * (d! * k! - f! * g!) + c! * (d! * h! - e! * g!);
+  if (!(Math.abs(det) > 0) || !Number.isFinite(det)) return undefined;
+  return [
+    [(e! * k! - f! * h!) / det, (c! * h! - b! * k!) / det, (b! * f! - c! * e!) / det],
+    [(f! * g! - d! * k!) / det, (a! * k! - c! * g!) / det, (c! * d! - a! * f!) / det],
+    [(d! * h! - e! * g!) / det, (b! * g! - a! * h!) / det, (a! * e! - b! * d!) / det],
+  ];
+}

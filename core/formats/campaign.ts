@@ -5,7 +5,7 @@
  */
 import { z } from 'zod';
 import { InputError } from '../contract/messages.ts';
-import { setupSchema } from '../setup/schema.ts';
+import { setupSchema, type SetupInput } from '../setup/schema.ts';
 
 export const CAMPAIGN_FORMAT = 'sweepbook-campaign';
 export const CAMPAIGN_VERSION = 1;
@@ -45,7 +45,8 @@ export const campaignSchema = z.strictObject({
   baseline: z.string().nullable().optional(),
 });
 
-export type Campaign = z.infer<typeof campaignSchema>;
+/** A campaign. Its setups stay as written: the schema's defaults fill in when a run is reduced, never into the saved file. */
+export type Campaign = Omit<z.infer<typeof campaignSchema>, 'setups'> & { setups: Record<string, SetupInput> };
 export type CampaignRun = Campaign['runs'][number];
 
 export function emptyCampaign(name = 'Untitled campaign'): Campaign {
@@ -69,7 +70,7 @@ export function parseCampaign(file: string, text: string): Campaign {
   r.data.runs.forEach((run, i) => {
     if (!keys.has(run.setup)) throw new InputError({ file, field: `runs.${i}.setup`, message: `no setup named "${run.setup}" in setups` });
   });
-  return r.data;
+  return { ...r.data, setups: (json as { setups: Record<string, SetupInput> }).setups };
 }
 
 /** Campaign text as saved: stable key order, two-space indent, final newline. */

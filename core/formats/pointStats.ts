@@ -25,30 +25,63 @@ interface Running {
   m2: Float64Array;
 }
 
+/** Grouping tolerance on α within one point, rad: 0.2° (real encoders jitter by about 0.1° within a point). */
+export const POINT_ALPHA_TOL_RAD = (0.2 * Math.PI) / 180;
+
+/** A point whose samples lay at two angles and were split (a point id restarted for a return sweep). */
+export interface PointSplit {
+  key: string;
+  /** First line of the earlier point, and of the new one. */
+  firstLine: number;
+  line: number;
+  /** The two angles, rad. */
+  alphaBefore: number;
+  alphaAfter: number;
+}
+
 export class PointAccumulator {
   private readonly width: number;
   private readonly byKey = new Map<string, Running>();
   private readonly order: Running[] = [];
   private last: Running | undefined;
+  /** Slot of α among the channels (−1: no α, no split by angle). */
+  private readonly alphaSlot: number;
+  private readonly alphaTol: number;
+  /** Points split because their samples lay at two angles. */
+  readonly splits: PointSplit[] = [];
 
-  constructor(width: number) {
+  constructor(width: number, alphaSlot = -1, alphaTol = POINT_ALPHA_TOL_RAD) {
     this.width = width;
+    this.alphaSlot = alphaSlot;
+    this.alphaTol = alphaTol;
   }
 
   get size(): number {
     return this.order.length;
   }
 
-  /** Fold one sample (values in channel order) into the point named `key`. */
+  /**
+   * Fold one sample (values in channel order) into the point named `key`. With an α channel, a key that
+   * comes back after other points starts a new point of the same name (a return sweep, a repeat point),
+   * and so does a sample whose α lies more than the tolerance from its point's mean α (a constant point
+   * column through a sweep); a change of angle is recorded in `splits`. Samples of two angles, or of two
+   * visits, are never averaged.
+   */
   add(key: string, line: number, values: ArrayLike<number>): void {
     let p = this.last;
+    const a = this.alphaSlot;
     if (p === undefined || p.key !== key) {
-      p = this.byKey.get(key);
-      if (p === undefined) {
-        p = { key, line, n: 0, mean: new Float64Array(this.width), m2: new Float64Array(this.width) };
-        this.byKey.set(key, p);
-        this.order.push(p);
-      }
+      const earlier = this.byKey.get(key);
+      if (earlier !== undefined && a >= 0) {
+        // the id comes back after other points: a new test point (a return sweep or a repeat point),
+        // never averaged with the earlier one; named when it lies at another angle
+        if (Math.abs(values[a]! - earlier.mean[a]!) > this.alphaTol) this.splits.push({ key, firstLine: earlier.line, line, alphaBefore: earlier.mean[a]!, alphaAfter: values[a]! });
+        p = this.open(key, line);
+      } else p = earlier ?? this.open(key, line);
+      this.last = p;
+    } else if (a >= 0 && p.n > 0 && Math.abs(values[a]! - p.mean[a]!) > this.alphaTol) {
+      this.splits.push({ key, firstLine: p.line, line, alphaBefore: p.mean[a]!, alphaAfter: values[a]! });
+      p = this.open(key, line);
       this.last = p;
     }
     const n = ++p.n;
@@ -60,6 +93,13 @@ export class PointAccumulator {
       mean[i] = mean[i]! + d / n;
       m2[i] = m2[i]! + d * (x - mean[i]!);
     }
+  }
+
+  private open(key: string, line: number): Running {
+    const p: Running = { key, line, n: 0, mean: new Float64Array(this.width), m2: new Float64Array(this.width) };
+    this.byKey.set(key, p);
+    this.order.push(p);
+    return p;
   }
 
   /** Points in order of first appearance. */

@@ -8,7 +8,7 @@ import type { ReductionResult } from '../reduction/pipeline.ts';
 import type { Setup } from '../setup/schema.ts';
 
 export interface InputFile {
-  role: 'run' | 'setup' | 'tare';
+  role: 'run' | 'setup' | 'tare' | 'columns';
   name: string;
   sha256: string;
 }

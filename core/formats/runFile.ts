@@ -1,5 +1,11 @@
 /**
- * Streaming reader for run files (data contract v1, DESIGN §3.1).
+ * Streaming reader for run files (docs/data-format.md): CSV (comma, semicolon with decimal comma,
+ * tab) and whitespace-aligned text; units in brackets, parentheses or a units row; columns assigned
+ * by name or by a column map; samples grouped by the point column or, without one, by set angle
+ * and wind state.
+ *
+ * Order of work: preamble (metadata) → header → units row or first data row → `bind` (each column's
+ * channel and conversion) → data rows, each ending in `fold`.
  *
  * Text arrives in chunks of any size (`push`), complete lines are read block by block, and each row
  * is folded straight into its point's running statistics, so memory grows with the number of points,
@@ -12,10 +18,10 @@
  * (test/unit/streaming.test.ts), and `npm run bench` shows what the second one is worth.
  */
 import Papa from 'papaparse';
-import { CHANNELS, POINT_COLUMN, defaultConversion, isChannel, type Channel } from './channels.ts';
+import { CHANNELS, POINT_COLUMN, PRESSURE_SOURCES, defaultConversion, isChannel, type Channel } from './channels.ts';
 import { InputError, type Notice } from '../contract/messages.ts';
 import { PointAccumulator, type PointStats } from './pointStats.ts';
-import { lookupUnit, unitsOf, type UnitConversion } from '../physics/units.ts';
+import { lookupUnit, unitsOf, STANDARD_GRAVITY, type UnitConversion } from '../physics/units.ts';
 
 export interface ColumnInfo {
   /** Name as written in the header (without the unit). */
@@ -26,8 +32,26 @@ export interface ColumnInfo {
   unit: string;
 }
 
+/** One cell of the header as the file wrote it, whether or not it was used. */
+export interface HeaderCell {
+  /** The cell as written, surrounding spaces trimmed: the key of a column map. */
+  text: string;
+  /** Name without the unit. */
+  name: string;
+  /** Unit from brackets, parentheses or the units row; undefined when none is written. */
+  unit: string | undefined;
+  /** 1-based column. */
+  column: number;
+}
+
 export interface RunData {
   file: string;
+  /** Every header cell, used or not (for messages that list the file's columns, and the column map). */
+  headerCells: HeaderCell[];
+  /** Physical line of the units row below the header, when the file has one. */
+  unitsLine: number | undefined;
+  /** True when samples without a point column were grouped by set angle (see `alphaTolRad`). */
+  grouped: boolean;
   metadata: Record<string, string>;
   columns: ColumnInfo[];
   channels: Channel[];
@@ -59,6 +83,18 @@ export const DEFAULT_LIMITS: ReaderLimits = {
 };
 
 const DELIMITERS = [',', ';', '\t'] as const;
+/** The delimiter value of a whitespace-aligned file (columns separated by runs of spaces and/or tabs). */
+export const WHITESPACE = ' ';
+
+/** What one header cell is assigned to by a column map (see core/formats/columnMap.ts). */
+export interface CellAssignment {
+  channel: Channel | typeof POINT_COLUMN;
+  /** Overrides the unit of the header or units row. */
+  unit?: string;
+  /** value = raw·scale + offset, in the column's unit, before conversion to SI. */
+  scale?: number;
+  offset?: number;
+}
 
 /** A column assignment given by the user for a file whose header does not follow the contract. */
 export interface ColumnMapping {
@@ -66,7 +102,32 @@ export interface ColumnMapping {
   names?: Record<string, string>;
   /** Contract channel → unit to use instead of the header's. */
   units?: Record<string, string>;
+  /**
+   * Header cell exactly as written (trimmed) → assignment, or null to ignore the column. Built from a
+   * column-map document by `readerMapping`; a key the file lacks is refused naming `source`.
+   */
+  cells?: Record<string, CellAssignment | null>;
+  /** Name of the map file, for messages about its keys. */
+  source?: string;
+  /** Entries naming columns the file lacks are passed over instead of refused (a tare read with its run's map). */
+  partial?: boolean;
 }
+
+/** How samples are grouped into points when the file has no `point` column. */
+export interface GroupingOptions {
+  /** Rows whose alpha stays within this of the group's first row form one point, rad. */
+  alphaTolRad: number;
+}
+
+/** The grouping tolerance without a setup: 0.2° (an encoder jitters by about 0.1° within a point). */
+export const DEFAULT_ALPHA_TOL_DEG = 0.2;
+
+/**
+ * Two readings of the dynamic-pressure source are in different wind states (one wind-off, one
+ * wind-on) when the smaller magnitude is below this fraction of the larger: the same 5 % that marks
+ * a wind-off point against the run's median q.
+ */
+export const WIND_OFF_FRACTION = 0.05;
 
 interface BoundColumn {
   index: number; // 0-based
@@ -75,13 +136,22 @@ interface BoundColumn {
   channel: Channel;
 }
 
-type Phase = 'preamble' | 'data';
+type Phase = 'preamble' | 'unitsRow' | 'data';
 
 export class RunFileReader {
   readonly file: string;
   private readonly limits: ReaderLimits;
   private readonly mapping: ColumnMapping;
+  private readonly alphaTol: number;
   private phase: Phase = 'preamble';
+  private headerCells: HeaderCell[] = [];
+  private unitsLine: number | undefined;
+  // grouping without a point column: slots of alpha and of the pressure source, and the open group
+  private alphaSlot = -1;
+  private pressureSlot = -1;
+  private groupAlpha = Number.NaN;
+  private groupPressure = Number.NaN;
+  private groupKey = '';
   private carry = '';
   private line = 0; // physical lines consumed so far
   private started = false;
@@ -112,10 +182,11 @@ export class RunFileReader {
   private probe = '';
   private probed = false;
 
-  constructor(file: string, options: { limits?: Partial<ReaderLimits>; mapping?: ColumnMapping } = {}) {
+  constructor(file: string, options: { limits?: Partial<ReaderLimits>; mapping?: ColumnMapping; grouping?: GroupingOptions } = {}) {
     this.file = file;
     this.limits = { ...DEFAULT_LIMITS, ...options.limits };
     this.mapping = options.mapping ?? {};
+    this.alphaTol = options.grouping?.alphaTolRad ?? (DEFAULT_ALPHA_TOL_DEG * Math.PI) / 180;
   }
 
   /** Feed the next piece of the file's text. */
@@ -199,8 +270,20 @@ export class RunFileReader {
     }
     if (this.pending) this.unclosedQuote();
     if (this.phase === 'preamble') this.fail({ line: Math.max(1, this.line), message: 'no header line found (the file is empty or holds only comments)' });
+    if (this.phase === 'unitsRow') this.bind(undefined);
     const acc = this.accumulator();
     const points = acc.result();
+    // fits: name every point split by angle (at most a few, then a count)
+    for (const sp of acc.splits.slice(0, this.limits.maxRowWarnings)) {
+      this.warnings.push({
+        file: this.file,
+        line: sp.line,
+        message: `samples of point "${sp.key}" lie at α = ${((sp.alphaBefore * 180) / Math.PI).toFixed(2)}° (from line ${sp.firstLine}) and ${((sp.alphaAfter * 180) / Math.PI).toFixed(2)}° (from this line), more than 0.2° apart (a point id restarted for a return sweep?): they are kept as two points, not averaged`,
+      });
+    }
+    if (acc.splits.length > this.limits.maxRowWarnings) {
+      this.warnings.push({ file: this.file, message: `${acc.splits.length - this.limits.maxRowWarnings} more points split by angle (only the first ${this.limits.maxRowWarnings} are listed)` });
+    }
     if (this.skipped > this.limits.maxRowWarnings) {
       this.warnings.push({
         file: this.file,
@@ -210,6 +293,9 @@ export class RunFileReader {
     if (points.length === 0) this.fail({ line: this.headerLine, message: 'no data rows could be read after the header' });
     return {
       file: this.file,
+      headerCells: this.headerCells,
+      unitsLine: this.unitsLine,
+      grouped: this.pointIndex < 0 && this.alphaSlot >= 0,
       metadata: this.metadata,
       columns: this.columns,
       channels: this.channels,
@@ -255,15 +341,20 @@ export class RunFileReader {
    */
   private consume(text: string, from: number, to: number, direct: boolean): void {
     let pos = from;
-    while (this.phase === 'preamble' && pos < to) {
+    while (this.phase !== 'data' && pos < to) {
       let end = pos;
       for (let c = text.charCodeAt(end); c !== 10 && c !== 13; c = text.charCodeAt(++end));
       const raw = text.slice(pos, end);
       pos = end + (text.charCodeAt(end) === 13 && text.charCodeAt(end + 1) === 10 ? 2 : 1);
       this.line++;
-      this.preambleLine(raw);
+      if (this.phase === 'preamble') this.preambleLine(raw);
+      else this.unitsRowOrData(raw);
     }
     if (this.phase !== 'data' || pos >= to) return;
+    if (this.delimiter === WHITESPACE) {
+      this.splitLines(text, pos, to);
+      return;
+    }
     const quote = text.indexOf('"', pos);
     if (this.pending !== undefined || (quote >= 0 && quote < to)) this.quotedBlock(text.slice(pos, to));
     else if (direct) this.plainBlock(text, pos, to);
@@ -275,43 +366,111 @@ export class RunFileReader {
     if (trimmed === '') return;
     if (trimmed.startsWith('#')) {
       const m = /^#\s*([^:]+?)\s*:\s*(.*)$/.exec(trimmed);
-      if (m) this.metadata[m[1]!.toLowerCase()] = m[2]!.trim();
+      // the first value of a key is kept: an exported table's `# run: NAME` precedes its provenance lines
+      if (m && !Object.prototype.hasOwnProperty.call(this.metadata, m[1]!.toLowerCase())) this.metadata[m[1]!.toLowerCase()] = m[2]!.trim();
       return;
     }
     this.header(raw);
   }
 
+  /** The header line: its cells are kept until the next line shows whether it is a units row. */
   private header(raw: string): void {
     this.headerLine = this.line;
     this.delimiter = detectDelimiter(raw);
     this.decimalComma = this.delimiter === ';';
-    const parsed = Papa.parse<string[]>(raw, { delimiter: this.delimiter, newline: '\n' });
-    const cells = (parsed.data[0] ?? []).map((c) => c.trim());
+    const cells = splitHeaderLine(raw, this.delimiter);
     if (cells.length > this.limits.maxColumns) {
       this.fail({ line: this.line, message: `${cells.length} columns; more than ${this.limits.maxColumns} is not a run file` });
     }
     this.headerWidth = cells.length;
+    this.headerCells = cells.map((text, i) => ({ text, ...splitHeaderCell(text), column: i + 1 }));
+    this.phase = 'unitsRow';
+  }
+
+  /**
+   * The line directly below the header: a units row (every cell a unit, "/", "-" or empty, and no
+   * number) gives the units of its columns; any other line is the first data row.
+   */
+  private unitsRowOrData(raw: string): void {
+    if (raw.trim() === '') {
+      this.bind(undefined);
+      return;
+    }
+    const cells = this.delimiter === WHITESPACE ? joinUnitWords(splitWhitespace(raw), this.headerWidth) : raw.indexOf('"') >= 0 ? Papa.parse<string[]>(raw, { delimiter: this.delimiter, newline: '\n' }).data[0] ?? [] : raw.split(this.delimiter);
+    const units = unitsRow(cells.map((c) => c.trim()), this.decimalComma);
+    if (units === undefined) {
+      this.bind(undefined);
+      if (this.delimiter !== WHITESPACE && raw.indexOf('"') >= 0) {
+        // the first data row, read as any quoted line (it may open a record spanning lines)
+        this.line--;
+        this.quotedLine(raw);
+      } else {
+        this.takeRow(this.delimiter === WHITESPACE ? splitWhitespace(raw) : raw.split(this.delimiter), this.line);
+      }
+      return;
+    }
+    this.unitsLine = this.line;
+    // a whitespace-aligned units row cannot leave a column empty: it must name every column
+    if (this.delimiter === WHITESPACE && units.length !== this.headerWidth) {
+      this.fail({ line: this.line, message: `the units row has ${units.length} cells and the header ${this.headerWidth}; in a space-aligned file every column needs a unit ("-" for none)` });
+    }
+    units.forEach((u, i) => {
+      const cell = this.headerCells[i];
+      if (cell === undefined) {
+        if (u !== '') this.fail({ line: this.line, column: i + 1, message: `units row cell "${clip(u)}" has no header column above it` });
+        return;
+      }
+      if (u === '') return;
+      if (cell.unit !== undefined && cell.unit !== u) {
+        this.fail({ line: this.line, column: i + 1, message: `column "${cell.text}" has unit "${cell.unit}" in the header and "${u}" in the units row; keep one` });
+      }
+      cell.unit = u;
+    });
+    this.bind(units);
+  }
+
+  /** Assign every header cell its channel and unit conversion; `units` holds the units row when there is one. */
+  private bind(units: string[] | undefined): void {
+    const headerLine = this.headerLine;
+    const unitPlace = (column: number, fromMap: boolean): Omit<Notice, 'file' | 'message'> =>
+      fromMap ? { field: `columns["${this.headerCells[column - 1]!.text}"].unit` } : { line: units && units[column - 1] ? this.unitsLine! : headerLine, column };
     const seen = new Map<string, number>();
     const bound: BoundColumn[] = [];
-    cells.forEach((cell, i) => {
-      const column = i + 1;
-      const { name, unit } = splitHeaderCell(cell);
-      const mapped = this.mapping.names?.[name.toLowerCase()];
+    const cellMap = this.mapping.cells;
+    if (cellMap && !this.mapping.partial) {
+      const texts = new Set(this.headerCells.map((c) => c.text));
+      for (const key of Object.keys(cellMap)) {
+        if (!texts.has(key.trim())) {
+          throw new InputError({
+            file: this.mapping.source ?? 'column map',
+            field: `columns["${key}"]`,
+            message: `names a column that ${this.file} does not have (its header, line ${headerLine}: ${this.headerCells.map((c) => `"${c.text}"`).join(', ')})`,
+          });
+        }
+      }
+    }
+    for (const cell of this.headerCells) {
+      const { name, column } = cell;
+      const i = column - 1;
+      const assigned = cellMap && Object.prototype.hasOwnProperty.call(cellMap, cell.text) ? cellMap[cell.text] : undefined;
+      if (assigned === null) continue; // ignored by the map
+      const mapped = assigned ? assigned.channel : this.mapping.names?.[name.toLowerCase()];
       const key = (mapped ?? name).toLowerCase();
-      if (key === 'ignore' || key === '') return;
-      if (key !== POINT_COLUMN && !isChannel(key)) return; // columns outside the contract are not used
+      if (key === 'ignore' || key === '') continue;
+      if (key !== POINT_COLUMN && !isChannel(key)) continue; // columns outside the contract are not used
       const earlier = seen.get(key);
       if (earlier !== undefined) {
-        this.fail({ line: this.line, column, message: `column "${key}" appears twice (columns ${earlier} and ${column})` });
+        this.fail({ line: headerLine, column, message: `column "${key}" appears twice (columns ${earlier} and ${column})` });
       }
       seen.set(key, column);
       if (key === POINT_COLUMN) {
         this.pointIndex = i;
         this.columns.push({ header: name, channel: POINT_COLUMN, column, unit: '' });
-        return;
+        continue;
       }
       const channel = key as Channel;
-      const unitText = this.mapping.units?.[channel] ?? unit;
+      const fromMap = assigned?.unit !== undefined;
+      const unitText = assigned?.unit ?? this.mapping.units?.[channel] ?? cell.unit;
       let conv: UnitConversion;
       if (unitText === undefined || unitText.trim() === '') {
         conv = defaultConversion(channel);
@@ -319,28 +478,66 @@ export class RunFileReader {
         const found = lookupUnit(unitText);
         const quantity = CHANNELS[channel].quantity;
         if (!found || found.quantity !== quantity) {
-          const why = found ? `which is a ${found.quantity} unit, not a ${quantity} unit` : 'which is not a known unit';
-          this.fail({
-            line: this.line,
-            column,
-            message: `column "${channel}" has unit "${unitText}", ${why}; expected one of ${unitsOf(quantity).join(', ')}`,
+          const why = found ? `which is a ${found.quantity === 'ratio' ? 'dimensionless' : found.quantity} unit, not a ${quantity} unit` : 'which is not a known unit';
+          const place = unitPlace(column, fromMap);
+          throw new InputError({
+            file: fromMap ? (this.mapping.source ?? 'column map') : this.file,
+            ...place,
+            message: `column "${cell.text}" (${channel}) has unit "${unitText}", ${why}; expected one of ${unitsOf(quantity).join(', ')}`,
           });
         }
         conv = found;
       }
+      if (conv.massAsForce) {
+        this.warnings.push({
+          file: this.file,
+          line: headerLine,
+          column,
+          message: `column "${cell.text}" (${channel}) is in ${conv.label}, a mass: read as a load cell's indication, force = mass × ${STANDARD_GRAVITY} m/s² (standard gravity)`,
+        });
+      }
+      // a map's scale and offset apply in the column's unit, before conversion: si = (raw·s + o)·k + c
+      const s = assigned?.scale ?? 1;
+      const o = assigned?.offset ?? 0;
+      if (s !== 1 || o !== 0) conv = { ...conv, scale: s * conv.scale, offset: o * conv.scale + conv.offset };
       this.columns.push({ header: name, channel, column, unit: conv.label });
       bound.push({ index: i, slot: bound.length, conv, channel });
-    });
+    }
     this.bound = bound;
     this.channels = bound.map((b) => b.channel);
     this.values = new Float64Array(bound.length);
-    this.fieldSlot = new Int32Array(cells.length).fill(UNUSED_FIELD);
+    this.fieldSlot = new Int32Array(this.headerWidth).fill(UNUSED_FIELD);
     if (this.pointIndex >= 0) this.fieldSlot[this.pointIndex] = POINT_FIELD;
     for (const b of bound) this.fieldSlot[b.index] = b.slot;
     this.scale = Float64Array.from(bound, (b) => b.conv.scale);
     this.offset = Float64Array.from(bound, (b) => b.conv.offset);
-    this.acc = new PointAccumulator(this.channels.length);
+    this.alphaSlot = this.channels.indexOf('alpha');
+    const source = PRESSURE_SOURCES.find((c) => this.channels.includes(c));
+    this.pressureSlot = source === undefined ? -1 : this.channels.indexOf(source);
+    // fits: with a point column, a point whose samples lie at two angles, or an id that comes back
+    // after other points, is split (see PointAccumulator.add)
+    this.acc = new PointAccumulator(this.channels.length, this.pointIndex >= 0 ? this.alphaSlot : -1);
     this.phase = 'data';
+  }
+
+  /**
+   * The point a sample belongs to in a file without a point column: consecutive rows whose alpha
+   * stays within the tolerance of the group's first row, in the same wind state, form one point
+   * (named by its first line). Wind-off rows of one point that flicker across the 5 % ratio are
+   * joined again once the run's median q is known (core/reduction/windOff.ts).
+   */
+  private groupOf(lineNo: number, values: Float64Array): string {
+    const slot = this.alphaSlot;
+    if (slot < 0) return String(lineNo);
+    const a = values[slot]!;
+    const p = this.pressureSlot >= 0 ? Math.abs(values[this.pressureSlot]!) : 0;
+    const g = this.groupPressure;
+    if (!(Math.abs(a - this.groupAlpha) <= this.alphaTol) || Math.min(p, g) < WIND_OFF_FRACTION * Math.max(p, g)) {
+      this.groupAlpha = a;
+      this.groupPressure = p;
+      this.groupKey = String(lineNo);
+    }
+    return this.groupKey;
   }
 
   private accumulator(): PointAccumulator {
@@ -423,9 +620,7 @@ export class RunFileReader {
     const offset = this.offset;
     const delim = this.delimiter.charCodeAt(0);
     const decimalComma = this.decimalComma;
-    const acc = this.accumulator();
     const hasPoint = this.pointIndex >= 0;
-    const maxPoints = this.limits.maxPoints;
     let pos = from;
     while (pos < to) {
       const lineStart = pos;
@@ -505,17 +700,13 @@ export class RunFileReader {
         continue;
       }
       let key: string;
-      if (!hasPoint) key = String(lineNo);
+      if (!hasPoint) key = this.groupOf(lineNo, values);
       else if (this.lastKeyRaw !== undefined && sameText(text, keyStart, keyEnd, this.lastKeyRaw)) key = this.lastKey;
       else {
         this.lastKeyRaw = text.slice(keyStart, keyEnd);
         key = this.lastKey = this.lastKeyRaw.trim();
       }
-      acc.add(key, lineNo, values);
-      if (acc.size > maxPoints) {
-        this.fail({ line: lineNo, message: `more than ${maxPoints} distinct points; is the "point" column a sample counter?` });
-      }
-      this.read++;
+      this.fold(key, lineNo, values);
     }
   }
 
@@ -526,7 +717,8 @@ export class RunFileReader {
       let end = pos;
       for (let c = text.charCodeAt(end); c !== 10 && c !== 13; c = text.charCodeAt(++end));
       const lineNo = ++this.line;
-      this.takeRow(text.slice(pos, end).split(this.delimiter), lineNo);
+      const line = text.slice(pos, end);
+      this.takeRow(this.delimiter === WHITESPACE ? splitWhitespace(line) : line.split(this.delimiter), lineNo);
       pos = end + (text.charCodeAt(end) === 13 && text.charCodeAt(end + 1) === 10 ? 2 : 1);
     }
   }
@@ -540,6 +732,14 @@ export class RunFileReader {
       this.skip(lineNo, undefined, `${row.length} of ${this.headerWidth} fields (a truncated or malformed row)`);
       return;
     }
+    // more filled cells than the header: never truncated, since the cells may have shifted (a decimal
+    // comma in a comma-separated file splits one number into two cells)
+    if (row.length > this.headerWidth && !extraCellsEmpty(row, this.headerWidth)) {
+      const firstExtra = row.findIndex((c, i) => i >= this.headerWidth && c.trim() !== '');
+      const hint = this.delimiter === ',' && row.some((c) => /^\s*-?\d+\s*$/.test(c)) ? ' (a decimal comma in a comma-separated file?)' : '';
+      this.skip(lineNo, firstExtra + 1, `${row.length} fields where the header has ${this.headerWidth}; column ${firstExtra + 1} has no header${hint}`);
+      return;
+    }
     const bound = this.bound;
     const values = this.values;
     for (let b = 0; b < bound.length; b++) {
@@ -547,17 +747,22 @@ export class RunFileReader {
       const cell = row[col.index]!;
       const v = parseCell(cell, this.decimalComma);
       if (!Number.isFinite(v)) {
-        this.skip(lineNo, col.index + 1, `"${clip(cell)}" in column "${col.channel}" is not a finite number`);
+        const why = NOT_DECIMAL.test(cell.trim()) ? 'is not a decimal number (hexadecimal, binary and octal forms are not read)' : 'is not a finite number';
+        this.skip(lineNo, col.index + 1, `"${clip(cell)}" in column "${col.channel}" ${why}`);
         return;
       }
       values[b] = v * col.conv.scale + col.conv.offset;
     }
-    if (row.length > this.headerWidth && !extraCellsEmpty(row, this.headerWidth)) {
-      this.skip(lineNo, this.headerWidth + 1, `${row.length} fields where the header has ${this.headerWidth}`);
-      return;
-    }
+    const key = this.pointIndex >= 0 ? row[this.pointIndex]!.trim() : this.groupOf(lineNo, values);
+    this.fold(key, lineNo, values);
+  }
+
+  /**
+   * Every accepted sample passes here, from both paths, with its values in SI in channel order
+   * (`this.channels`): the one place for anything done per sample before it is averaged into its point.
+   */
+  private fold(key: string, lineNo: number, values: Float64Array): void {
     const acc = this.accumulator();
-    const key = this.pointIndex >= 0 ? row[this.pointIndex]!.trim() : String(lineNo);
     acc.add(key, lineNo, values);
     if (acc.size > this.limits.maxPoints) {
       this.fail({ line: lineNo, message: `more than ${this.limits.maxPoints} distinct points; is the "point" column a sample counter?` });
@@ -611,17 +816,111 @@ export function parseCell(cell: string, decimalComma: boolean): number {
   if (cell.length === 0) return Number.NaN;
   const v = +cell;
   if (v === 0 && cell.trim() === '') return Number.NaN;
+  // JavaScript's Number() also reads 0x10, 0b1 and 0o7; a run file's numbers are decimal only
+  if (NOT_DECIMAL.test(cell)) return Number.NaN;
   return v;
 }
 
-/** "dp_pitot [inH2O]" → { name: "dp_pitot", unit: "inH2O" }. */
-export function splitHeaderCell(cell: string): { name: string; unit: string | undefined } {
-  const m = /^(.*?)\s*\[([^\]]*)\]\s*$/.exec(cell);
-  if (!m) return { name: cell.trim(), unit: undefined };
-  return { name: m[1]!.trim(), unit: m[2]!.trim() };
+/** A number written with a radix prefix (0x, 0b, 0o), which Number() would accept. */
+const NOT_DECIMAL = /^\s*[+-]?0[xbo]/i;
+
+/** Cells of a whitespace-aligned line: runs of spaces and tabs separate, leading and trailing ones do not count. */
+export function splitWhitespace(line: string): string[] {
+  const t = line.trim();
+  return t === '' ? [''] : t.split(/[ \t]+/);
 }
 
-/** The delimiter that splits the header into the most fields (comma when none does). */
+/**
+ * A whitespace-aligned units row splits units written with a space ("degr. C", "N m", "in lbf") into
+ * two cells: while there are more cells than header columns, the first neighbouring pair that makes a
+ * known unit together is joined.
+ */
+export function joinUnitWords(cells: string[], width: number): string[] {
+  const out = [...cells];
+  while (out.length > width) {
+    let joined = false;
+    for (let i = 0; i + 1 < out.length; i++) {
+      const both = `${out[i]} ${out[i + 1]}`;
+      if (lookupUnit(both) !== undefined) {
+        out.splice(i, 2, both);
+        joined = true;
+        break;
+      }
+    }
+    if (!joined) break;
+  }
+  return out;
+}
+
+/**
+ * Header cells of a line. In a whitespace-aligned header a unit written apart from its name
+ * (`alpha [deg]`, `AoA (deg)`) belongs to the name before it; names with inner spaces need a
+ * delimited file or a column map.
+ */
+export function splitHeaderLine(raw: string, delimiter: string): string[] {
+  if (delimiter !== WHITESPACE) return (Papa.parse<string[]>(raw, { delimiter, newline: '\n' }).data[0] ?? []).map((c) => c.trim());
+  // columns lined up with two or more spaces (or tabs) may hold single spaces in their names
+  const t = raw.trim();
+  if (/ {2,}|\t/.test(t)) {
+    const wide = t.split(/ {2,}|\t[ \t]*/).map((c) => c.trim());
+    // …unless a cell runs on past a unit ("dp [Pa] p [Pa]": two columns one space apart)
+    if (wide.every((c) => c !== '' && balanced(c) && !/[\])]\s+\S/.test(c))) return wide;
+  }
+  const out: string[] = [];
+  let open = false; // inside a bracket begun by an earlier token
+  for (const token of splitWhitespace(raw)) {
+    if (out.length > 0 && (open || /^[[(]/.test(token))) {
+      out[out.length - 1] += ` ${token}`;
+      open = !balanced(out[out.length - 1]!);
+    } else {
+      out.push(token);
+      open = !balanced(token);
+    }
+  }
+  return out;
+}
+
+/** True when every "[" and "(" of the text is closed. */
+function balanced(text: string): boolean {
+  let depth = 0;
+  for (const ch of text) {
+    if (ch === '[' || ch === '(') depth++;
+    else if ((ch === ']' || ch === ')') && depth > 0) depth--;
+  }
+  return depth === 0;
+}
+
+/**
+ * The cells of a units row (trimmed, brackets removed), or undefined when the line is not one: a
+ * units row holds no number, and its non-empty cells are units, "/" or "-". A line with no number
+ * whose cells are mostly units but one is not is refused by the caller naming that cell.
+ */
+export function unitsRow(cells: string[], decimalComma: boolean): string[] | undefined {
+  const units = cells.map((c) => c.trim().replace(/^[[(](.*)[\])]$/, '$1').trim());
+  let known = 0;
+  let filled = 0;
+  for (const u of units) {
+    if (u === '') continue;
+    filled++;
+    if (Number.isFinite(parseCell(u, decimalComma))) return undefined;
+    if (lookupUnit(u) !== undefined) known++;
+  }
+  if (filled === 0 || known * 2 < filled) return undefined;
+  return units;
+}
+
+/** "dp_pitot [inH2O]" or "AoA (deg)" → { name, unit }; a cell without a trailing bracket has no unit. */
+export function splitHeaderCell(cell: string): { name: string; unit: string | undefined } {
+  const m = /^(.*?)\s*(?:\[([^\]]*)\]|\(([^)]*)\))\s*$/.exec(cell);
+  if (!m || m[1]!.trim() === '') return { name: cell.trim(), unit: undefined };
+  return { name: m[1]!.trim(), unit: (m[2] ?? m[3]!).trim() };
+}
+
+/**
+ * The delimiter that splits the header into the most fields (comma, semicolon or tab), or WHITESPACE
+ * for a header of names separated only by spaces, or by tabs that line columns up (runs of tabs, or
+ * tabs mixed with runs of spaces). Comma when nothing splits it.
+ */
 export function detectDelimiter(headerLine: string): string {
   let best = ',';
   let bestCount = 0;
@@ -632,6 +931,9 @@ export function detectDelimiter(headerLine: string): string {
       bestCount = n;
     }
   }
+  const line = headerLine.trim();
+  if (best === '\t' && (/\t\t/.test(line) || / {2}/.test(line))) return WHITESPACE;
+  if (bestCount === 0 && /\S\s+\S/.test(line)) return WHITESPACE;
   return best;
 }
 
@@ -683,7 +985,7 @@ function clip(cell: string): string {
 }
 
 /** Read a whole run file held in memory (tests, the browser host's small files). */
-export function readRunText(file: string, text: string, options?: { mapping?: ColumnMapping; limits?: Partial<ReaderLimits> }): RunData {
+export function readRunText(file: string, text: string, options?: { mapping?: ColumnMapping; limits?: Partial<ReaderLimits>; grouping?: GroupingOptions }): RunData {
   const reader = new RunFileReader(file, options);
   reader.push(text);
   return reader.finish();

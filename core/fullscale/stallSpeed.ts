@@ -4,7 +4,7 @@
  * altitude (ISO 2533:1975), temperature and humidity (CIPM-2007). An engineering estimate only:
  * see the cautions it carries.
  */
-import { densityAltitude, G0, isaAtmosphere, ISA_SEA_LEVEL, moistAirDensity } from '../physics/air.ts';
+import { G0, isaAtmosphere, ISA_SEA_LEVEL, moistAirDensity } from '../physics/air.ts';
 import { InputError } from '../contract/messages.ts';
 
 /** 1 knot = 1852 m / 3600 s exactly (NIST SP 811 B.8). */
@@ -26,6 +26,10 @@ export interface ProjectionInput {
   liftOffFactor?: number;
   /** Reynolds number of the model test at CLmax, for the scale-effect caution. */
   modelReynolds?: number | null;
+  /** Standard uncertainty of CLmax (k = 1), when the run's fit gives one. */
+  clMaxU?: number | null;
+  /** Where CLmax came from: a model test in the tunnel (adds the trim caution) or given by the user. */
+  clMaxFrom?: 'model test' | 'given';
 }
 
 export interface Projection {
@@ -44,11 +48,23 @@ export interface Projection {
   v_stall_mps: number;
   v_stall_kt: number;
   v_stall_eas_mps: number;
+  /** Standard uncertainty of V_s from u(CLmax) alone (V_s ∝ CLmax^−½); null without u(CLmax). */
+  v_stall_u_mps: number | null;
+  v_stall_u_kt: number | null;
+  /** True when no humidity was given and dry air was assumed. */
+  dry_air_assumed: boolean;
+  /** V_s in saturated air (100 % RH) at the same pressure and temperature, given beside the dry-air value when humidity was not given. */
+  v_stall_saturated_mps: number | null;
+  v_stall_saturated_kt: number | null;
   lift_off_factor: number;
   v_lift_off_mps: number;
   v_lift_off_kt: number;
   cautions: string[];
 }
+
+/** Caution for a CLmax measured on a wind-tunnel model (common practice: trim and tail effects). */
+export const TRIM_CAUTION =
+  'A model tested tail-off or untrimmed overstates the aircraft\'s CLmax: in flight the tail carries a trim load (usually downward), so the trimmed CLmax and the stall speed it gives are less favourable than the model value suggests.';
 
 export const CAUTIONS = [
   'This is an engineering estimate from wind-tunnel model tests, not certified data.',
@@ -69,6 +85,7 @@ export function projectStallSpeed(input: ProjectionInput): Projection {
   const clMax = requirePositive(input.clMax, 'cl-max', 'maximum lift coefficient');
   const H = input.pressureAltitudeM ?? 0;
   if (!Number.isFinite(H) || H < -1000 || H > 20000) throw new InputError({ field: 'pressure-altitude-m', message: 'expected −1000 to 20 000 m (the standard atmosphere used here ends at 20 km)' });
+  const dryAssumed = input.rhPct === undefined;
   const rhPct = input.rhPct ?? 0;
   if (!Number.isFinite(rhPct) || rhPct < 0 || rhPct > 100) throw new InputError({ field: 'rh-pct', message: 'expected 0 to 100 %' });
   const factor = input.liftOffFactor ?? DEFAULT_LIFT_OFF_FACTOR;
@@ -84,6 +101,18 @@ export function projectStallSpeed(input: ProjectionInput): Projection {
   if (input.modelReynolds) {
     cautions[1] = `${CAUTIONS[1]} The model was tested at a Reynolds number of about ${Number(input.modelReynolds.toPrecision(2)).toExponential(1).replace('e+', ' × 10^')}.`;
   }
+  if (input.clMaxFrom !== 'given') cautions.push(TRIM_CAUTION);
+  let vsSat: number | null = null;
+  if (dryAssumed) {
+    // humid air is less dense than dry air at the same p and T, so dry air gives the lower, non-conservative V_s
+    vsSat = Math.sqrt((2 * W) / (moistAirDensity(std.p, tempC + 273.15, 1) * area * clMax));
+    cautions.push(
+      `No humidity was given, so dry air was assumed. Humid air is less dense, and the stall speed in saturated air (100 % RH) at the same pressure and temperature is ${vsSat.toFixed(2)} m/s (${(vsSat / KNOT_MPS).toFixed(1)} kt) against ${vs.toFixed(2)} m/s dry: give --rh-pct for the day.`,
+    );
+  }
+  // V_s ∝ CLmax^(−1/2): u(V_s)/V_s = ½·u(CLmax)/CLmax (JCGM 100:2008 eq. 12)
+  const clU = input.clMaxU;
+  const vsU = clU !== undefined && clU !== null && Number.isFinite(clU) && clU >= 0 ? (0.5 * vs * clU) / clMax : null;
   return {
     pressure_altitude_m: H,
     pressure_pa: std.p,
@@ -91,7 +120,7 @@ export function projectStallSpeed(input: ProjectionInput): Projection {
     isa_deviation_c: tempC - stdC,
     rh_pct: rhPct,
     rho_kgm3: rho,
-    density_altitude_m: densityAltitude(rho),
+    density_altitude_m: densityAltitudeOf(rho),
     mass_kg: mass,
     weight_n: W,
     wing_area_m2: area,
@@ -100,9 +129,37 @@ export function projectStallSpeed(input: ProjectionInput): Projection {
     v_stall_mps: vs,
     v_stall_kt: vs / KNOT_MPS,
     v_stall_eas_mps: vs * Math.sqrt(rho / ISA_SEA_LEVEL.rho),
+    v_stall_u_mps: vsU,
+    v_stall_u_kt: vsU === null ? null : vsU / KNOT_MPS,
+    dry_air_assumed: dryAssumed,
+    v_stall_saturated_mps: vsSat,
+    v_stall_saturated_kt: vsSat === null ? null : vsSat / KNOT_MPS,
     lift_off_factor: factor,
     v_lift_off_mps: factor * vs,
     v_lift_off_kt: (factor * vs) / KNOT_MPS,
     cautions,
   };
+}
+
+/**
+ * Density altitude with the same density model as the day's density: the altitude H at which dry air at
+ * the standard pressure and temperature of H (ISO 2533:1975) has, by CIPM-2007, the density ρ. A standard
+ * day at sea level is then exactly 0 m (mixing CIPM-2007 for ρ with the ISO ideal-gas table put it at
+ * about −3 m). Solved by bisection on −2 000 to 20 000 m; the density falls monotonically with H.
+ */
+export function densityAltitudeOf(rho: number): number {
+  const at = (H: number) => {
+    const s = isaAtmosphere(H);
+    return moistAirDensity(s.p, s.T, 0);
+  };
+  let lo = -2000;
+  let hi = 20000;
+  if (!(rho <= at(lo)) || !(rho >= at(hi))) return Number.NaN;
+  for (let i = 0; i < 80 && hi - lo > 1e-6; i++) {
+    const mid = (lo + hi) / 2;
+    if (at(mid) > rho) lo = mid;
+    else hi = mid;
+  }
+  // to the millimetre, so that a standard day reads 0 m rather than a few 1e-7 m either way
+  return Math.round(((lo + hi) / 2) * 1000) / 1000 + 0;
 }

@@ -3,8 +3,8 @@
  * result or located errors out. Nothing here touches a file system.
  */
 import { attempt, InputError, type Outcome } from '../contract/messages.ts';
-import { reduce, type ReductionResult, type PointResult } from './pipeline.ts';
-import { RunFileReader, type ColumnMapping, type RunData } from '../formats/runFile.ts';
+import { reduce, reduceBases, type ReductionResult, type PointResult } from './pipeline.ts';
+import { RunFileReader, type ColumnMapping, type GroupingOptions, type RunData } from '../formats/runFile.ts';
 import { parseSetup, type SetupResult } from '../setup/schema.ts';
 import { toCsv, type Cell } from '../formats/csvWriter.ts';
 import { provenanceLines, type Provenance } from '../formats/provenance.ts';
@@ -14,8 +14,8 @@ export type { ReductionResult, PointResult } from './pipeline.ts';
 /** A source of text chunks: a Node stream with utf8 encoding, a browser file's text stream, or an array. */
 export type TextSource = AsyncIterable<string> | Iterable<string>;
 
-export async function readRun(file: string, source: TextSource, mapping?: ColumnMapping): Promise<Outcome<RunData>> {
-  const reader = new RunFileReader(file, { mapping });
+export async function readRun(file: string, source: TextSource, mapping?: ColumnMapping, grouping?: GroupingOptions): Promise<Outcome<RunData>> {
+  const reader = new RunFileReader(file, { mapping, grouping });
   return attemptAsync(async () => {
     for await (const chunk of source as AsyncIterable<string>) reader.push(chunk);
     return reader.finish();
@@ -37,6 +37,16 @@ export function reduceRun(req: ReduceRequest): Outcome<ReductionResult> {
   return attempt(() =>
     reduce({ run: req.run, setup: req.setup.setup, setupWarnings: req.setup.warnings, tare: req.tare, noCorrections: req.noCorrections }),
   );
+}
+
+/** The corrected result and the as-measured one (corrections off) from one pass; the same object twice when the setup has corrections off. */
+export function reduceRunBothBases(req: ReduceRequest): Outcome<{ result: ReductionResult; asMeasured: ReductionResult }> {
+  return attempt(() => {
+    const input = { run: req.run, setup: req.setup.setup, setupWarnings: req.setup.warnings, tare: req.tare, noCorrections: req.noCorrections };
+    const on = req.setup.setup.corrections.enabled && !req.noCorrections;
+    const r = reduceBases(input, on ? ['corrected', 'measured'] : ['corrected']);
+    return { result: r.corrected!, asMeasured: r.measured ?? r.corrected! };
+  });
 }
 
 async function attemptAsync<T>(step: () => Promise<T>): Promise<Outcome<T>> {
@@ -62,6 +72,9 @@ export const POINT_COLUMNS: readonly (keyof PointResult)[] = [
 export function pointsCsv(result: ReductionResult, provenance?: Provenance): string {
   const rows: Cell[][] = result.points.map((p) => POINT_COLUMNS.map((k) => p[k] as Cell));
   // raw comment lines (not CSV cells): what `comment='#'` readers such as pandas and our own reader skip
-  const head = provenance ? provenanceLines(provenance).map((l) => `# ${l.replace(/[\r\n]+/g, ' ')}`).join('\n') + '\n' : '';
+  // the run's name and configuration first, as `# key: value` metadata a run-file reader takes back
+  const meta = [`run: ${result.run.name}`, ...(result.run.configuration !== null ? [`configuration: ${result.run.configuration}`] : [])];
+  const lines = [...meta, ...(provenance ? provenanceLines(provenance) : [])];
+  const head = lines.map((l) => `# ${l.replace(/[\r\n]+/g, ' ')}`).join('\n') + '\n';
   return head + toCsv(POINT_COLUMNS as string[], rows);
 }

@@ -6,6 +6,7 @@
 import type { Channel } from '../formats/channels.ts';
 import type { RunData } from '../formats/runFile.ts';
 import { InputError } from '../contract/messages.ts';
+import { bracket, interpolateAt } from '../physics/numbers.ts';
 
 export interface TareTable {
   file: string;
@@ -67,25 +68,9 @@ export const ALPHA_ALLOWANCE = (0.05 * Math.PI) / 180;
 /** Tare loads at geometric alpha (rad), linear between sweep points, nearest end value outside. */
 export function tareAt(table: TareTable, alpha: number): TareValue {
   const a = table.alpha;
-  const n = a.length;
+  const b = bracket(a, alpha);
   const loads = new Map<Channel, number>();
-  if (n === 1 || alpha <= a[0]! || alpha >= a[n - 1]!) {
-    const k = n === 1 || alpha <= a[0]! ? 0 : n - 1;
-    table.channels.forEach((c, j) => loads.set(c, table.loads[j]![k]!));
-    const clamped = alpha < a[0]! - ALPHA_ALLOWANCE || alpha > a[n - 1]! + ALPHA_ALLOWANCE;
-    return { loads, clamped };
-  }
-  let lo = 0;
-  let hi = n - 1;
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1;
-    if (a[mid]! <= alpha) lo = mid;
-    else hi = mid;
-  }
-  const t = (alpha - a[lo]!) / (a[hi]! - a[lo]!);
-  table.channels.forEach((c, j) => {
-    const v = table.loads[j]!;
-    loads.set(c, v[lo]! + t * (v[hi]! - v[lo]!));
-  });
-  return { loads, clamped: false };
+  table.channels.forEach((c, j) => loads.set(c, interpolateAt(table.loads[j]!, b)));
+  const clamped = alpha < a[0]! - ALPHA_ALLOWANCE || alpha > a[a.length - 1]! + ALPHA_ALLOWANCE;
+  return { loads, clamped };
 }

@@ -1,11 +1,24 @@
 /**
- * The setup file (data contract v1, DESIGN §3.2): model geometry, tunnel section, balance axes, gas,
- * ambient defaults, wall-correction choices. Validated with zod; every problem names its field.
+ * The setup file (docs/data-format.md §4): model geometry, tunnel section, balance axes, gas, ambient
+ * defaults, wall-correction choices. Described once, here: each field's validation, default and
+ * metadata (label, unit, help; the sane range is its zod check) live in one entry, and from them come
+ * the `Setup` type, the window's setup form (core/setup/fields.ts), docs/setup.md and
+ * docs/setup.schema.json (`npm run docs:setup`). Validated with zod; every problem names its field.
+ *
+ * Adding a field is adding one entry to its block below, with `.meta({ label, unit, help })` and a
+ * `.default(...)` that keeps existing setups unchanged (DEVELOPERS.md, "Adding a setup field").
  */
 import { z } from 'zod';
 import { InputError, type Notice } from '../contract/messages.ts';
+import './fieldMeta.ts';
+import { checkMounting, tunnelSectionOf, type Boundaries, type Mounting } from '../walls/sections.ts';
+import { DEFAULT_FINENESS_RATIO, shapeFactorK } from '../walls/shapeFactor.ts';
 
-const positive = (what: string) => z.number({ error: `expected a number (${what})` }).finite().positive({ error: `expected a positive number (${what})` });
+const positive = (what: string) =>
+  z
+    .number({ error: `expected a number (${what})` })
+    .finite()
+    .positive({ error: `expected a positive number (${what})` });
 const finite = (what: string) => z.number({ error: `expected a number (${what})` }).finite();
 /**
  * Geometry within a sanity range (common sense, no published source): no wind-tunnel model or test section
@@ -18,101 +31,352 @@ const geometry = (what: string, unit: 'm' | 'm²' | 'm³') => {
   const error = `expected ${lo} to ${hi} ${unit} (${what})`;
   return positive(`${what}, ${unit}`).min(lo, { error }).max(hi, { error });
 };
-const optionalFactor = (what: string) => z.number({ error: `expected a number or null (${what})` }).finite().nullable().optional();
+/** A number within a sane range; out of range, the message gives the range (not just "expected a number"). */
+const inRange = (what: string, lo: number, hi: number, unit: string) => {
+  const error = unit ? `expected ${lo} to ${hi}${unit}` : `expected ${lo} to ${hi} (${what})`;
+  return finite(what).min(lo, { error }).max(hi, { error });
+};
+/** A standard uncertainty: zero or more. */
+const uncertainty = (what: string) => finite(what).nonnegative({ error: `expected zero or more (${what})` });
+/** A wall-correction factor: a number overrides, `null` (the default) means computed for this tunnel and model. */
+const optionalFactor = (what: string) =>
+  z
+    .number({ error: `expected a number or null (${what})` })
+    .finite()
+    .nullable()
+    .default(null);
 
-const modelSchema = z.strictObject({
-  kind: z.enum(['2d', '3d'], { error: 'expected "2d" (a wing spanning the tunnel) or "3d"' }),
-  name: z.string().optional(),
-  area_m2: geometry('reference area', 'm²').optional(),
-  chord_m: geometry('reference chord', 'm'),
-  span_m: geometry('span', 'm').optional(),
-  volume_m3: geometry('model volume', 'm³').nullable().optional(),
-  moment_ref_offset_m: z
-    .strictObject({ x: finite('metres toward the nose'), z: finite('metres up') })
-    .optional(),
-  loading: z.enum(['elliptic', 'uniform'], { error: 'expected "elliptic" or "uniform"' }).optional(),
-});
+// ---- tunnels and mountings: names ----
+export const SECTIONS = ['closed-rectangular', 'open-rectangular', 'rectangular', 'closed-circular', 'open-circular'] as const;
+export type SectionName = (typeof SECTIONS)[number];
+const WALLS = ['floor', 'ceiling', 'left', 'right'] as const;
+const boundary = (side: string) =>
+  z.enum(['solid', 'free'], { error: 'expected "solid" or "free"' }).meta({ label: `Boundary: ${side}`, help: 'section "rectangular" only', choices: { solid: 'solid wall', free: 'free (jet boundary)' } });
+// ---- end tunnels and mountings ----
 
-const tunnelSchema = z.strictObject({
-  name: z.string().optional(),
-  section: z.literal('closed-rectangular', { error: 'expected "closed-rectangular" (the only section supported so far)' }),
-  width_m: geometry('test-section width', 'm'),
-  height_m: geometry('test-section height', 'm'),
-});
+const modelSchema = z
+  .strictObject({
+    kind: z.enum(['2d', '3d'], { error: 'expected "2d" (a wing spanning the tunnel) or "3d"' }).meta({
+      label: 'Model',
+      details: '`2d`: a wing section spanning the tunnel width between solid side walls. `3d`: a model in the test section; needs `area_m2`, `chord_m` and `span_m`.',
+      choices: { '3d': '3D model', '2d': '2D wing spanning the section' },
+    }),
+    name: z.string().optional().meta({ label: 'Name', details: 'For people; not used by the reduction.' }),
+    area_m2: geometry('reference area', 'm²').optional().meta({
+      label: 'Reference area S',
+      unit: 'm²',
+      help: '3D only; a 2D model uses chord × tunnel width',
+      details: 'Required for a 3D model. For a 2D model the reference area is chord × tunnel width; a value that disagrees gets a warning and is not used.',
+    }),
+    chord_m: geometry('reference chord', 'm').meta({
+      label: 'Reference chord c',
+      unit: 'm',
+      details: 'Reynolds number and the pitching-moment coefficient are based on it.',
+    }),
+    span_m: geometry('span', 'm')
+      .optional()
+      .meta({ label: 'Span b', unit: 'm', help: '3D only', details: 'Required for a 3D model; a 2D model spans the tunnel width.' }),
+    volume_m3: geometry('model volume', 'm³')
+      .nullable()
+      .default(null)
+      .meta({
+        label: 'Model volume',
+        unit: 'm³',
+        help: 'for solid blockage; empty skips it',
+        details: 'Without it solid blockage is skipped, with a warning.',
+      }),
+    moment_ref_offset_m: z
+      .strictObject({
+        x: finite('metres toward the nose').meta({
+          label: 'Moment reference ahead of balance centre, x',
+          unit: 'm',
+          details:
+            'The moment reference centre relative to the balance moment centre, x toward the nose, z up: M_ref = M_bmc − N·x − A·z (body axes). For a 2D model put it at the quarter chord.',
+        }),
+        z: finite('metres up').meta({
+          label: 'Moment reference above balance centre, z',
+          unit: 'm',
+          details: 'Up is the lift direction at zero angle of attack.',
+        }),
+      })
+      .default({ x: 0, z: 0 }),
+    loading: z
+      .enum(['elliptic', 'uniform'], { error: 'expected "elliptic" or "uniform"' })
+      .default('elliptic')
+      .meta({ label: 'Span loading', help: 'for the computed lift-interference factor δ', form: false }),
+    // ── model fields added by later work go below this line, one entry each ──
+    // ---- tunnels and mountings (present in the read-back setup only when given) ----
+    mounting: z.enum(['full', 'half'], { error: 'expected "full" or "half" (a half model on a reflection wall)' }).optional().meta({
+      label: 'Mounting',
+      defaultText: 'full',
+      choices: { full: 'full model', half: 'half model on a reflection wall' },
+      details: '`half`: a half model standing on the solid wall named by `reflection_wall`; `span_m` is then the semi-span and `area_m2`, `volume_m3` the half model\'s. Corrected as the full model mirrored across that wall (docs/methods.md §7a).',
+    }),
+    reflection_wall: z.enum(WALLS, { error: 'expected "floor", "ceiling", "left" or "right"' }).optional().meta({
+      label: 'Reflection wall (half model)',
+      help: 'a half model: span is the semi-span, area the half-model area',
+      choices: { floor: 'floor', ceiling: 'ceiling', left: 'left wall', right: 'right wall' },
+    }),
+    moment_ref_xc: inRange('moment reference aft of the leading edge, in chords', -2, 3, '').optional().meta({
+      label: 'Moment reference aft of the leading edge',
+      unit: 'c',
+      help: 'empty: 0.25 (quarter chord)',
+      defaultText: '0.25',
+      details: 'Chordwise position of the moment reference centre, in chords aft of the reference chord\'s leading edge; the streamline-curvature moment terms (2D and 3D) are referred to it.',
+    }),
+    fineness_ratio: inRange('length / diameter of the equivalent body of revolution', 1, 100, '').optional().meta({
+      label: 'Body fineness ratio (length / diameter)',
+      unit: '–',
+      help: 'sets K = 1 + k1; empty: 6',
+      defaultText: '6',
+      details: 'Sets the default solid-blockage shape factor K = 1 + k1 of a prolate spheroid of this fineness (docs/methods.md §7).',
+    }),
+    tail_arm_m: geometry('tail arm, wing quarter chord to tail quarter chord', 'm').optional().meta({
+      label: 'Tail arm (wing c/4 to tail c/4)',
+      unit: 'm',
+      help: 'tail-on models only',
+    }),
+    tail_cm_per_deg: finite('∂Cm/∂α at the tail, per degree').optional().meta({
+      label: 'Pitching moment per degree of tail angle',
+      unit: '1/deg',
+      help: 'from runs at two tail incidences',
+      details: 'With `tail_arm_m`, the tail-on moment correction ΔCm_t = −(∂Cm/∂α_t)·Δα_t is applied (docs/methods.md §7).',
+    }),
+    // ---- end tunnels and mountings ----
+  })
+  .meta({ group: 'Model' });
 
-const uncertaintySchema = z.strictObject({
-  dp_pitot_pa: finite('Pa').nonnegative().optional(),
-  p_static_pa: finite('Pa').nonnegative().optional(),
-  t_total_c: finite('K or °C difference').nonnegative().optional(),
-  rh_pct: finite('% RH').nonnegative().optional(),
-  force_n: finite('N').nonnegative().optional(),
-  moment_nm: finite('N m').nonnegative().optional(),
-  alpha_deg: finite('deg').nonnegative().optional(),
-  area_rel: finite('relative, e.g. 0.002').nonnegative().optional(),
-  chord_rel: finite('relative, e.g. 0.002').nonnegative().optional(),
-});
+const tunnelSchema = z
+  .strictObject({
+    name: z.string().optional().meta({ label: 'Tunnel name', help: 'for people; not used by the reduction', form: false }),
+    section: z.enum(SECTIONS, { error: `expected one of ${SECTIONS.map((x) => `"${x}"`).join(', ')}` }).meta({
+      label: 'Test section',
+      help: 'the shape and walls of the test section',
+      choices: {
+        'closed-rectangular': 'closed rectangular',
+        'open-rectangular': 'open rectangular jet',
+        rectangular: 'rectangular, each side chosen',
+        'closed-circular': 'closed circular',
+        'open-circular': 'open circular jet',
+      },
+      details: 'Rectangular sections take `width_m` and `height_m`, circular ones `diameter_m`; `rectangular` needs `boundaries`.',
+    }),
+    width_m: geometry('test-section width', 'm')
+      .optional()
+      .meta({ label: 'Test-section width B', unit: 'm', help: 'rectangular sections', details: 'Along the model span. Required for rectangular sections.' }),
+    height_m: geometry('test-section height', 'm').optional().meta({ label: 'Test-section height H', unit: 'm', help: 'rectangular sections', details: 'Required for rectangular sections.' }),
+    // ── tunnel fields added by later work go below this line, one entry each ──
+    // ---- tunnels and mountings ----
+    diameter_m: geometry('test-section diameter', 'm').optional().meta({ label: 'Diameter D', unit: 'm', help: 'circular sections', details: 'Required for circular sections.' }),
+    fillet_m: finite('leg of the 45° corner fillets, m')
+      .nonnegative({ error: 'expected 0 or a positive number (leg of the 45° corner fillets, m)' })
+      .max(1e3, { error: 'expected 0 to 1000 m (leg of the 45° corner fillets)' })
+      .optional()
+      .meta({ label: 'Corner fillet leg f', unit: 'm', help: '45° fillets; C = B·H − 2f²', details: 'Rectangular sections; refused when a leg reaches half the shorter side.' }),
+    boundaries: z
+      .strictObject({ floor: boundary('floor'), ceiling: boundary('ceiling'), left: boundary('left'), right: boundary('right') })
+      .optional()
+      .meta({ details: 'Section `rectangular` only, and then required: each side `solid` or `free`.' }),
+    // ---- end tunnels and mountings ----
+  })
+  .meta({ group: 'Tunnel' });
+
+const balanceSchema = z
+  .strictObject({
+    axes: z.enum(['wind', 'body'], { error: 'expected "wind" (lift/drag columns) or "body" (normal/axial columns)' }).meta({
+      label: 'Balance axes',
+      choices: { wind: 'wind axes (lift, drag)', body: 'body axes (normal, axial)' },
+    }),
+    // ── balance fields added by later work go below this line, one entry each ──
+  })
+  .meta({ group: 'Balance' });
+
+const flowSchema = z
+  .strictObject({
+    gamma: inRange('ratio of specific heats', 1.0001, 2, '').default(1.4).meta({ label: 'Ratio of specific heats γ', unit: '–', form: false }),
+    // ── flow fields added by later work go below this line, one entry each ──
+    contraction_factor: positive('q per unit contraction pressure drop, from the facility calibration')
+      .optional()
+      .meta({
+        label: 'Contraction factor',
+        unit: '–',
+        help: 'q = factor × dp_contraction; needed when the run logs the contraction pressure drop',
+        details: 'The facility calibration of dynamic pressure against the settling-chamber to test-section pressure drop; required when `dp_contraction` is the pressure source.',
+      }),
+  })
+  .prefault({})
+  .meta({ group: 'Flow' });
+
+const ambientSchema = z
+  .strictObject({
+    p_pa: positive('static pressure, Pa').optional().meta({ label: 'Static pressure p', unit: 'Pa' }),
+    t_c: inRange('°C', -100, 200, ' °C').optional().meta({ label: 'Stagnation temperature T₀', unit: '°C' }),
+    rh_pct: inRange('%', 0, 100, ' %').optional().meta({ label: 'Relative humidity', unit: '%' }),
+  })
+  .prefault({})
+  .meta({ group: 'Ambient (when the run has no column)', details: 'Used for a run file that lacks the `p_static`, `t_total` or `rh` column.' });
+
+const correctionsSchema = z
+  .strictObject({
+    enabled: z
+      .boolean({ error: 'expected true or false' })
+      .default(true)
+      .meta({ label: 'Apply wall corrections', details: "The command line's `--no-corrections` turns them off for one run." }),
+    wake: z
+      .enum(['classic', 'maskell'], { error: 'expected "classic" or "maskell"' })
+      .default('classic')
+      .meta({
+        label: 'Wake blockage',
+        details: "Maskell's separated-flow blockage applies to 3D models.",
+        choices: { classic: 'classic', maskell: 'Maskell' },
+      }),
+    solid_blockage_k: z
+      .number({ error: 'expected a number or null (solid-blockage shape factor)' })
+      .finite()
+      .nullable()
+      .optional()
+      .meta({
+        label: 'Solid-blockage shape factor K',
+        unit: '–',
+        help: 'empty: 1 + k1 of the body (3D) or 0.74 (2D)',
+        defaultText: '0.74 (2D); 3D: 1 + k1 of a prolate spheroid of model.fineness_ratio (1.045 for 6)',
+        formKind: 'auto-number',
+      }),
+    delta: optionalFactor('lift-interference factor δ').meta({
+      label: 'Lift-interference factor δ',
+      unit: '–',
+      help: 'empty: computed for this tunnel and model',
+      formKind: 'auto-number',
+    }),
+    tau1: optionalFactor('solid-blockage tunnel factor τ1').meta({
+      label: 'Solid-blockage tunnel factor τ1',
+      unit: '–',
+      help: 'empty: computed',
+      formKind: 'auto-number',
+    }),
+    tau2: optionalFactor('streamline-curvature factor τ2').meta({
+      label: 'Streamline-curvature factor τ2',
+      unit: '–',
+      help: 'empty: computed',
+      formKind: 'auto-number',
+    }),
+    // ── correction fields added by later work go below this line, one entry each ──
+  })
+  .prefault({})
+  .meta({ group: 'Wall corrections', details: 'Methods and the factors computed when a factor is null: docs/methods.md §6 and §7.' });
+
+const uncertaintySchema = z
+  .strictObject({
+    dp_pitot_pa: uncertainty('Pa')
+      .optional()
+      .meta({ label: 'Pitot differential pressure', unit: 'Pa', help: 'all empty: no uncertainties, fits unweighted' }),
+    p_static_pa: uncertainty('Pa').optional().meta({ label: 'Static pressure', unit: 'Pa' }),
+    t_total_c: uncertainty('K or °C difference').optional().meta({ label: 'Stagnation temperature', unit: 'K' }),
+    rh_pct: uncertainty('% RH').optional().meta({ label: 'Relative humidity', unit: '% RH' }),
+    force_n: uncertainty('N').optional().meta({ label: 'Each balance force', unit: 'N' }),
+    moment_nm: uncertainty('N m').optional().meta({ label: 'Pitching moment', unit: 'N m' }),
+    alpha_deg: uncertainty('deg').optional().meta({ label: 'Angle of attack', unit: 'deg' }),
+    area_rel: uncertainty('relative, e.g. 0.002')
+      .optional()
+      .meta({ label: 'Reference area, relative', unit: '–', help: 'a fraction: 0.002 for 0.2 %' }),
+    chord_rel: uncertainty('relative, e.g. 0.002')
+      .optional()
+      .meta({ label: 'Reference chord, relative', unit: '–', help: 'a fraction: 0.002 for 0.2 %' }),
+    // fits: the incidence zero, an offset common to every point of a run (systematic, not a weight)
+    alpha_offset_deg: uncertainty('deg').optional().meta({
+      label: 'Angle-of-attack zero',
+      unit: 'deg',
+      help: 'offset common to every point',
+      details: 'Standard uncertainty of the incidence zero. It is common to every point, so it does not weight the fits; it is propagated to the zero-lift angle and the other characteristics afterwards (docs/methods.md §8).',
+    }),
+  })
+  .optional()
+  .meta({
+    group: 'Instrument uncertainties (standard, k = 1; optional)',
+    details:
+      'Standard uncertainties (k = 1) of the instruments. With the block every point carries `u_*` fields and the fits are weighted (docs/methods.md §9); an instrument uncertainty applies to the `ambient` value too when the column is absent.',
+  });
 
 export const setupSchema = z.strictObject({
-  $schema: z.string().optional(),
-  note: z.string().optional(),
+  $schema: z.string().optional().meta({ label: 'JSON Schema', help: 'for editors: the path or address of setup.schema.json; ignored', form: false }),
+  note: z.string().optional().meta({ label: 'Note', help: 'free text; not used by the reduction', form: false }),
   model: modelSchema,
   tunnel: tunnelSchema,
-  balance: z.strictObject({ axes: z.enum(['wind', 'body'], { error: 'expected "wind" (lift/drag columns) or "body" (normal/axial columns)' }) }),
-  flow: z.strictObject({ gamma: finite('ratio of specific heats').min(1.0001).max(2) }).optional(),
-  ambient: z
+  balance: balanceSchema,
+  flow: flowSchema,
+  ambient: ambientSchema,
+  corrections: correctionsSchema,
+  uncertainty: uncertaintySchema,
+  // ── blocks added by later work go below this line ──
+  grouping: z
     .strictObject({
-      p_pa: positive('static pressure, Pa').optional(),
-      t_c: finite('°C').min(-100).max(200).optional(),
-      rh_pct: finite('%').min(0).max(100).optional(),
+      alpha_tol_deg: positive('degrees')
+        .max(5, { error: 'expected at most 5° (samples of one point stay within a fraction of a degree)' })
+        .default(0.2)
+        .meta({
+          label: 'Grouping tolerance in α',
+          unit: 'deg',
+          help: 'rows without a point column within this of the group’s first row form one point',
+          details: 'Consecutive rows whose α stays within this of the first row of the group (and whose wind state is the same) are samples of one point. Encoders jitter by about 0.1°; a sweep with finer steps sets it lower.',
+        }),
     })
-    .optional(),
-  corrections: z
+    .prefault({})
+    .meta({ group: 'Grouping of samples' }),
+  // fits: overrides of the automatic linear lift range (docs/methods.md §8)
+  fit: z
     .strictObject({
-      enabled: z.boolean({ error: 'expected true or false' }).optional(),
-      wake: z.enum(['classic', 'maskell'], { error: 'expected "classic" or "maskell"' }).optional(),
-      solid_blockage_k: optionalFactor('solid-blockage shape factor'),
-      delta: optionalFactor('lift-interference factor δ'),
-      tau1: optionalFactor('solid-blockage tunnel factor τ1'),
-      tau2: optionalFactor('streamline-curvature factor τ2'),
+      linear_tolerance_cl: positive('tolerance on lift residuals, in CL')
+        .nullable()
+        .default(null)
+        .meta({
+          label: 'Linear-range tolerance',
+          unit: 'CL',
+          help: 'empty: from the data’s own scatter',
+          details: 'Largest residual of a lift-curve point from the straight line for it to count as linear. Empty (null): 3.5 times the scatter the data show, at least 0.01.',
+        }),
+      alpha_range_deg: z
+        .tuple([finite('deg, low end'), finite('deg, high end')], { error: 'expected [low, high] in degrees, or null' })
+        .refine(([lo, hi]) => lo < hi, { error: 'expected [low, high] with low < high' })
+        .nullable()
+        .default(null)
+        .meta({
+          label: 'Linear range in α',
+          unit: 'deg',
+          help: '[low, high]; empty: found from the data',
+          details: 'Fit the lift line, the zero-lift angle and the drag polar over exactly the points with α in [low, high] (at least 5).',
+          form: false,
+        }),
     })
-    .optional(),
-  uncertainty: uncertaintySchema.optional(),
+    .prefault({})
+    .meta({ group: 'Fits' }),
 });
 
-export type SetupInput = z.infer<typeof setupSchema>;
+/** The setup file as written (every field with a default may be left out). */
+export type SetupInput = z.input<typeof setupSchema>;
+type Parsed = z.output<typeof setupSchema>;
+type Simplify<T> = { [K in keyof T]: T[K] } & {};
 
-/** The setup with defaults filled in; what the engine works from. */
-export interface Setup {
-  note?: string;
-  model: {
-    kind: '2d' | '3d';
-    name?: string;
-    /** Reference area used for coefficients, m² (chord × tunnel width for 2D). */
-    area_m2: number;
-    chord_m: number;
-    /** Model span (3D) or tunnel width (2D), m. */
-    span_m: number;
-    volume_m3: number | null;
-    moment_ref_offset_m: { x: number; z: number };
-    loading: 'elliptic' | 'uniform';
-  };
-  tunnel: { name?: string; section: 'closed-rectangular'; width_m: number; height_m: number };
-  balance: { axes: 'wind' | 'body' };
-  flow: { gamma: number };
-  ambient: { p_pa?: number; t_c?: number; rh_pct?: number };
-  corrections: {
-    enabled: boolean;
-    wake: 'classic' | 'maskell';
-    solid_blockage_k: number;
-    delta: number | null;
-    tau1: number | null;
-    tau2: number | null;
-  };
-  uncertainty: SetupInput['uncertainty'] | null;
-}
+/**
+ * The setup with defaults filled in; what the engine works from. Derived from the schema; only what
+ * depends on other fields is stated here: a 2D model's area and span (chord × tunnel width, tunnel
+ * width), the shape factor K by model kind, and `uncertainty` null when the block is absent.
+ */
+export type Setup = Simplify<
+  Omit<Parsed, '$schema' | 'model' | 'tunnel' | 'corrections' | 'uncertainty'> & {
+    model: Simplify<Omit<Parsed['model'], 'area_m2' | 'span_m'> & { area_m2: number; span_m: number }>;
+    /** width_m and height_m equal the diameter for a circular section, so every consumer finds a size. */
+    tunnel: Simplify<Omit<Parsed['tunnel'], 'width_m' | 'height_m'> & { width_m: number; height_m: number }>;
+    corrections: Simplify<Omit<Parsed['corrections'], 'solid_blockage_k'> & { solid_blockage_k: number }>;
+    uncertainty: Parsed['uncertainty'] | null;
+  }
+>;
 
-/** Default solid-blockage shape factors: Barlow, Rae & Pope 3rd ed. §9.2 (K1 = 0.74, wing spanning the tunnel) and §10.1 (typical wing/body, 0.96 as in DESIGN §3.2). */
-export const DEFAULT_SOLID_BLOCKAGE_K = { '2d': 0.74, '3d': 0.96 } as const;
+/**
+ * Default solid-blockage shape factors: 2D Barlow, Rae & Pope 3rd ed. §9.2 (K1 = 0.74, wing spanning the
+ * tunnel); 3D K = 1 + k1 of a prolate spheroid of fineness ratio 6 (Lamb's added mass, on the point-doublet
+ * normalisation of the computed τ1; core/walls/shapeFactor.ts), or of `model.fineness_ratio` when given.
+ */
+export const DEFAULT_SOLID_BLOCKAGE_K = { '2d': 0.74, '3d': shapeFactorK(DEFAULT_FINENESS_RATIO) } as const;
 
 export interface SetupResult {
   setup: Setup;
@@ -141,14 +405,15 @@ export function validateSetup(file: string, json: unknown): SetupResult {
     const issue = parsed.error.issues[0]!;
     throw new InputError({ file, field: fieldPath(issue.path) || '(top level)', message: describeIssue(issue, json) });
   }
-  const s = parsed.data;
+  const { $schema: _editorHint, ...s } = parsed.data;
   const warnings: Notice[] = [];
   const m = s.model;
   let area: number;
   let span: number;
+  const tunnel = checkTunnel(file, s, m.kind === '3d' ? m.span_m : undefined, warnings);
   if (m.kind === '2d') {
-    area = m.chord_m * s.tunnel.width_m;
-    span = s.tunnel.width_m;
+    area = m.chord_m * tunnel.width_m;
+    span = tunnel.width_m;
     if (m.area_m2 !== undefined && Math.abs(m.area_m2 - area) > 1e-6 * area) {
       warnings.push({
         file,
@@ -162,37 +427,88 @@ export function validateSetup(file: string, json: unknown): SetupResult {
     area = m.area_m2;
     span = m.span_m;
   }
-  const c = s.corrections ?? {};
   return {
     warnings,
     setup: {
-      note: s.note,
-      model: {
-        kind: m.kind,
-        name: m.name,
-        area_m2: area,
-        chord_m: m.chord_m,
-        span_m: span,
-        volume_m3: m.volume_m3 ?? null,
-        moment_ref_offset_m: m.moment_ref_offset_m ?? { x: 0, z: 0 },
-        loading: m.loading ?? 'elliptic',
-      },
-      tunnel: s.tunnel,
-      balance: s.balance,
-      flow: { gamma: s.flow?.gamma ?? 1.4 },
-      ambient: s.ambient ?? {},
+      ...s,
+      model: { ...m, area_m2: area, span_m: span },
+      tunnel,
       corrections: {
-        enabled: c.enabled ?? true,
-        wake: c.wake ?? 'classic',
-        solid_blockage_k: c.solid_blockage_k ?? DEFAULT_SOLID_BLOCKAGE_K[m.kind],
-        delta: c.delta ?? null,
-        tau1: c.tau1 ?? null,
-        tau2: c.tau2 ?? null,
+        ...s.corrections,
+        solid_blockage_k:
+          s.corrections.solid_blockage_k ?? (m.kind === '3d' && m.fineness_ratio !== undefined ? shapeFactorK(m.fineness_ratio) : DEFAULT_SOLID_BLOCKAGE_K[m.kind]),
       },
       uncertainty: s.uncertainty ?? null,
     },
   };
 }
+
+// ---- tunnels and mountings: checks ----
+export { tunnelSectionOf, mountingOf } from '../walls/sections.ts';
+
+/** The entries whose value is not undefined. */
+function definedOnly<T extends Record<string, unknown>>(o: T): Partial<{ [K in keyof T]: Exclude<T[K], undefined> }> {
+  return Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined)) as Partial<{ [K in keyof T]: Exclude<T[K], undefined> }>;
+}
+
+const article = (word: string) => (/^[aeiou]/.test(word) ? 'an' : 'a');
+
+/** Size, boundaries, fillets and mounting checked together; refusals name the field, cautions become warnings. */
+function checkTunnel(file: string, s: Omit<Parsed, '$schema'>, span: number | undefined, warnings: Notice[]): Setup['tunnel'] {
+  const t = s.tunnel;
+  const m = s.model;
+  const refuse = (field: string, message: string): never => {
+    throw new InputError({ file, field, message });
+  };
+  const circular = t.section === 'closed-circular' || t.section === 'open-circular';
+  let width: number;
+  let height: number;
+  let diameter: number | null = null;
+  if (circular) {
+    if (t.diameter_m === undefined) refuse('tunnel.diameter_m', `required for ${article(t.section)} ${t.section} section (diameter, m)`);
+    diameter = t.diameter_m!;
+    for (const k of ['width_m', 'height_m'] as const) {
+      if (t[k] !== undefined && t[k] !== diameter) refuse(`tunnel.${k}`, `a circular section is sized by tunnel.diameter_m (${diameter} m); ${t[k]} m here disagrees — remove it`);
+    }
+    if (t.fillet_m) refuse('tunnel.fillet_m', 'corner fillets apply to rectangular sections only');
+    width = height = diameter;
+  } else {
+    if (t.width_m === undefined) refuse('tunnel.width_m', `required for ${article(t.section)} ${t.section} section (width along the span, m)`);
+    if (t.height_m === undefined) refuse('tunnel.height_m', `required for ${article(t.section)} ${t.section} section (height, m)`);
+    if (t.diameter_m !== undefined) refuse('tunnel.diameter_m', `only for circular sections; a ${t.section} section is sized by width_m and height_m`);
+    width = t.width_m!;
+    height = t.height_m!;
+  }
+  let boundaries: Boundaries;
+  if (t.section === 'rectangular') {
+    if (!t.boundaries) refuse('tunnel.boundaries', 'required for section "rectangular": { "floor", "ceiling", "left", "right" }, each "solid" or "free"');
+    boundaries = t.boundaries!;
+  } else {
+    if (t.boundaries) refuse('tunnel.boundaries', `only for section "rectangular"; "${t.section}" fixes every boundary (use "rectangular" to set each side)`);
+    const kind = t.section.startsWith('open') ? 'free' : 'solid';
+    boundaries = { floor: kind, ceiling: kind, left: kind, right: kind };
+  }
+  if (m.mounting !== 'half' && m.reflection_wall !== undefined) refuse('model.reflection_wall', 'applies to a half model only (set model.mounting to "half")');
+  if (m.mounting === 'half' && m.reflection_wall === undefined) refuse('model.reflection_wall', 'required for a half model: the wall it stands on, "floor", "ceiling", "left" or "right"');
+  if (m.tail_cm_per_deg !== undefined && m.tail_arm_m === undefined) warnings.push({ file, field: 'model.tail_cm_per_deg', message: 'given without model.tail_arm_m: no tail-on correction is made' });
+  const out: Setup['tunnel'] = {
+    ...(t.name !== undefined ? { name: t.name } : {}),
+    section: t.section,
+    width_m: width,
+    height_m: height,
+    ...definedOnly({ diameter_m: diameter ?? undefined, boundaries: t.section === 'rectangular' ? boundaries : undefined, fillet_m: t.fillet_m }),
+  };
+  const section = tunnelSectionOf(out);
+  const mounting: Mounting = m.mounting === 'half' ? { kind: 'half', wall: m.reflection_wall! } : { kind: 'full' };
+  if (m.kind === '2d' && t.section === 'open-rectangular') {
+    refuse('tunnel.section', 'a 2d model spans the width between solid side walls; for free floor and ceiling between solid sides use section "rectangular" with boundaries');
+  }
+  const { errors, cautions } = checkMounting(section, mounting, m.kind, span);
+  if (errors.length > 0) refuse(errors[0]!.field, errors[0]!.message);
+  for (const c of cautions) warnings.push({ file, field: c.field, message: c.message });
+  return out;
+}
+// ---- end tunnels and mountings ----
 
 function round(x: number): string {
   return Number(x.toPrecision(6)).toString();
@@ -218,7 +534,7 @@ function knownKeys(path: ReadonlyArray<PropertyKey>): string[] {
 
 function unwrap(schema: z.ZodType): z.ZodType {
   let s: z.ZodType = schema;
-  while (s instanceof z.ZodOptional || s instanceof z.ZodNullable) s = s.unwrap() as z.ZodType;
+  while (s instanceof z.ZodOptional || s instanceof z.ZodNullable || s instanceof z.ZodDefault || s instanceof z.ZodPrefault) s = s.unwrap() as z.ZodType;
   return s;
 }
 
@@ -233,7 +549,9 @@ function describeIssue(issue: z.core.$ZodIssue, json: unknown): string {
   // (fuzz finding: "chord_m": "0.2" read as missing); look the value up in the parsed JSON instead
   if (issue.code === 'invalid_type') {
     const found = valueAt(json, issue.path);
-    return found.present ? `${issue.message}, not ${describeValue(found.value)}` : `missing; ${issue.message}`;
+    // a block (model, tunnel, ...) has no message of its own; zod's default reads "Invalid input: expected object, received null"
+    const expected = issue.expected === 'object' ? 'expected an object of fields, { ... }' : issue.message;
+    return found.present ? `${expected}, not ${describeValue(found.value)}` : `missing; ${expected}`;
   }
   return issue.message;
 }

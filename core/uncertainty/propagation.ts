@@ -6,9 +6,11 @@
  * corrections with the run's factors and curvature slope held fixed. Each input's u² combines the
  * instrument's standard uncertainty from the setup with the random term of the point's own sample
  * scatter, (s/√n)²; instrument terms apply to the setup's ambient values too when a column is absent.
+ * The result also keeps the random part apart from the systematic shifts (inputs common to every point
+ * of a run), because a fit must be weighted by the first and must carry the second afterwards.
  */
 import type { Channel } from '../formats/channels.ts';
-import { measure, type MeasureGeometry, type PointInputs } from '../reduction/measurePoint.ts';
+import { evaluatePoint as measure, type PointGeometry as MeasureGeometry, type PointInputs } from '../reduction/pointChain.ts';
 import type { SetupInput } from '../setup/schema.ts';
 import type { TunnelPoint } from '../walls/types.ts';
 
@@ -21,6 +23,10 @@ export interface PointUncertainty {
   u_cl: number;
   u_cd: number;
   u_cm: number | null;
+  /** The random part (point to point) of α (deg), CL, CD, Cm: what weights a fit. */
+  random: { alphaDeg: number; cl: number; cd: number; cm: number };
+  /** One shift per systematic input (common to every point): propagated to the fitted characteristics afterwards. */
+  systematic: SystematicShift[];
 }
 
 /** The corrected quantities whose uncertainty is reported. */
@@ -42,6 +48,14 @@ export interface Spread {
 }
 
 interface Input {
+  /** Name of the input, for the systematic terms reported to the fits. */
+  name: string;
+  /**
+   * `random`: differs from point to point (the point's own sample scatter, balance and moment readings,
+   * the setting of each angle); `systematic`: common to every point of the run (transducer calibration
+   * of the pressures, temperature and humidity, the reference area and chord, the incidence zero).
+   */
+  kind: 'random' | 'systematic';
   /** Standard uncertainty in SI. */
   u: number;
   /** Returns the outputs with this input moved by h. */
@@ -57,48 +71,78 @@ export function evaluate(x: PointInputs, g: MeasureGeometry, correct: Correct): 
   return correct(measure(x, g).tunnel);
 }
 
-/** The inputs of one point with their standard uncertainties (SI). */
+/** The inputs of one point with their standard uncertainties (SI), each split into its random and systematic parts. */
 function inputsOf(x: PointInputs, g: MeasureGeometry, spec: UncertaintySpec, spread: Spread, correct: Correct): Input[] {
   const rnd = (ch: Channel) => spread.sd(ch) / Math.sqrt(spread.n);
-  const comb = (instr: number | undefined, ch: Channel) => Math.hypot(instr ?? 0, rnd(ch));
   const at = (patch: Partial<PointInputs>) => evaluate({ ...x, ...patch }, g, correct);
   const [f1, f2] = g.axes === 'wind' ? (['lift', 'drag'] as const) : (['normal', 'axial'] as const);
   const rel = (v: number) => Math.max(Math.abs(v), 1) * 1e-6;
+  const alpha = (h: number) => at({ alpha: x.alpha + h });
+  const dp = (h: number) => at({ dp: x.dp + h });
+  const p = (h: number) => at({ p: x.p + h });
+  const T0 = (h: number) => at({ T0: x.T0 + h });
+  const rh = (h: number) => at({ rh: x.rh + h });
   const list: Input[] = [
-    { u: comb(spec.alpha_deg !== undefined ? spec.alpha_deg * DEG : undefined, 'alpha'), shifted: (h) => at({ alpha: x.alpha + h }), step: 1e-6 },
-    { u: comb(spec.dp_pitot_pa, 'dp_pitot'), shifted: (h) => at({ dp: x.dp + h }), step: rel(x.dp) },
-    { u: comb(spec.p_static_pa, 'p_static'), shifted: (h) => at({ p: x.p + h }), step: rel(x.p) },
-    { u: comb(spec.t_total_c, 't_total'), shifted: (h) => at({ T0: x.T0 + h }), step: rel(x.T0) },
-    { u: comb(spec.rh_pct !== undefined ? spec.rh_pct / 100 : undefined, 'rh'), shifted: (h) => at({ rh: x.rh + h }), step: 1e-6 },
-    { u: comb(spec.force_n, f1), shifted: (h) => at({ force1: x.force1 + h }), step: rel(x.force1) },
-    { u: comb(spec.force_n, f2), shifted: (h) => at({ force2: x.force2 + h }), step: rel(x.force2) },
+    // the point's own sample scatter, (s/√n)², is random for every channel
+    { name: 'alpha scatter', kind: 'random', u: Math.hypot(spec.alpha_deg !== undefined ? spec.alpha_deg * DEG : 0, rnd('alpha')), shifted: alpha, step: 1e-6 },
+    { name: 'dp_pitot scatter', kind: 'random', u: rnd('dp_pitot'), shifted: dp, step: rel(x.dp) },
+    { name: 'p_static scatter', kind: 'random', u: rnd('p_static'), shifted: p, step: rel(x.p) },
+    { name: 't_total scatter', kind: 'random', u: rnd('t_total'), shifted: T0, step: rel(x.T0) },
+    { name: 'rh scatter', kind: 'random', u: rnd('rh'), shifted: rh, step: 1e-6 },
+    { name: f1, kind: 'random', u: Math.hypot(spec.force_n ?? 0, rnd(f1)), shifted: (h) => at({ force1: x.force1 + h }), step: rel(x.force1) },
+    { name: f2, kind: 'random', u: Math.hypot(spec.force_n ?? 0, rnd(f2)), shifted: (h) => at({ force2: x.force2 + h }), step: rel(x.force2) },
+    { name: 'dp_pitot calibration', kind: 'systematic', u: spec.dp_pitot_pa ?? 0, shifted: dp, step: rel(x.dp) },
+    { name: 'p_static calibration', kind: 'systematic', u: spec.p_static_pa ?? 0, shifted: p, step: rel(x.p) },
+    { name: 't_total calibration', kind: 'systematic', u: spec.t_total_c ?? 0, shifted: T0, step: rel(x.T0) },
+    { name: 'rh calibration', kind: 'systematic', u: spec.rh_pct !== undefined ? spec.rh_pct / 100 : 0, shifted: rh, step: 1e-6 },
+    { name: 'alpha offset', kind: 'systematic', u: (spec.alpha_offset_deg ?? 0) * DEG, shifted: alpha, step: 1e-6 },
     {
+      name: 'area',
+      kind: 'systematic',
       u: (spec.area_rel ?? 0) * g.area,
       shifted: (h) => evaluate(x, { ...g, area: g.area + h }, correct),
       step: g.area * 1e-6,
     },
     {
+      name: 'chord',
+      kind: 'systematic',
       u: (spec.chord_rel ?? 0) * g.chord,
       shifted: (h) => evaluate(x, { ...g, chord: g.chord + h }, correct),
       step: g.chord * 1e-6,
     },
   ];
-  if (Number.isFinite(x.pitch)) list.push({ u: comb(spec.moment_nm, 'pitch'), shifted: (h) => at({ pitch: x.pitch + h }), step: rel(x.pitch) });
+  if (Number.isFinite(x.pitch)) list.push({ name: 'pitch', kind: 'random', u: Math.hypot(spec.moment_nm ?? 0, rnd('pitch')), shifted: (h) => at({ pitch: x.pitch + h }), step: rel(x.pitch) });
   return list.filter((i) => i.u > 0);
 }
 
 const KEYS = ['q', 'V', 'alphaDeg', 'cl', 'cd', 'cm'] as const;
 
+/** Shift of one point's corrected outputs by one systematic input moved by its standard uncertainty. */
+export interface SystematicShift {
+  input: string;
+  alphaDeg: number;
+  cl: number;
+  cd: number;
+  cm: number;
+}
+
 /** First-order (GUM) standard uncertainties of one point's corrected outputs. */
 export function propagatePoint(x: PointInputs, g: MeasureGeometry, spec: UncertaintySpec, spread: Spread, correct: Correct): PointUncertainty {
   const sum: Record<(typeof KEYS)[number], number> = { q: 0, V: 0, alphaDeg: 0, cl: 0, cd: 0, cm: 0 };
+  const random: Record<(typeof KEYS)[number], number> = { q: 0, V: 0, alphaDeg: 0, cl: 0, cd: 0, cm: 0 };
+  const systematic: SystematicShift[] = [];
   for (const input of inputsOf(x, g, spec, spread, correct)) {
     const up = input.shifted(input.step);
     const down = input.shifted(-input.step);
+    const shift = { q: 0, V: 0, alphaDeg: 0, cl: 0, cd: 0, cm: 0 };
     for (const k of KEYS) {
       const c = (up[k] - down[k]) / (2 * input.step);
-      if (Number.isFinite(c)) sum[k] += (c * input.u) ** 2;
+      if (!Number.isFinite(c)) continue;
+      shift[k] = c * input.u;
+      sum[k] += shift[k] ** 2;
+      if (input.kind === 'random') random[k] += shift[k] ** 2;
     }
+    if (input.kind === 'systematic') systematic.push({ input: input.name, alphaDeg: shift.alphaDeg, cl: shift.cl, cd: shift.cd, cm: shift.cm });
   }
   return {
     u_q_pa: Math.sqrt(sum.q),
@@ -107,5 +151,7 @@ export function propagatePoint(x: PointInputs, g: MeasureGeometry, spec: Uncerta
     u_cl: Math.sqrt(sum.cl),
     u_cd: Math.sqrt(sum.cd),
     u_cm: Number.isFinite(x.pitch) ? Math.sqrt(sum.cm) : null,
+    random: { alphaDeg: Math.sqrt(random.alphaDeg), cl: Math.sqrt(random.cl), cd: Math.sqrt(random.cd), cm: Math.sqrt(random.cm) },
+    systematic,
   };
 }

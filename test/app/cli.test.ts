@@ -59,7 +59,9 @@ describe('sweepbook reduce (command line, DESIGN §3.3)', () => {
     const lines = all.filter((l) => !l.startsWith('#'));
     expect(lines[0]!.split(',').slice(0, 4)).toEqual(['point', 'samples', 'alpha_deg', 'cl']);
     expect(lines).toHaveLength(14);
-    expect(all[0]).toMatch(/^# tool: sweepbook \d+\.\d+\.\d+$/);
+    // the run's name and configuration first, then the provenance
+    expect(all.slice(0, 2)).toEqual(['# run: 201', '# configuration: 2D section, clean']);
+    expect(all[2]).toMatch(/^# tool: sweepbook \d+\.\d+\.\d+$/);
     expect(all.some((l) => l.startsWith('# run: run-201-section.csv sha256 '))).toBe(true);
   });
 

@@ -211,7 +211,7 @@ run('Sweepbook in a real browser (browser host)', () => {
     expect(text).toContain(`# run: run-101-clean.csv sha256 ${sha}`);
     expect(text).toMatch(/# tool: sweepbook \d+\.\d+\.\d+/);
     expect(text).toMatch(/# reduced_at: \d{4}-\d\d-\d\dT/);
-    expect(text).toContain('# corrections: {"enabled":true,"kind":"3d","wake":"classic"}');
+    expect(text).toContain('# corrections: {"enabled":true,"kind":"3d","wake":"classic","method":"3d-classic","fallback":null}');
     expect(text).toContain('# tare: windoff-tare.csv sha256 ');
     expect(text).not.toMatch(/^"#/m);
     const parsed = Papa.parse<string[]>(text, { comments: '#', skipEmptyLines: true });

@@ -11,7 +11,6 @@ import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { CAUTIONS, projectStallSpeed, type Projection } from '../../core/fullscale/stallSpeed.ts';
-import type { ReductionResult } from '../../core/reduction/pipeline.ts';
 import { ARTIFACTS, browserAvailable, openSession, ROOT, type Session } from './browserSetup.ts';
 
 const SAMPLES = join(ROOT, 'sample-runs');

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import {
   compressibilityFactor,
+  enhancementFactor,
   densityFromMoleFraction,
   isaTroposphere,
   moistAirDensity,
@@ -65,5 +66,14 @@ describe('air properties', () => {
 
   it('makes humid air lighter than dry air at the same pressure and temperature', () => {
     expect(moistAirDensity(101325, 303.15, 0.9)).toBeLessThan(moistAirDensity(101325, 303.15, 0));
+  });
+});
+
+describe('CIPM-2007 enhancement factor', () => {
+  // Picard, Davis, Gläser, Fujii, Metrologia 45 (2008) 149, eq. A1.2: f = α + βp + γt², α = 1.00062,
+  // β = 3.14e-8 Pa⁻¹, γ = 5.6e-7 K⁻²; at 101 325 Pa and 20 °C that is 1.004 025 6 (arithmetic on the published constants).
+  it('is 1.0040256 at 101 325 Pa and 20 °C, and grows with pressure', () => {
+    expect(enhancementFactor(101325, 293.15)).toBeCloseTo(1.0040256, 7);
+    expect(enhancementFactor(60000, 293.15)).toBeCloseTo(1.00062 + 3.14e-8 * 60000 + 5.6e-7 * 400, 10);
   });
 });

@@ -2,7 +2,9 @@ import { resolve, join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { densityAltitude, isaAtmosphere, moistAirDensity } from '../../core/physics/air.ts';
 import { InputError } from '../../core/contract/messages.ts';
-import { KNOT_MPS, projectStallSpeed } from '../../core/fullscale/stallSpeed.ts';
+import { densityAltitudeOf, KNOT_MPS, projectStallSpeed, TRIM_CAUTION } from '../../core/fullscale/stallSpeed.ts';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { runCli } from '../support/cli.ts';
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
@@ -46,7 +48,9 @@ describe('stall-speed projection', () => {
     expect(rel(r.v_stall_mps, vs)).toBeLessThan(1e-12);
     expect(r.v_stall_kt).toBeCloseTo(vs / (1852 / 3600), 10);
     expect(KNOT_MPS).toBeCloseTo(0.514444, 6); // NIST SP 811 B.8: knot = 0.514 444 m/s
-    expect(r.density_altitude_m).toBeLessThan(0); // CIPM dry air is 0.04 % denser than the ISO 2533 ideal gas
+    // one density model for the day and for the altitude scale: a standard day at sea level is 0 m (the old
+    // mix of CIPM-2007 for ρ and the ISO 2533 ideal gas for the scale put it at about −3 m)
+    expect(r.density_altitude_m).toBe(0);
     expect(r.cautions.join(' ')).toMatch(/not certified/);
   });
 
@@ -64,6 +68,35 @@ describe('stall-speed projection', () => {
     const r = projectStallSpeed({ ...base, pressureAltitudeM: 2000, isaDeviationC: 15 });
     expect(r.temperature_c).toBeCloseTo(15 - 6.5 * 2 + 15, 10);
     expect(r.isa_deviation_c).toBeCloseTo(15, 10);
+  });
+
+  it('gives the density altitude on the same density model at every altitude of ISO 2533 (dry standard days map to their own altitude)', () => {
+    for (const H of [-500, 0, 1500, 4000, 11000, 15000]) {
+      const s = isaAtmosphere(H);
+      expect(densityAltitudeOf(moistAirDensity(s.p, s.T, 0))).toBeCloseTo(H, 2);
+    }
+    expect(densityAltitudeOf(0.0001)).toBeNaN(); // beyond the table: not a made-up altitude
+  });
+
+  it('states the dry-air assumption when no humidity is given and gives V_s in saturated air beside it (higher: humid air is less dense)', () => {
+    const dry = projectStallSpeed({ ...base, tempC: 30 });
+    expect(dry.dry_air_assumed).toBe(true);
+    expect(dry.v_stall_saturated_mps!).toBeGreaterThan(dry.v_stall_mps);
+    // independent: CIPM-2007 saturated density at 101 325 Pa and 30 °C
+    const rhoSat = moistAirDensity(101325, 303.15, 1);
+    expect(rel(dry.v_stall_saturated_mps!, Math.sqrt((2 * 750 * 9.80665) / (rhoSat * 12.5 * 1.5)))).toBeLessThan(1e-12);
+    expect(dry.cautions.join(' ')).toMatch(/dry air was assumed/);
+    const humid = projectStallSpeed({ ...base, tempC: 30, rhPct: 60 });
+    expect(humid.dry_air_assumed).toBe(false);
+    expect(humid.v_stall_saturated_mps).toBeNull();
+  });
+
+  it('gives u(V_s) = ½·V_s·u(CLmax)/CLmax (GUM eq. 12, V_s ∝ CLmax^−½) and the trim caution for a model CLmax', () => {
+    const r = projectStallSpeed({ ...base, clMaxU: 0.03, clMaxFrom: 'model test' });
+    expect(r.v_stall_u_mps!).toBeCloseTo((0.5 * r.v_stall_mps * 0.03) / 1.5, 12);
+    expect(r.cautions).toContain(TRIM_CAUTION);
+    expect(projectStallSpeed({ ...base, clMaxFrom: 'given' }).cautions).not.toContain(TRIM_CAUTION);
+    expect(projectStallSpeed(base).v_stall_u_mps).toBeNull();
   });
 
   it('scales the lift-off speed by the factor (1.2 by default)', () => {
@@ -85,6 +118,36 @@ describe('sweepbook project (command line)', () => {
     expect(doc.run.configuration).toBe('flap 20');
     expect(doc.cl_max).toBeGreaterThan(1);
     expect(r.stderr).toContain('caution:');
+  });
+
+  it('refuses a 2D section\'s CLmax unless --cl-max is given (exit 1, saying why)', async () => {
+    const r = await runCli('project', S('run-201-section.csv'), '--setup', S('setup-2d.json'), '--mass-kg', '750', '--wing-area-m2', '12.5');
+    expect(r.code).toBe(1);
+    expect(r.stderr).toMatch(/2D section.*--cl-max/);
+    const ok = await runCli('project', S('run-201-section.csv'), '--setup', S('setup-2d.json'), '--mass-kg', '750', '--wing-area-m2', '12.5', '--cl-max', '1.3');
+    expect(ok.code).toBe(0);
+  });
+
+  it('passes on every warning of the reduction, uses the first rising branch of a return sweep and gives u(V_s) with stated uncertainties', async () => {
+    // the sample run followed by its own points in reverse: a return sweep, which makes the reduction warn
+    const dir = mkdtempSync(join(tmpdir(), 'sweepbook-project-'));
+    const lines = readFileSync(S('run-101-clean.csv'), 'utf8').trimEnd().split('\n');
+    const head = lines.filter((l) => l.startsWith('#') || !/^[-\d]/.test(l.trim()));
+    const data = lines.filter((l) => !head.includes(l));
+    writeFileSync(join(dir, 'return.csv'), [...head, ...data, ...data.slice(0, -1).reverse()].join('\n') + '\n');
+    const setup = JSON.parse(readFileSync(S('setup-3d.json'), 'utf8')) as Record<string, unknown>;
+    setup['uncertainty'] = { dp_pitot_pa: 0.5, force_n: 0.05, alpha_deg: 0.02, area_rel: 0.002 };
+    writeFileSync(join(dir, 'setup.json'), JSON.stringify(setup));
+    const r = await runCli('project', join(dir, 'return.csv'), '--setup', join(dir, 'setup.json'), '--mass-kg', '600', '--wing-area-m2', '10', '--rh-pct', '50');
+    expect(r.code).toBe(0);
+    const doc = JSON.parse(r.stdout);
+    expect(doc.warnings.join(' ')).toMatch(/sweep branches/);
+    expect(r.stderr).toMatch(/warning: .*sweep branches/);
+    const single = JSON.parse((await runCli('project', S('run-101-clean.csv'), '--setup', join(dir, 'setup.json'), '--mass-kg', '600', '--wing-area-m2', '10', '--rh-pct', '50')).stdout);
+    expect(doc.cl_max).toBeCloseTo(single.cl_max, 10); // the rising branch's CLmax, whatever the return sweep did
+    expect(doc.cl_max_u).toBeGreaterThan(0);
+    expect(doc.v_stall_u_mps).toBeCloseTo((0.5 * doc.v_stall_mps * doc.cl_max_u) / doc.cl_max, 10);
+    expect(doc.dry_air_assumed).toBe(false);
   });
 
   it('uses --cl-max as given', async () => {

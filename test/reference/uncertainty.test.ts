@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import type { Channel } from '../../core/formats/channels.ts';
-import type { MeasureGeometry, PointInputs } from '../../core/reduction/measurePoint.ts';
+import type { PointGeometry as MeasureGeometry, PointInputs } from '../../core/reduction/pointChain.ts';
 import { evaluate, propagatePoint, type Correct, type UncertaintySpec } from '../../core/uncertainty/propagation.ts';
 import { correct2d } from '../../core/walls/wall2d.ts';
 import { correct3d, correctPoint3d } from '../../core/walls/wall3d.ts';
-import { measure } from '../../core/reduction/measurePoint.ts';
+import { evaluatePoint as measure } from '../../core/reduction/pointChain.ts';
 import { normal } from '../support/random.ts';
 
 
@@ -56,7 +56,7 @@ const identity: Correct = (t) => t;
 describe('GUM first-order uncertainty against Monte Carlo (JCGM 101:2008)', () => {
   it('is zero when every instrument is perfect and the point has one sample', () => {
     const u = propagatePoint(point(4, 0.4, 0.02, -0.04), g3, {}, { n: 1, sd: () => 0 }, identity);
-    expect(u).toEqual({ u_q_pa: 0, u_v_mps: 0, u_alpha_deg: 0, u_cl: 0, u_cd: 0, u_cm: 0 });
+    expect(u).toEqual({ u_q_pa: 0, u_v_mps: 0, u_alpha_deg: 0, u_cl: 0, u_cd: 0, u_cm: 0, random: { alphaDeg: 0, cl: 0, cd: 0, cm: 0 }, systematic: [] });
   });
 
   it('gives u_cm null without a pitching moment', () => {

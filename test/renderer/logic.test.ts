@@ -16,7 +16,7 @@ import { fitCell, FIT_ROWS, fitRowsFor } from '../../renderer/src/logic/fitRows.
 import { fixed, millions, significant } from '../../renderer/src/logic/numberFormat.ts';
 import { assignStyles, colourOf, configurationOrder, RUN_COLOURS, styleFor } from '../../renderer/src/logic/palette.ts';
 import { columnsWithValues } from '../../renderer/src/logic/pointColumns.ts';
-import type { Provenance } from '../../renderer/src/logic/provenance.ts';
+import type { ExportProvenance } from '../../renderer/src/logic/provenance.ts';
 import { checkSetup, draftFrom, setupFrom } from '../../renderer/src/logic/setupForm.ts';
 import { toTsv } from '../../renderer/src/logic/tsv.ts';
 import { numberFormat, pointSheet, sheetName, workbookSheets } from '../../renderer/src/logic/xlsxExport.ts';
@@ -333,7 +333,7 @@ describe('exports', () => {
     reducedAt: '2026-12-01T10:00:00.000Z',
     inputs: [{ role: 'run', name: 'run-101-clean.csv', sha256: 'ab'.repeat(32) }],
   });
-  const prov: Provenance = {
+  const prov: ExportProvenance = {
     exportedAt: '2026-12-01T10:05:00.000Z',
     campaign: '=HYPERLINK("x"), "quoted"',
     runs: [{ name: '101', configuration: 'clean', file: 'run-101-clean.csv', record }],

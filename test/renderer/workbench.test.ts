@@ -227,7 +227,7 @@ describe('workbench', () => {
     expect(rec.inputs.map((i) => i.role)).toEqual(['setup', 'run', 'tare']);
     expect(rec.inputs[1]!.sha256).toBe(parseCampaign('c', sample('sweepbook-campaign.json')).runs[0]!.sha256);
     expect(rec.inputs[0]!.sha256).toMatch(/^[0-9a-f]{64}$/);
-    expect(rec.corrections).toEqual({ enabled: true, kind: '3d', wake: 'classic' });
+    expect(rec.corrections).toEqual({ enabled: true, kind: '3d', wake: 'classic', method: '3d-classic', fallback: null });
     expect(rec.reduced_at).toBe(ctx.wb.state.entries['run-101-clean.csv']!.reducedAt);
   });
 });

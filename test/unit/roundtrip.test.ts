@@ -82,10 +82,11 @@ describe('round trip: known coefficients → readings → reduction', () => {
       const al = (a * Math.PI) / 180;
       return { n: -20 * Math.cos(al), ax: 20 * Math.sin(al), m: -0.2 * Math.cos(al) };
     };
-    const tareLines = ['alpha [deg],normal [N],axial [N],pitch [N m]'];
+    // a tare holds every load channel the run uses (data contract); side, roll and yaw tares are zero here
+    const tareLines = ['alpha [deg],normal [N],axial [N],pitch [N m],side,roll,yaw'];
     for (let a = -6; a <= 14; a += 0.5) {
       const t = tareFn(a);
-      tareLines.push([a, t.n, t.ax, t.m].join(','));
+      tareLines.push([a, t.n, t.ax, t.m, 0, 0, 0].join(','));
     }
     const tare = readRunText('tare.csv', tareLines.join('\n'));
     const { text } = synthesise('body', tareFn);
@@ -99,7 +100,7 @@ describe('round trip: known coefficients → readings → reduction', () => {
   });
 
   it('warns when a point lies outside the tare sweep, naming it, and uses the end value', () => {
-    const tare = readRunText('tare.csv', 'alpha,normal,axial\n0,1,0\n5,1,0\n');
+    const tare = readRunText('tare.csv', 'alpha,normal,axial,side,pitch,roll,yaw\n0,1,0,0,0,0,0\n5,1,0,0,0,0,0\n');
     const { text } = synthesise('body');
     const r = reduce({ run: readRunText('rt.csv', text), setup: setup('body').setup, tare });
     const w = r.warnings.filter((x) => x.includes('outside the tare sweep'));

@@ -123,7 +123,7 @@ describe('run-file reader', () => {
   });
 
   it('ignores columns outside the contract and blank lines', () => {
-    const run = readRunText('x.csv', 'time [s],alpha,comment\n\n0.1,2,hello\n\n0.2,3,x\n');
+    const run = readRunText('x.csv', 'clock [s],alpha,comment\n\n0.1,2,hello\n\n0.2,3,x\n');
     expect(run.channels).toEqual(['alpha']);
     expect(run.points.map((p) => p.line)).toEqual([3, 5]);
   });

@@ -114,7 +114,7 @@ describe('streaming reader: same result whatever the chunks', () => {
   it('irregular rows are skipped or kept alike on both paths, with the same messages and line numbers', () => {
     const text = [
       '# run: 9',
-      'point,alpha,lift [lbf],time [s],drag',
+      'point,alpha,lift [lbf],clock [s],drag',
       '1,0.5,10,0.01,1',
       '1, 0.5 ,1e1,x,1.0', // spaces and an exponent: read by Number(), not the quick conversion
       '',
@@ -136,13 +136,18 @@ describe('streaming reader: same result whatever the chunks', () => {
       [8, undefined],
       [10, 6],
       [12, 2],
-      [13, 3],
+      [13, 2], // 0x10 is not a decimal number (it was once read as 16)
       [16, undefined],
+      // samples of one point id at two angles are kept apart, never averaged (a point id restarted for a return sweep)
+      [11, undefined],
+      [15, undefined],
     ]);
     expect(whole.points.map((p) => [p.key, p.n])).toEqual([
       ['1', 2],
-      ['2', 2],
-      ['3', 2],
+      ['2', 1],
+      ['2', 1],
+      ['3', 1],
+      ['3', 1],
     ]);
     for (const size of [1, 2, 3, 11, 1000]) {
       expect(runJson(streamed('irr.csv', text, size)), `chunks of ${size}`).toBe(runJson(whole));
@@ -162,9 +167,11 @@ describe('streaming reader: same result whatever the chunks', () => {
       fc.property(fc.array(cellArb, { minLength: 1, maxLength: 40 }), (cells) => {
         // one good row last, so that a draw of bad cells only still leaves a file to read
         const all = [...cells, '0'];
-        const text = 'alpha [rad],lift\n' + all.map((c) => `${c},1`).join('\n') + '\n';
+        // no alpha column, so no grouping by set angle: every row is a point of its own
+        const text = 'lift [N],drag\n' + all.map((c) => `${c},1`).join('\n') + '\n';
         const run = readRunText('n.csv', text);
-        const kept = all.map((c, i) => ({ v: c.trim() === '' ? Number.NaN : Number(c), line: i + 2 })).filter((x) => Number.isFinite(x.v));
+        // Number() also reads radix forms (0b11); run files are decimal only, so those rows are skipped
+        const kept = all.map((c, i) => ({ v: c.trim() === '' || /^\s*[+-]?0[xbo]/i.test(c) ? Number.NaN : Number(c), line: i + 2 })).filter((x) => Number.isFinite(x.v));
         expect(run.points.map((p) => p.mean[0])).toEqual(kept.map((x) => x.v + 0));
         expect(run.points.map((p) => p.line)).toEqual(kept.map((x) => x.line));
         expect(run.rowsSkipped).toBe(all.length - kept.length);
@@ -192,5 +199,24 @@ describe('streaming reader: same result whatever the chunks', () => {
     expect(run.warnings.map((w) => [w.line, w.column])).toEqual([[5, 1]]);
     expect(runJson(streamed('dc.csv', text, 2))).toBe(runJson(run));
     expect(runJson(readRunText('dc.csv', quoteEveryCell(text)))).toBe(runJson(run));
+  });
+});
+
+describe('a point id that restarts for the return sweep', () => {
+  it('never averages samples of two angles: the point is split by α with a warning naming both lines', () => {
+    const rows = ['point,alpha,dp_pitot,lift,drag'];
+    for (const [k, a] of [['1', 0], ['2', 4], ['3', 8], ['1', 8.1], ['2', 4], ['3', 0]] as const) for (let s = 0; s < 3; s++) rows.push(`${k},${a + 0.05 * s},600,${10 + a},1`);
+    const run = readRunText('return.csv', rows.join('\n'));
+    // every visit of an id is its own point; the two that come back at another angle are named
+    expect(run.points.map((p) => [p.key, p.n, p.line])).toEqual([
+      ['1', 3, 2],
+      ['2', 3, 5],
+      ['3', 3, 8],
+      ['1', 3, 11],
+      ['2', 3, 14],
+      ['3', 3, 17],
+    ]);
+    expect(run.warnings.map((w) => w.line)).toEqual([11, 17]);
+    expect(run.warnings[0]!.message).toMatch(/point "1" lie at α = 0\.05° \(from line 2\) and 8\.10°/);
   });
 });

@@ -8,6 +8,7 @@ import type { Chart, ChartType, Plugin } from 'chart.js';
 import { barEnds, type PlotPoint } from '../logic/errorBars.ts';
 
 declare module 'chart.js' {
+  // eslint-disable-next-line @typescript-eslint/no-unused-vars -- declaration merging repeats chart.js's own type parameter
   interface PluginOptionsByType<TType extends ChartType> {
     rangeBars?: { bars: { dataset: number; low: number[]; high: number[] }[] };
     paperFooter?: { lines: string[] };

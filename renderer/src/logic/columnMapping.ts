@@ -45,6 +45,9 @@ export const ASSIGNMENT_LABELS: Record<Assignment, string> = {
   pitch: 'pitching moment',
   roll: 'rolling moment',
   yaw: 'yawing moment',
+  time: 'time',
+  q: 'dynamic pressure q (as logged)',
+  dp_contraction: 'contraction Δp (settling chamber to test section)',
 };
 
 /** The unit choice matching a unit the file gives ("degrees" → "deg"), or null when it is not one of them. */
@@ -83,7 +86,7 @@ export function guessAssignment(name: string): Assignment {
   // a unit in brackets or parentheses is not part of the name ("AoA (deg)")
   const key = name.trim().toLowerCase().replace(/\s*[[(][^\])]*[\])]\s*$/, '');
   if (key === 'point' || isChannel(key)) return key as Assignment;
-  const bare = key.replace(/[\s_.\-]+/g, '');
+  const bare = key.replace(/[\s_.-]+/g, '');
   for (const [re, a] of GUESSES) if (re.test(bare)) return a;
   return 'ignore';
 }

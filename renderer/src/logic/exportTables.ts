@@ -7,23 +7,23 @@ import { commentLine, provenanceLines as coreProvenanceLines, reportPointsCsv, t
 import { POINT_COLUMNS } from '../../../core/index.ts';
 import type { FitResult } from '../../../core/index.ts';
 import type { ReductionResult } from '../../../core/index.ts';
-import { CAUTION, provenanceLines, type Provenance } from './provenance.ts';
+import { CAUTION, exportProvenanceLines, type ExportProvenance } from './provenance.ts';
 
 /**
  * Comment lines ("# key: value"), written raw so comment-skipping readers skip them (pandas
  * `comment='#'`, papaparse `comments`); formula characters after a comma are neutralised (commentLine).
  */
-export function provenanceCsv(p: Provenance): string {
-  return [...provenanceLines(p), CAUTION].map(commentLine).join('\n') + '\n';
+export function provenanceCsv(p: ExportProvenance): string {
+  return [...exportProvenanceLines(p), CAUTION].map(commentLine).join('\n') + '\n';
 }
 
 /**
  * The point table of one run: the export's own lines, the run's provenance as the command line writes
  * it, then the report table (header, units row, rounded numbers).
  */
-export function pointsCsvExport(p: Provenance, result: ReductionResult): string {
+export function pointsCsvExport(p: ExportProvenance, result: ReductionResult): string {
   const record = p.runs[0]?.record;
-  return reportPointsCsv(result, [...provenanceLines({ ...p, runs: [] }), CAUTION, ...(record ? coreProvenanceLines(record) : [])]);
+  return reportPointsCsv(result, [...exportProvenanceLines({ ...p, runs: [] }), CAUTION, ...(record ? coreProvenanceLines(record) : [])]);
 }
 
 export interface FitSource {
@@ -68,7 +68,7 @@ export function fitRows(sources: readonly FitSource[]): { header: string[]; rows
   return { header, rows };
 }
 
-export function fitsCsvExport(p: Provenance, sources: readonly FitSource[]): string {
+export function fitsCsvExport(p: ExportProvenance, sources: readonly FitSource[]): string {
   const { header, rows } = fitRows(sources);
   return provenanceCsv(p) + toCsv(header, rows);
 }

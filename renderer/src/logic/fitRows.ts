@@ -46,7 +46,7 @@ export const FIT_ROWS: readonly FitRowSpec[] = [
   { key: 'cm_alpha_per_deg', label: 'Pitching-moment slope dCm/dα', unit: '1/deg', decimals: 5, explainedBy: [PITCH, LIFT_FIT], fallback: () => 'not determined' },
   { key: 'cm_cl_slope', label: 'dCm/dCL', unit: '–', decimals: 4, explainedBy: [PITCH, LIFT_FIT], fallback: () => 'not determined' },
   { key: 'weighted', label: 'Fits weighted by point uncertainties', unit: '', decimals: null, explainedBy: [], fallback: () => 'not stated' },
-  { key: 'x_ac_aft_of_ref_c', label: 'Aerodynamic centre aft of the moment reference', unit: 'c', decimals: 4, explainedBy: [PITCH, LIFT_FIT], fallback: (k) => (k === '2d' ? 'not given for a 2D section' : 'not determined') },
+  { key: 'x_ac_aft_of_ref_c', label: 'Aerodynamic centre aft of the moment reference', unit: 'c', decimals: 4, explainedBy: [PITCH, LIFT_FIT], fallback: () => 'not determined' },
 ];
 
 export interface FitCell {

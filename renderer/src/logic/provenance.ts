@@ -1,5 +1,5 @@
 /**
- * Provenance carried by every export. Per run it is core's (core/provenance.ts: tool and version,
+ * Provenance carried by every export. Per run it is core's record (core/formats/provenance.ts: tool and version,
  * input files with SHA-256, the setup, correction method and factors, time of reduction), the same
  * record the command line writes; an export adds when it was made and from which campaign.
  */
@@ -15,7 +15,8 @@ export interface RunProvenance {
   record: RunRecord;
 }
 
-export interface Provenance {
+/** The provenance of one export: when, from which campaign, and core's record of each run in it. */
+export interface ExportProvenance {
   exportedAt: string;
   campaign: string;
   runs: RunProvenance[];
@@ -31,7 +32,7 @@ export const CAUTION =
  * Provenance as "key: value" lines (comment lines in CSV, rows of a sheet). With one run the run's
  * lines are core's as they are; with several, each is prefixed by its run.
  */
-export function provenanceLines(p: Provenance): string[] {
+export function exportProvenanceLines(p: ExportProvenance): string[] {
   const lines = [`exported_by: Sweepbook ${TOOL_VERSION}`, `exported_at: ${p.exportedAt}`, `campaign: ${p.campaign}`];
   for (const r of p.runs) {
     const prefix = p.runs.length > 1 ? `run ${r.name} ` : '';
@@ -43,7 +44,7 @@ export function provenanceLines(p: Provenance): string[] {
 }
 
 /** One short line for a plot's footer. */
-export function provenanceFooter(p: Provenance): string {
+export function provenanceFooter(p: ExportProvenance): string {
   const runs = p.runs.map((r) => {
     const input = r.record.inputs.find((i) => i.role === 'run');
     return `${r.file} (sha256 ${input ? input.sha256.slice(0, 12) : '?'}…)`;
@@ -55,7 +56,7 @@ export function provenanceFooter(p: Provenance): string {
  * Provenance for a figure, a few legible lines: tool, time and campaign, then per run its file and
  * hash, setup, correction method and factors under their symbols. More than `maxRuns` runs are counted.
  */
-export function figureProvenance(p: Provenance, factorText: (r: RunRecord) => string, maxRuns = 8): string[] {
+export function figureProvenance(p: ExportProvenance, factorText: (r: RunRecord) => string, maxRuns = 8): string[] {
   const lines = [`Sweepbook ${TOOL_VERSION} · exported ${p.exportedAt} · campaign ${p.campaign}`];
   for (const r of p.runs.slice(0, maxRuns)) {
     const input = r.record.inputs.find((i) => i.role === 'run');

@@ -4,9 +4,9 @@
  * types; this module only decides what a text box means.
  */
 import { attempt, formatNotice, type Notice } from '../../../core/index.ts';
-import { validateSetup, type SetupResult } from '../../../core/index.ts';
+import { setupFields, validateSetup, type SetupFormKind, type SetupResult } from '../../../core/index.ts';
 
-export type FieldKind = 'number' | 'auto-number' | 'choice' | 'flag' | 'text';
+export type FieldKind = SetupFormKind;
 
 export interface SetupField {
   path: string;
@@ -18,40 +18,28 @@ export interface SetupField {
   group: string;
 }
 
-/** Standard uncertainties of the instruments (setup `uncertainty` block, docs/data-format.md). */
-export const UNCERTAINTY_GROUP = 'Instrument uncertainties (standard, k = 1; optional)';
+/**
+ * The fields the form shows, in the schema's order, derived from the setup schema's metadata
+ * (core/setup/schema.ts): a field added there with a label appears here without an edit.
+ */
+export const SETUP_FIELDS: readonly SetupField[] = setupFields().flatMap((f): SetupField[] =>
+  f.form === null
+    ? []
+    : [
+        {
+          group: f.group,
+          path: f.path,
+          label: f.label,
+          unit: f.unit,
+          kind: f.form,
+          ...(f.form === 'choice' && f.choices ? { choices: f.choices } : {}),
+          ...(f.help ? { help: f.help } : {}),
+        },
+      ],
+);
 
-export const SETUP_FIELDS: readonly SetupField[] = [
-  { group: 'Model', path: 'model.kind', label: 'Model', unit: '', kind: 'choice', choices: [{ value: '3d', label: '3D model in the closed section' }, { value: '2d', label: '2D wing spanning the section' }] },
-  { group: 'Model', path: 'model.name', label: 'Name', unit: '', kind: 'text' },
-  { group: 'Model', path: 'model.area_m2', label: 'Reference area S', unit: 'm²', kind: 'number', help: '3D only; a 2D model uses chord × tunnel width' },
-  { group: 'Model', path: 'model.chord_m', label: 'Reference chord c', unit: 'm', kind: 'number' },
-  { group: 'Model', path: 'model.span_m', label: 'Span b', unit: 'm', kind: 'number', help: '3D only' },
-  { group: 'Model', path: 'model.volume_m3', label: 'Model volume', unit: 'm³', kind: 'number', help: 'for solid blockage; empty skips it' },
-  { group: 'Model', path: 'model.moment_ref_offset_m.x', label: 'Moment reference ahead of balance centre, x', unit: 'm', kind: 'number' },
-  { group: 'Model', path: 'model.moment_ref_offset_m.z', label: 'Moment reference above balance centre, z', unit: 'm', kind: 'number' },
-  { group: 'Tunnel', path: 'tunnel.width_m', label: 'Test-section width B', unit: 'm', kind: 'number' },
-  { group: 'Tunnel', path: 'tunnel.height_m', label: 'Test-section height H', unit: 'm', kind: 'number' },
-  { group: 'Balance', path: 'balance.axes', label: 'Balance axes', unit: '', kind: 'choice', choices: [{ value: 'wind', label: 'wind axes (lift, drag)' }, { value: 'body', label: 'body axes (normal, axial)' }] },
-  { group: 'Ambient (when the run has no column)', path: 'ambient.p_pa', label: 'Static pressure p', unit: 'Pa', kind: 'number' },
-  { group: 'Ambient (when the run has no column)', path: 'ambient.t_c', label: 'Stagnation temperature T₀', unit: '°C', kind: 'number' },
-  { group: 'Ambient (when the run has no column)', path: 'ambient.rh_pct', label: 'Relative humidity', unit: '%', kind: 'number' },
-  { group: 'Wall corrections', path: 'corrections.enabled', label: 'Apply wall corrections', unit: '', kind: 'flag' },
-  { group: 'Wall corrections', path: 'corrections.wake', label: 'Wake blockage', unit: '', kind: 'choice', choices: [{ value: 'classic', label: 'classic' }, { value: 'maskell', label: 'Maskell' }] },
-  { group: 'Wall corrections', path: 'corrections.solid_blockage_k', label: 'Solid-blockage shape factor K', unit: '–', kind: 'auto-number', help: 'empty: 0.96 (3D) or 0.74 (2D)' },
-  { group: 'Wall corrections', path: 'corrections.delta', label: 'Lift-interference factor δ', unit: '–', kind: 'auto-number', help: 'empty: computed for this tunnel and model' },
-  { group: 'Wall corrections', path: 'corrections.tau1', label: 'Solid-blockage tunnel factor τ1', unit: '–', kind: 'auto-number', help: 'empty: computed' },
-  { group: 'Wall corrections', path: 'corrections.tau2', label: 'Streamline-curvature factor τ2', unit: '–', kind: 'auto-number', help: 'empty: computed' },
-  { group: UNCERTAINTY_GROUP, path: 'uncertainty.dp_pitot_pa', label: 'Pitot differential pressure', unit: 'Pa', kind: 'number', help: 'all empty: no uncertainties, fits unweighted' },
-  { group: UNCERTAINTY_GROUP, path: 'uncertainty.p_static_pa', label: 'Static pressure', unit: 'Pa', kind: 'number' },
-  { group: UNCERTAINTY_GROUP, path: 'uncertainty.t_total_c', label: 'Stagnation temperature', unit: 'K', kind: 'number' },
-  { group: UNCERTAINTY_GROUP, path: 'uncertainty.rh_pct', label: 'Relative humidity', unit: '% RH', kind: 'number' },
-  { group: UNCERTAINTY_GROUP, path: 'uncertainty.force_n', label: 'Each balance force', unit: 'N', kind: 'number' },
-  { group: UNCERTAINTY_GROUP, path: 'uncertainty.moment_nm', label: 'Pitching moment', unit: 'N m', kind: 'number' },
-  { group: UNCERTAINTY_GROUP, path: 'uncertainty.alpha_deg', label: 'Angle of attack', unit: 'deg', kind: 'number' },
-  { group: UNCERTAINTY_GROUP, path: 'uncertainty.area_rel', label: 'Reference area, relative', unit: '–', kind: 'number', help: 'a fraction: 0.002 for 0.2 %' },
-  { group: UNCERTAINTY_GROUP, path: 'uncertainty.chord_rel', label: 'Reference chord, relative', unit: '–', kind: 'number', help: 'a fraction: 0.002 for 0.2 %' },
-];
+/** Standard uncertainties of the instruments (setup `uncertainty` block, docs/setup.md). */
+export const UNCERTAINTY_GROUP: string = SETUP_FIELDS.find((f) => f.path.startsWith('uncertainty.'))!.group;
 
 export type Draft = Record<string, string | boolean>;
 
@@ -115,6 +103,15 @@ export function setupFrom(original: unknown, draft: Draft): Record<string, unkno
   const model = out['model'] as Record<string, unknown> | undefined;
   const off = model?.['moment_ref_offset_m'] as Record<string, unknown> | undefined;
   if (off && off['x'] === undefined && off['z'] === undefined) delete model!['moment_ref_offset_m'];
+  // only what the chosen section and mounting take is sent; the other boxes keep their text for switching back
+  const tunnel = out['tunnel'] as Record<string, unknown> | undefined;
+  if (tunnel) {
+    const section = String(tunnel['section'] ?? 'closed-rectangular');
+    const circular = section.endsWith('circular');
+    for (const key of circular ? ['width_m', 'height_m', 'fillet_m', 'boundaries'] : ['diameter_m']) delete tunnel[key];
+    if (section !== 'rectangular') delete tunnel['boundaries'];
+  }
+  if (model && model['mounting'] !== 'half') delete model['reflection_wall'];
   // likewise an uncertainty block with nothing in it: no block means no uncertainties, unweighted fits
   const u = out['uncertainty'];
   if (u !== null && typeof u === 'object' && Object.keys(u).length === 0) delete out['uncertainty'];

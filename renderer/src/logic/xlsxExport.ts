@@ -8,7 +8,7 @@ import writeXlsxFile, { type Sheet, type SheetData } from 'write-excel-file/brow
 import { escapeFormula, REPORT_COLUMNS, reportColumnsWithValues, type Cell, type ReductionResult, type ReportColumn } from '../../../core/index.ts';
 import { withZipTimestamps } from './zipTimestamps.ts';
 import { fitRows, type FitSource } from './exportTables.ts';
-import { CAUTION, provenanceLines, type Provenance } from './provenance.ts';
+import { CAUTION, exportProvenanceLines, type ExportProvenance } from './provenance.ts';
 
 /** Text cells a spreadsheet might treat as a formula are escaped as in the CSV export (OWASP, "CSV Injection"); numbers stay numbers. */
 function cellValue(c: Cell): Cell | null {
@@ -57,7 +57,7 @@ export function pointSheet(name: string, result: ReductionResult): Omit<Sheet<Bl
   return { data, columns: cols.map((c) => ({ width: Math.max(9, c.header.length + 2) })), stickyRowsCount: 2, stickyColumnsCount: REPORT_COLUMNS[0]!.key === 'point' ? 1 : 0 };
 }
 
-export function workbookSheets(p: Provenance, sources: readonly FitSource[]): Sheet<Blob>[] {
+export function workbookSheets(p: ExportProvenance, sources: readonly FitSource[]): Sheet<Blob>[] {
   const used = new Set<string>();
   const sheets: Sheet<Blob>[] = [];
   const fits = fitRows(sources);
@@ -68,13 +68,13 @@ export function workbookSheets(p: Provenance, sources: readonly FitSource[]): Sh
     stickyRowsCount: 1,
   });
   for (const s of sources) sheets.push({ sheet: sheetName(`Points ${s.name}`, used), ...pointSheet(s.name, s.result) });
-  const prov = [...provenanceLines(p), CAUTION].map((l) => [l]);
+  const prov = [...exportProvenanceLines(p), CAUTION].map((l) => [l]);
   sheets.push({ sheet: sheetName('Provenance', used), data: sheetRows(['provenance'], prov), columns: [{ width: 120 }] });
   return sheets;
 }
 
 /** The workbook's bytes; its ZIP entries are stamped with the export time, so the same content gives the same bytes. */
-export async function workbookBytes(p: Provenance, sources: readonly FitSource[]): Promise<Uint8Array> {
+export async function workbookBytes(p: ExportProvenance, sources: readonly FitSource[]): Promise<Uint8Array> {
   const blob = await writeXlsxFile(workbookSheets(p, sources)).toBlob();
   const when = new Date(p.exportedAt);
   const bytes = new Uint8Array(await blob.arrayBuffer());

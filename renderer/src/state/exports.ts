@@ -8,7 +8,7 @@ import { plotConfig } from '../charts/plotConfig.ts';
 import { anyUncertainty, ERROR_BAR_NOTE } from '../logic/errorBars.ts';
 import { fileStem, fitsCsvExport, pointsCsvExport, type FitSource } from '../logic/exportTables.ts';
 import { PLOTS, plotSpec, type PlotId } from '../logic/plotSpecs.ts';
-import { figureProvenance, provenanceFooter, provenanceLines } from '../logic/provenance.ts';
+import { exportProvenanceLines, figureProvenance, provenanceFooter } from '../logic/provenance.ts';
 import { factorLine } from '../logic/factorNames.ts';
 import { svgFigure } from '../charts/svgFigure.ts';
 import type { Host } from '../host/hostAccess.ts';
@@ -162,7 +162,7 @@ export function createExports(wb: Workbench, host: Host, limits: PlotLimits, doc
       const images: PrintJob['images'] = [];
       for (const id of ['cl-alpha', 'cd-cl'] as const) images.push({ title: PLOTS.find((p) => p.id === id)!.title, url: await plotImage(id, 900, 620, false, [file]) });
       const prov = await wb.provenance([file], 'corrected');
-      printJob.value = { file, images, exportedAt: prov.exportedAt, provenance: provenanceLines(prov) };
+      printJob.value = { file, images, exportedAt: prov.exportedAt, provenance: exportProvenanceLines(prov) };
       // let the summary render before the print dialog takes its snapshot
       await new Promise((r) => setTimeout(r, 50));
       await host.print();

@@ -139,8 +139,7 @@ export function createRunEdits(base: CampaignState, host: Host, engine: EngineCl
     if (!c) return;
     const existing = state.tares[c.name];
     if (!existing || !existing.fileId) {
-      let sha: string | null = null;
-      sha = await hashOf(c.id);
+      const sha = await hashOf(c.id);
       state.tares[c.name] = { file: c.name, fileId: c.id, sha256: sha, hashNote: null, status: 'reading', errors: [] };
       loader.forgetTare(c.name);
       const tares = (state.campaign.tares ??= []);

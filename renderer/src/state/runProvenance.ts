@@ -7,7 +7,7 @@ import { canonical, provenanceOf, type InputFile } from '../../../core/index.ts'
 import { validateSetup } from '../../../core/index.ts';
 import { baseName } from '../host/browserHost.ts';
 import { sha256Text } from '../logic/hashText.ts';
-import { TOOL_VERSION, type Provenance, type RunProvenance } from '../logic/provenance.ts';
+import { TOOL_VERSION, type ExportProvenance, type RunProvenance } from '../logic/provenance.ts';
 import type { Basis, CampaignState } from './campaignState.ts';
 
 export function createProvenance(base: CampaignState) {
@@ -17,7 +17,7 @@ export function createProvenance(base: CampaignState) {
    * Provenance of reduced runs, in core's form (as the command line writes it). The setup lives in the
    * campaign rather than in a file of its own: it is named by campaign and key, hashed as canonical JSON.
    */
-  async function provenance(files: readonly string[], basis: Basis = state.basis): Promise<Provenance> {
+  async function provenance(files: readonly string[], basis: Basis = state.basis): Promise<ExportProvenance> {
     const runs: RunProvenance[] = [];
     for (const file of files) {
       const run = runOf(file);

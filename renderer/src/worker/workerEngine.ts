@@ -3,7 +3,7 @@
  * process: streams chunks into core's RunFileReader, keeps the read runs by key, reduces on request.
  */
 import { attempt, InputError, type Notice } from '../../../core/index.ts';
-import { reduceRun } from '../../../core/index.ts';
+import { reduceRunBothBases } from '../../../core/index.ts';
 import { RunFileReader, type ColumnMapping, type RunData } from '../../../core/index.ts';
 import { validateSetup } from '../../../core/index.ts';
 import { sniffHeader } from './headerSniff.ts';
@@ -117,12 +117,10 @@ export class WorkerEngine {
     }
     const setup = attempt(() => validateSetup(`setup "${setupName}"`, setupJson));
     if (!setup.ok) return setup;
-    const corrected = reduceRun({ run, setup: setup.value, tare });
-    if (!corrected.ok) return corrected;
-    // the same run with corrections off, for fits and plots "as measured"; identical when the setup has them off
-    const measured = corrected.value.corrections.enabled ? reduceRun({ run, setup: setup.value, tare, noCorrections: true }) : corrected;
-    if (!measured.ok) return measured;
-    return { ok: true, result: corrected.value, asMeasured: measured.value, reducedAt: new Date().toISOString() };
+    // corrected and "as measured" (fits and plots with corrections off) from one pass through the stages
+    const both = reduceRunBothBases({ run, setup: setup.value, tare });
+    if (!both.ok) return both;
+    return { ok: true, result: both.value.result, asMeasured: both.value.asMeasured, reducedAt: new Date().toISOString() };
   }
 }
 
