@@ -113,11 +113,11 @@ run('the window on a laptop screen, kept across reloads', () => {
     await row.getByRole('button', { name: 'Assign columns…' }).click();
     const dialog = page.locator('dialog.mapping-dialog');
     await dialog.waitFor();
-    expect(await dialog.getByLabel('What column AoA (deg) holds').inputValue()).toBe('alpha');
-    expect(await dialog.getByLabel('Unit of column AoA (deg)').inputValue()).toBe('deg');
-    expect(await dialog.locator('tr[data-column="AoA (deg)"] .unit-source').textContent()).toBe('header: deg');
+    expect(await dialog.getByLabel('What column AoA holds').inputValue()).toBe('alpha');
+    expect(await dialog.getByLabel('Unit of column AoA').inputValue()).toBe('deg');
+    expect(await dialog.locator('tr[data-column="AoA"] .unit-source').textContent()).toBe('header: deg');
     expect(await dialog.locator('tr[data-column="lift"] .unit-source').textContent()).toBe('header: N');
-    const labels = await dialog.getByLabel('What column AoA (deg) holds').locator('option').allTextContents();
+    const labels = await dialog.getByLabel('What column AoA holds').locator('option').allTextContents();
     expect(labels).toContain('angle of attack α');
     expect(labels.some((l) => /default|_/.test(l))).toBe(false);
     expect(await dialog.textContent()).not.toContain('contract default');

@@ -47,7 +47,7 @@ export function sniffHeader(text: string): HeaderInfo | null {
     const parsed = Papa.parse<string[]>(raw, { delimiter, newline: '\n' });
     const cells: HeaderInfo['cells'] = (parsed.data[0] ?? []).map((c) => {
       const { name, unit } = splitHeaderCell(c.trim());
-      if (unit !== undefined) return { name, unit, unitFrom: 'brackets' as const };
+      if (unit !== undefined) return { name, unit, unitFrom: c.trim().endsWith(')') ? ('parentheses' as const) : ('brackets' as const) };
       const inParens = parenthesisedUnit(name);
       return inParens ? { name, unit: inParens, unitFrom: 'parentheses' as const } : { name, unit: null };
     });
