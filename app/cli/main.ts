@@ -8,12 +8,12 @@
  * Standard output carries only the document; messages go to standard error. Exit 0 on success,
  * 1 on input that cannot be reduced, 2 on a wrong command line, 3 on an internal error (§7.1).
  */
-import { createHash, type Hash } from 'node:crypto';
+import { createHash } from 'node:crypto';
 import { basename, resolve } from 'node:path';
 import { readFile, stat } from 'node:fs/promises';
 import { parseArgs } from 'node:util';
 import { parseColumnMap, pointsCsv, readerMapping, readRun, readSetup, reduceRun, type ColumnMapping } from '../../core/index.ts';
-import { attempt, formatNotice, InputError, type Notice } from '../../core/index.ts';
+import { attempt, formatNotice, type Notice } from '../../core/index.ts';
 import { projectStallSpeed } from '../../core/index.ts';
 import { provenanceOf, reductionTime, type InputFile, type Provenance } from '../../core/index.ts';
 import type { ReductionResult } from '../../core/index.ts';

@@ -105,7 +105,7 @@ function decimated(alphaDeg: readonly number[], cl: readonly number[], tolerance
 /** The points whose α lies in [lo, hi] (setup `fit.alpha_range_deg`), as a range of the ordered arrays. */
 export function rangeFromAlpha(alphaDeg: readonly number[], cl: readonly number[], lo: number, hi: number): LinearRange | undefined {
   const eps = 1e-9 * Math.max(1, Math.abs(lo), Math.abs(hi));
-  let from = alphaDeg.findIndex((a) => a >= lo - eps);
+  const from = alphaDeg.findIndex((a) => a >= lo - eps);
   if (from < 0) return undefined;
   let to = from;
   while (to < alphaDeg.length && alphaDeg[to]! <= hi + eps) to++;

@@ -8,7 +8,7 @@ describe('units of tunnel files as written (every spelling of the v2 list)', () 
   it.each([
     // force
     ['N', 1], ['kN', 1000], ['lbf', 4.4482216152605], ['lb', 4.4482216152605], // NIST SP 811 B.8 pound-force 4.448 222 E+00 N
-    ['ozf', 0.27801385095378125], // NIST SP 811 B.8 ounce-force 2.780 139 E-01 N
+    ['ozf', 4.4482216152605 / 16], // NIST SP 811 B.8 ounce-force 2.780 139 E-01 N
     ['kgf', 9.80665], ['kp', 9.80665], // NIST SP 811 B.8 kilogram-force, exact
     ['gf', 0.00980665], // NIST SP 811 B.8 gram-force 9.806 65 E-03 N
     ['kg', 9.80665], ['g', 0.00980665], // mass indication × standard gravity 9.806 65 m/s² (NIST SP 811 B.8)
@@ -21,7 +21,7 @@ describe('units of tunnel files as written (every spelling of the v2 list)', () 
     ['N m', 1], ['Nm', 1], ['N·m', 1], ['N mm', 0.001], ['N cm', 0.01],
     // NIST SP 811 B.8: pound-force inch 1.129 848 E-01 N m; pound-force foot 1.355 818 E+00 N m
     ['lbf in', 0.1129848290276167], ['in-lb', 0.1129848290276167], ['in lbf', 0.1129848290276167], ['in·lbf', 0.1129848290276167], ['lb in', 0.1129848290276167],
-    ['lbf ft', 1.3558179483314004], ['ft-lb', 1.3558179483314004],
+    ['lbf ft', 4.4482216152605 * 0.3048], ['ft-lb', 4.4482216152605 * 0.3048],
     ['kgf m', 9.80665], // NIST SP 811 B.8 kilogram-force metre 9.806 65 N m
   ])('moment: 1 %s = %f N m', (unit, nm) => {
     expect(lookupUnit(unit)!.quantity).toBe('moment');

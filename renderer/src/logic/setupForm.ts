@@ -115,6 +115,11 @@ export function setupFrom(original: unknown, draft: Draft): Record<string, unkno
   // likewise an uncertainty block with nothing in it: no block means no uncertainties, unweighted fits
   const u = out['uncertainty'];
   if (u !== null && typeof u === 'object' && Object.keys(u).length === 0) delete out['uncertainty'];
+  // a block the form opened only because it has fields (grouping, fit) and left empty is not written
+  const had = (original ?? {}) as Record<string, unknown>;
+  for (const [key, value] of Object.entries(out)) {
+    if (!(key in had) && value !== null && typeof value === 'object' && !Array.isArray(value) && Object.keys(value).length === 0) delete out[key];
+  }
   return out;
 }
 
