@@ -30,3 +30,7 @@ export * from './formats/sampleTransform.ts';
 export * from './flowAngle/upflow.ts';
 export * from './analysis/repeatability.ts';
 // --- end of balance calibration, flow angle, repeatability ---
+
+// ---- report tables (point table with trade names, units row, rounded numbers) ----
+export * from './formats/reportTable.ts';
+export { bracket, finiteOrNull, interpolate, interpolateAt, maxOf, minOf } from './physics/numbers.ts';

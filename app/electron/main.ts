@@ -36,7 +36,9 @@ async function buildMenu(recent: ReturnType<typeof recentList>) {
 
 async function createWindow() {
   const grants = new FileGrants();
-  const recent = recentList(join(app.getPath('userData'), 'recent-campaigns.json'));
+  const kept = recentList(join(app.getPath('userData'), 'recent-campaigns.json'));
+  // File → Open Recent follows the list: rebuilt whenever a campaign is opened or saved
+  const recent = { ...kept, add: async (path: string) => (await kept.add(path), await buildMenu(kept)) };
   hardenSession(session.defaultSession);
   win = new BrowserWindow({
     width: 1400,

@@ -6,7 +6,7 @@ import { contextBridge, ipcRenderer, webUtils } from 'electron';
 import type { ChosenFile, MenuCommand, SweepbookHost } from '../../core/index.ts';
 import { EVENTS, INVOKE } from './ipcChannels.ts';
 
-const host: SweepbookHost & { adoptDroppedFile(file: File): Promise<ChosenFile> } = {
+const host: SweepbookHost & { adoptDroppedFile(file: File): Promise<ChosenFile>; onOpenRecent(listener: (id: string) => void): () => void } = {
   kind: 'electron',
   chooseRunFiles: () => ipcRenderer.invoke(INVOKE.chooseRunFiles),
   readChunks: async (id, onChunk, chunkBytes) => {
@@ -42,6 +42,14 @@ const host: SweepbookHost & { adoptDroppedFile(file: File): Promise<ChosenFile> 
   print: () => ipcRenderer.invoke(INVOKE.print),
   adoptDroppedFile: (file) => ipcRenderer.invoke(INVOKE.adoptDroppedFile, webUtils.getPathForFile(file)),
   openRecentCampaign: (id) => ipcRenderer.invoke(INVOKE.openRecentCampaign, id),
+  // File → Open Recent in the native menu: the id is the recent list's own, checked again by campaign:open-recent
+  onOpenRecent: (listener) => {
+    const fn = (_e: unknown, id: unknown) => {
+      if (typeof id === 'string') listener(id);
+    };
+    ipcRenderer.on(EVENTS.menuOpenRecent, fn);
+    return () => ipcRenderer.removeListener(EVENTS.menuOpenRecent, fn);
+  },
   openCampaignBackup: (id) => ipcRenderer.invoke(INVOKE.openCampaignBackup, id),
 };
 

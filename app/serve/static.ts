@@ -11,6 +11,7 @@ import { realpath, stat } from 'node:fs/promises';
 import { createServer, type IncomingMessage, type ServerResponse } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { extname, resolve, sep } from 'node:path';
+import { mayHaveKey, newStorageKey, STORAGE_KEY_PATH } from './storageKey.ts';
 
 export interface StaticServerOptions {
   /** Folder served at "/". */
@@ -20,6 +21,8 @@ export interface StaticServerOptions {
   host?: string;
   /** 0 picks a free port. */
   port?: number;
+  /** Key the page encrypts its kept campaign with (storageKey.ts); a fresh one per server when not given. */
+  storageKey?: string;
 }
 
 export interface StaticServer {
@@ -96,6 +99,17 @@ export function startStaticServer(options: StaticServerOptions): Promise<StaticS
   let printedHost = '127.0.0.1';
   let listenPort = 0;
 
+  const storageKey = options.storageKey ?? newStorageKey();
+  function sendStorageKey(req: IncomingMessage, res: ServerResponse): void {
+    if (!mayHaveKey(req.headers['sec-fetch-site'])) {
+      res.writeHead(403, { 'Content-Type': 'text/plain; charset=utf-8' }).end('only for this page\n');
+      return;
+    }
+    const body = JSON.stringify({ key: storageKey });
+    res.writeHead(200, { 'Content-Type': 'application/json; charset=utf-8', 'Content-Length': Buffer.byteLength(body), 'Cache-Control': 'no-store', 'X-Content-Type-Options': 'nosniff' });
+    res.end(req.method === 'HEAD' ? undefined : body);
+  }
+
   async function handle(req: IncomingMessage, res: ServerResponse): Promise<void> {
     if (!hostAllowed(req.headers.host, printedHost, listenPort)) {
       res.writeHead(421, { 'Content-Type': 'text/plain; charset=utf-8' }).end('this server answers only to its own address\n');
@@ -106,6 +120,10 @@ export function startStaticServer(options: StaticServerOptions): Promise<StaticS
       return;
     }
     const path = new URL(req.url ?? '/', 'http://localhost').pathname;
+    if (path === STORAGE_KEY_PATH) {
+      sendStorageKey(req, res);
+      return;
+    }
     const mount = mounts.find((m) => path.startsWith(m.prefix));
     const folder = mount ? mount.folder : options.root;
     const named = resolveInside(folder, mount ? path.slice(mount.prefix.length - 1) : path);

@@ -345,7 +345,6 @@ const uncertaintySchema = z
       label: 'Angle-of-attack zero',
       unit: 'deg',
       help: 'offset common to every point',
-      form: false,
       details: 'Standard uncertainty of the incidence zero. It is common to every point, so it does not weight the fits; it is propagated to the zero-lift angle and the other characteristics afterwards (docs/methods.md §8).',
     }),
   })

@@ -21,8 +21,10 @@ const exports = createExports(wb, host, limits);
 createApp(App).provide(APP, { host, wb, limits, exports }).mount('#app');
 
 void wb.refreshRecent();
-// the first start opens the bundled sample campaign, so there is something to look at
-if (localStorage.getItem(FIRST_START_KEY) === null) {
+// a reload or restart brings back the campaign being worked on; the very first start opens the bundled
+// sample campaign, so there is something to look at
+void wb.resumeSession().then(async (resumed) => {
+  if (resumed || localStorage.getItem(FIRST_START_KEY) !== null) return;
   localStorage.setItem(FIRST_START_KEY, new Date().toISOString());
-  void wb.openSample();
-}
+  await wb.openSample();
+});

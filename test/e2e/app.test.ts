@@ -9,6 +9,7 @@ import { createHash } from 'node:crypto';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import Papa from 'papaparse';
 import readXlsx from 'read-excel-file/node';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -16,6 +17,7 @@ import { parseCampaign } from '../../core/formats/campaign.ts';
 import { reduceRun, readSetup, POINT_COLUMNS } from '../../core/reduction/engine.ts';
 import type { ReductionResult } from '../../core/reduction/pipeline.ts';
 import { readRunText } from '../../core/formats/runFile.ts';
+import { REPORT_COLUMNS } from '../../core/formats/reportTable.ts';
 import { ARTIFACTS, browserAvailable, openSession, ROOT, type Session } from './browserSetup.ts';
 
 const SAMPLES = join(ROOT, 'sample-runs');
@@ -28,13 +30,6 @@ function cli(args: string[]): string {
 
 function sha256Of(path: string): string {
   return createHash('sha256').update(readFileSync(path)).digest('hex');
-}
-
-/** CSV text without its "# " provenance lines, as rows of cells. */
-function csvTable(text: string): { header: string[]; rows: string[][] } {
-  const lines = text.split('\n').filter((l) => l !== '' && !l.startsWith('# ') && !l.startsWith('"# '));
-  const [head, ...rest] = lines;
-  return { header: head!.split(','), rows: rest.map((l) => l.split(',')) };
 }
 
 /** Equal to the last bits: the browser's V8 and Node's may round a transcendental function differently. */
@@ -90,14 +85,12 @@ run('Sweepbook in a real browser (browser host)', () => {
   let work: string;
   let cliJson: ReductionResult;
   let cliMeasured: ReductionResult;
-  let cliCsv: string;
 
   beforeAll(async () => {
     work = mkdtempSync(join(tmpdir(), 'sweepbook-e2e-files-'));
     const base = [RUN_101, '--setup', join(SAMPLES, 'setup-3d.json'), '--tare', join(SAMPLES, 'windoff-tare.csv')];
     cliJson = JSON.parse(cli([...base, '--format', 'json'])) as ReductionResult;
     cliMeasured = JSON.parse(cli([...base, '--format', 'json', '--no-corrections'])) as ReductionResult;
-    cliCsv = cli([...base, '--format', 'csv']);
     s = await openSession();
     page = s.page;
     await page.goto(s.server.url);
@@ -209,25 +202,36 @@ run('Sweepbook in a real browser (browser host)', () => {
     expect(await page.locator('[data-plot="cl-alpha"]').getAttribute('data-zoomed')).toBe('no');
   });
 
-  it('exports the point table as CSV equal to the command line for the same run and setup', async () => {
+  it('exports the point table as a report CSV: the command line\'s values rounded, trade names, units row, raw # lines', async () => {
     await page.locator('tbody[data-run="run-101-clean.csv"] .run-row .run-name').click();
     const path = await download(page, () => page.getByRole('button', { name: 'Points CSV' }).click(), 'export-101-points.csv');
     const text = readFileSync(path, 'utf8');
     // provenance: tool version, the run file's SHA-256, the setup, corrections and the time of reduction
     const sha = sha256Of(RUN_101);
-    expect(text).toContain(`run: run-101-clean.csv sha256 ${sha}`);
+    expect(text).toContain(`# run: run-101-clean.csv sha256 ${sha}`);
     expect(text).toMatch(/# tool: sweepbook \d+\.\d+\.\d+/);
     expect(text).toMatch(/# reduced_at: \d{4}-\d\d-\d\dT/);
     expect(text).toContain('# corrections: {"enabled":true,"kind":"3d","wake":"classic","method":"3d-classic","fallback":null}');
-    expect(text).toContain('tare: windoff-tare.csv sha256 ');
-    const mine = csvTable(text);
-    const theirs = csvTable(cliCsv);
-    expect(mine.header).toEqual(theirs.header);
-    expect(mine.rows.length).toBe(theirs.rows.length);
-    mine.rows.forEach((r, i) => r.forEach((cell, j) => {
-      const ref = theirs.rows[i]![j]!;
-      if (cell === '' || ref === '' || Number.isNaN(Number(ref))) expect(cell, `${mine.header[j]} row ${i}`).toBe(ref);
-      else expectSame(Number(cell), Number(ref), `${mine.header[j]} row ${i}`);
+    expect(text).toContain('# tare: windoff-tare.csv sha256 ');
+    expect(text).not.toMatch(/^"#/m);
+    const parsed = Papa.parse<string[]>(text, { comments: '#', skipEmptyLines: true });
+    expect(parsed.errors).toEqual([]);
+    const [header, units, ...rows] = parsed.data;
+    expect(header!.slice(0, 6)).toEqual(['point', 'samples', 'alpha', 'CL', 'CD', 'Cm']);
+    expect(units![2]).toBe('deg');
+    expect(rows.length).toBe(cliJson.points.length);
+    const cols = header!.map((h) => REPORT_COLUMNS.find((c) => c.header === h)!);
+    const keys = cols.map((c) => c.key);
+    rows.forEach((r, i) => r.forEach((cell, j) => {
+      const ref = cliJson.points[i]![keys[j]!];
+      if (typeof ref === 'string' || ref === null || ref === undefined) return expect(cell, `${header![j]} row ${i}`).toBe(ref ?? '');
+      // rounded to the digits written: within half a unit in the last place
+      const decimals = cell.includes('.') ? cell.split('.')[1]!.replace(/e.*$/, '').length : 0;
+      const scale = cell.includes('e') ? 10 ** Number(cell.split('e')[1]) : 1;
+      const d = cols[j]!.decimals;
+      // sig:N columns: half a unit in the N-th significant digit
+      const relative = typeof d === 'string' ? 0.5 * 10 ** (1 - Number(d.slice(4))) * Math.abs(ref) : 0;
+      expect(Math.abs(Number(cell) - ref), `${header![j]} row ${i}: ${cell} vs ${ref}`).toBeLessThanOrEqual(Math.max(relative, 0.5 * 10 ** -decimals * scale) * (1 + 1e-9) + Math.abs(ref) * 1e-12);
     }));
   });
 
@@ -237,10 +241,13 @@ run('Sweepbook in a real browser (browser host)', () => {
     const names = sheets.map((x) => x.sheet);
     expect(names).toEqual(['Fit summary', 'Points 101', 'Points 103', 'Provenance']);
     const points = sheets.find((x) => x.sheet === 'Points 101')!.data;
-    expect(points[0]).toEqual([...POINT_COLUMNS]);
-    expect(points.length - 1).toBe(cliJson.points.length);
-    cliJson.points.forEach((p, i) => POINT_COLUMNS.forEach((k, j) => {
-      const v = points[i + 1]![j] ?? null;
+    // trade names and a units row above full-precision numbers
+    const keys = (points[0] as string[]).map((h) => REPORT_COLUMNS.find((c) => c.header === h)!.key);
+    expect(keys.every((k) => (POINT_COLUMNS as readonly string[]).includes(k))).toBe(true);
+    expect(points[1]![keys.indexOf('alpha_deg')]).toBe('deg');
+    expect(points.length - 2).toBe(cliJson.points.length);
+    cliJson.points.forEach((p, i) => keys.forEach((k, j) => {
+      const v = points[i + 2]![j] ?? null;
       const ref = p[k] ?? null;
       expectSame(typeof ref === 'string' && typeof v === 'number' ? String(v) : v, ref, `${k} point ${i}`);
     }));
@@ -338,6 +345,8 @@ run('Sweepbook in a real browser (browser host)', () => {
     const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.getByRole('button', { name: 'Open…' }).click()]);
     await chooser.setFiles(chosen);
     await page.locator('tbody[data-run="run-103-flap20.csv"][data-status="missing"]').waitFor();
+    // the hashes are checked as each run is read (a campaign of many runs is listed first)
+    await waitReady(page, 'run-102-flap10.csv');
     const banners = await page.locator('.banner').allTextContents();
     expect(banners.join('\n')).toContain('Not found beside the campaign: run-103-flap20.csv');
     expect(banners.join('\n')).toMatch(/run-102-flap10\.csv: the file has changed since the campaign was saved/);

@@ -6,11 +6,12 @@
 import { execFileSync } from 'node:child_process';
 import { existsSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
+import { dirname, join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
 import { startStaticServer, type StaticServer } from '../../app/serve/static.ts';
 
-export const ROOT = resolve(__dirname, '../..');
+export const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), '../..');
 /** Debian's Chromium; CHROMIUM_PATH points elsewhere on other systems. */
 export const CHROMIUM = process.env['CHROMIUM_PATH'] ?? '/usr/bin/chromium';
 export const ARTIFACTS = join(ROOT, 'test-artifacts');

@@ -112,10 +112,13 @@ run('uncertainties and the full-scale estimate in a real browser', () => {
     await expect.poll(() => page.locator('[data-plot="cl-alpha"]').getAttribute('data-zoomed')).toBe('yes');
     const ids = ['cl-alpha', 'cd-cl', 'ld-alpha'];
     await expect.poll(() => page.locator('[data-plot="ld-alpha"]').getAttribute('data-error-bars')).toBe('shown');
+    // charts redraw at most every 250 ms (ChartCanvas.vue): let the last redraw land before reading pixels
+    await page.waitForTimeout(400);
     const withBars = await Promise.all(ids.map((id) => ink(page, `[data-plot="${id}"] canvas`)));
     await shot(page, 'plots-error-bars');
     await toggle.uncheck();
     await expect.poll(() => page.locator('[data-plot="ld-alpha"]').getAttribute('data-error-bars')).toBe('off');
+    await page.waitForTimeout(400);
     const without = await Promise.all(ids.map((id) => ink(page, `[data-plot="${id}"] canvas`)));
     // every plot loses the ink of its bars (L/D's are tens of pixels long at low drag)
     ids.forEach((id, i) => expect(withBars[i]!, id).toBeGreaterThan(without[i]! + 30));

@@ -211,7 +211,7 @@ describe('characteristics', () => {
     const ctx = await sampleContext();
     const w = mountIn(FitsView, ctx);
     const headers = w.findAll('thead th').map((h) => h.text());
-    expect(headers).toEqual(['Characteristic', 'Unit', '101 · clean', '102 · flap 10', '103 · flap 20', '104 · clean', '201 · 2D section']);
+    expect(headers).toEqual(['Characteristic', 'Unit', '101 · clean', '102 · flap 10', '103 · flap 20', '104 · clean', '201 · 2D section (2D)']);
     const oswald = w.find('tr[data-fit="oswald_e"]');
     const cells = oswald.findAll('td.num');
     expect(cells[4]!.text()).toBe('— not defined for a 2D section');

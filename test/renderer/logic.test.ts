@@ -4,23 +4,23 @@
  * fitted-characteristic rows, column mapping, setup form, exports and clipboard text.
  */
 import { describe, expect, it } from 'vitest';
-import { readSetup, reduceRun, pointsCsv } from '../../core/reduction/engine.ts';
+import { readSetup, reduceRun } from '../../core/reduction/engine.ts';
 import { attempt } from '../../core/contract/messages.ts';
 import { provenanceOf } from '../../core/formats/provenance.ts';
 import type { PointResult, ReductionResult } from '../../core/reduction/pipeline.ts';
 import { readRunText } from '../../core/formats/runFile.ts';
-import { choiceProblems, initialChoices, mappingFrom, needsMapping, type CellChoice } from '../../renderer/src/logic/columnMapping.ts';
+import { ASSIGNMENT_LABELS, choiceProblems, choicesFromDocument, columnMapDocument, initialChoices, mappingFrom, needsMapping, type CellChoice } from '../../renderer/src/logic/columnMapping.ts';
 import { deltas, interpolate, curveOf } from '../../renderer/src/logic/delta.ts';
 import { fitHeader, fitRows, fitsCsvExport, pointsCsvExport } from '../../renderer/src/logic/exportTables.ts';
 import { fitCell, FIT_ROWS, fitRowsFor } from '../../renderer/src/logic/fitRows.ts';
 import { fixed, millions, significant } from '../../renderer/src/logic/numberFormat.ts';
-import { configurationOrder, RUN_COLOURS, styleFor } from '../../renderer/src/logic/palette.ts';
+import { assignStyles, colourOf, configurationOrder, RUN_COLOURS, styleFor } from '../../renderer/src/logic/palette.ts';
 import { columnsWithValues } from '../../renderer/src/logic/pointColumns.ts';
 import type { ExportProvenance } from '../../renderer/src/logic/provenance.ts';
 import { checkSetup, draftFrom, setupFrom } from '../../renderer/src/logic/setupForm.ts';
 import { toTsv } from '../../renderer/src/logic/tsv.ts';
-import { sheetName, workbookSheets } from '../../renderer/src/logic/xlsxExport.ts';
-import { boxRange, wheelFactor, zoomAbout } from '../../renderer/src/logic/zoom.ts';
+import { numberFormat, pointSheet, sheetName, workbookSheets } from '../../renderer/src/logic/xlsxExport.ts';
+import { boxRange, typedRange, wheelFactor, zoomAbout } from '../../renderer/src/logic/zoom.ts';
 import { sniffHeader } from '../../renderer/src/worker/headerSniff.ts';
 import { sample } from './support.ts';
 
@@ -53,14 +53,70 @@ describe('palette', () => {
     expect(RUN_COLOURS[RUN_COLOURS.length - 1]).toBe('#F0E442');
   });
 
-  it('gives configurations distinct markers and dashes, runs distinct colours', () => {
+  it('gives configurations distinct markers, runs distinct colours', () => {
     const order = configurationOrder(['clean', 'flap 10', 'clean', null, 'flap 20']);
     expect(order).toEqual(['clean', 'flap 10', '', 'flap 20']);
     const styles = order.map((_, i) => styleFor(i, i));
     expect(new Set(styles.map((s) => s.marker)).size).toBe(4);
-    expect(new Set(styles.map((s) => s.dash.join(','))).size).toBe(4);
     expect(new Set(styles.map((s) => s.colour)).size).toBe(4);
-    expect(styleFor(9, 0).colour).toBe(RUN_COLOURS[1]);
+  });
+
+  it('never gives two of a thousand runs the same colour, and only valid hex colours', () => {
+    const colours = Array.from({ length: 1000 }, (_, i) => colourOf(i));
+    expect(new Set(colours).size).toBe(1000);
+    for (const c of colours) expect(c).toMatch(/^#[0-9A-F]{6}$/);
+    expect(colourOf(8)).not.toBe(RUN_COLOURS[0]);
+  });
+
+  it('draws the second run of a configuration open and dashed, the first filled and solid', () => {
+    const styles = assignStyles(
+      [
+        { file: 'a', configuration: 'clean' },
+        { file: 'b', configuration: 'flap' },
+        { file: 'c', configuration: 'clean' },
+      ],
+      ['clean', 'flap'],
+    );
+    const [a, b, c] = ['a', 'b', 'c'].map((f) => styles.get(f)!);
+    expect(a!.marker).toBe(c!.marker);
+    expect(a!.marker).not.toBe(b!.marker);
+    expect([a!.filled, a!.dash.length, a!.repeat]).toEqual([true, 0, 0]);
+    expect([c!.filled, c!.dash.length > 0, c!.repeat]).toEqual([false, true, 1]);
+    expect(new Set([a!.colour, b!.colour, c!.colour]).size).toBe(3);
+  });
+
+  it('honours a chosen colour slot unless an earlier run holds it, and fills the gaps with the rest', () => {
+    const styles = assignStyles(
+      [
+        { file: 'a', configuration: null },
+        { file: 'b', configuration: null, chosen: 0 },
+        { file: 'c', configuration: null, chosen: 0 },
+      ],
+      [''],
+    );
+    expect(styles.get('b')!.colour).toBe(RUN_COLOURS[0]);
+    expect(styles.get('a')!.colour).toBe(RUN_COLOURS[1]);
+    expect(styles.get('c')!.colour).toBe(RUN_COLOURS[2]);
+  });
+
+  it('spends no colour on runs left out of the list (only reduced runs are passed in)', () => {
+    const styles = assignStyles([{ file: 'second', configuration: null }], ['']);
+    expect(styles.get('second')!.colour).toBe(RUN_COLOURS[0]);
+  });
+});
+
+describe('typed axis ranges', () => {
+  it('takes two numbers, lower first, a decimal comma too', () => {
+    expect(typedRange('-5', '20', 'α')).toEqual({ range: { min: -5, max: 20 }, problem: null });
+    expect(typedRange('0,5', '1.5', 'CL')).toEqual({ range: { min: 0.5, max: 1.5 }, problem: null });
+  });
+  it('leaves the axis automatic when both ends are empty', () => {
+    expect(typedRange(' ', '', 'α')).toEqual({ range: null, problem: null });
+  });
+  it('says what is wrong with one end missing, text, or the ends the wrong way round', () => {
+    expect(typedRange('1', '', 'α [deg]').problem).toBe('α [deg]: give both ends as numbers, or leave both empty for the full range');
+    expect(typedRange('a', '2', 'α').problem).toMatch(/give both ends as numbers/);
+    expect(typedRange('3', '3', 'CL').problem).toBe('CL: the lower end (3) must be below the upper end (3)');
   });
 });
 
@@ -186,12 +242,56 @@ describe('header sniffing', () => {
     expect(h.line).toBe(4);
     expect(h.delimiter).toBe(';');
     expect(h.cells).toEqual([
-      { name: 'Alpha', unit: 'deg' },
-      { name: 'DP_Pitot', unit: 'kPa' },
+      { name: 'Alpha', unit: 'deg', unitFrom: 'brackets' },
+      { name: 'DP_Pitot', unit: 'kPa', unitFrom: 'brackets' },
       { name: 'Lift', unit: null },
     ]);
     expect(h.preview).toEqual([['1,5', '0,6', '3'], ['2,0', '0,6', '4']]);
     expect(h.signature).toBe('alpha [deg];dp_pitot [kpa];lift');
+  });
+
+  it('reads units written in parentheses and in a units row below the header', () => {
+    const h = sniffHeader('AoA (deg),Pitot (mbar),Lift,Drag,Note\n,,kgf,N,-\n1,2,3,4,x\n')!;
+    expect(h.cells.map((c) => [c.unit, c.unitFrom ?? null])).toEqual([
+      ['deg', 'parentheses'],
+      ['mbar', 'parentheses'],
+      ['kgf', 'units row'],
+      ['N', 'units row'],
+      ['-', 'units row'],
+    ]);
+    expect(h.unitsRow).toBe(2);
+    expect(h.preview).toEqual([['1', '2', '3', '4', 'x']]);
+    // a row of numbers is data, not units
+    expect(sniffHeader('a,b\n1,2\n')!.unitsRow).toBeUndefined();
+  });
+
+  it('starts every column with a stated unit: the file\'s, else the usual one marked as not in the file', () => {
+    const h = sniffHeader('AoA (deg),pitot (mbar),lift\n1,2,3\n')!;
+    const c = initialChoices(h, null);
+    expect(c.map((x) => [x.assign, x.unit, x.unitFrom ?? null])).toEqual([
+      ['alpha', 'deg', 'parentheses'],
+      ['dp_pitot', 'mbar', 'parentheses'],
+      ['lift', 'N', null],
+    ]);
+    expect(ASSIGNMENT_LABELS.dp_pitot).toMatch(/pitot/);
+    expect(Object.values(ASSIGNMENT_LABELS).some((l) => /default|_/.test(l))).toBe(false);
+  });
+
+  it('writes and reads column-map files; a key the file lacks, an unknown channel or unit is named', () => {
+    const h = sniffHeader('AoA (deg),pitot (mbar),lift,note\n1,2,3,x\n')!;
+    const c = initialChoices(h, null);
+    const doc = columnMapDocument(c, h);
+    expect(doc).toEqual({ format: 'sweepbook-columns', version: 1, columns: { 'AoA (deg)': { channel: 'alpha', unit: 'deg' }, 'pitot (mbar)': { channel: 'dp_pitot', unit: 'mbar' }, lift: { channel: 'lift', unit: 'N' }, note: null } });
+    const back = choicesFromDocument(JSON.stringify(doc), h, c.map((x) => ({ ...x, assign: 'ignore' as const, unit: '' })), 'map.json');
+    expect(back.problems).toEqual([]);
+    expect(back.choices.map((x) => [x.assign, x.unit])).toEqual(c.map((x) => [x.assign, x.unit]));
+    const bad = choicesFromDocument(JSON.stringify({ format: 'sweepbook-columns', version: 1, columns: { Pbar: { channel: 'p_static' }, lift: { channel: 'lifts' }, 'AoA (deg)': { channel: 'alpha', unit: 'Pa' } } }), h, c, 'map.json');
+    expect(bad.problems).toEqual([
+      'map.json: columns."Pbar": this file has no such column',
+      'map.json: columns."lift".channel: "lifts" is not a channel',
+      'map.json: columns."AoA (deg)".unit: "Pa" is not a unit of angle of attack α',
+    ]);
+    expect(choicesFromDocument('{', h, c, 'map.json').problems[0]).toMatch(/^map\.json: not JSON/);
   });
 
   it('waits for the header line to be complete', () => {
@@ -239,14 +339,27 @@ describe('exports', () => {
     runs: [{ name: '101', configuration: 'clean', file: 'run-101-clean.csv', record }],
   };
 
-  it('writes the point table exactly as core does, after its own provenance lines', () => {
+  it('writes the point table as the report table after raw, unquoted provenance lines a comment-skipping reader skips', async () => {
     const csv = pointsCsvExport(prov, result);
-    const own = csv.split('\n').filter((l) => l.includes('exported_') || l.includes('campaign:') || l.includes('units:') || l.includes('un-suffixed') || l.includes('Caution'));
-    expect(own.length).toBeGreaterThanOrEqual(5);
-    expect(csv.endsWith(pointsCsv(result, record))).toBe(true);
-    // text from the campaign cannot become a formula or break the CSV: one quoted cell starting with "#"
-    expect(csv).toContain('"# campaign: =HYPERLINK(""x""), ""quoted"""');
+    const lines = csv.split('\n');
+    const comments = lines.filter((l) => l.startsWith('# '));
+    expect(comments.some((l) => l.startsWith('# exported_at: '))).toBe(true);
+    expect(comments.some((l) => l.startsWith('# Caution'))).toBe(true);
+    expect(lines.some((l) => l.startsWith('"#'))).toBe(false);
     expect(csv).toContain('# run: run-101-clean.csv sha256 ' + 'ab'.repeat(32));
+    // text from the campaign cannot become a formula when a spreadsheet splits the line at its commas
+    expect(csv).toContain('# campaign: =HYPERLINK("x"), "quoted"');
+    expect(csv).not.toMatch(/,\s*=/);
+    const Papa = (await import('papaparse')).default;
+    const parsed = Papa.parse<string[]>(csv, { comments: '#', skipEmptyLines: true });
+    expect(parsed.errors).toEqual([]);
+    const [header, units, ...rows] = parsed.data;
+    expect(header!.slice(0, 7)).toEqual(['point', 'samples', 'alpha', 'CL', 'CD', 'Cm', 'L/D']);
+    expect(units!.slice(0, 8)).toEqual(['-', '-', 'deg', '-', '-', '-', '-', 'Pa']);
+    expect(rows.length).toBe(result.points.length);
+    for (const r of rows) for (const cell of r.slice(1)) if (cell !== '') expect(cell.replace(/^-/, '').replace(/e.*$/, '').replace('.', '').replace(/^0+/, '').length, cell).toBeLessThanOrEqual(7);
+    const cl = header!.indexOf('CL');
+    rows.forEach((r, i) => expect(Math.abs(Number(r[cl]) - result.points[i]!.cl!)).toBeLessThanOrEqual(0.5e-4 + 1e-12));
   });
 
   it('writes the fit summary with the linear range split into two columns', () => {
@@ -278,7 +391,20 @@ describe('exports', () => {
     const sheets = workbookSheets(prov, [{ name: '101', configuration: '=HYPERLINK("http://x","flap")', file: 'run-101-clean.csv', result, asMeasured: result }]);
     const texts = sheets.flatMap((sh) => (sh.data as unknown[][]).flat()).map((c) => (c && typeof c === 'object' && 'value' in c ? (c as { value: unknown }).value : c)).filter((v): v is string => typeof v === 'string');
     expect(texts.some((t) => t.includes('HYPERLINK'))).toBe(true);
-    expect(texts.filter((t) => /^[=+\-@\t\r]/.test(t))).toEqual([]);
+    // the units row's "-" (a ratio) is a text cell, which a spreadsheet never evaluates
+    expect(texts.filter((t) => t !== '-' && /^[=+\-@\t\r]/.test(t))).toEqual([]);
+  });
+
+  it('writes point sheets with trade names, a units row, both frozen, number formats and widths', () => {
+    const sheet = pointSheet('101', result);
+    const [head, units, first] = sheet.data as { value: unknown; format?: string }[][];
+    expect(head!.slice(0, 4).map((c) => c.value)).toEqual(['point', 'samples', 'alpha', 'CL']);
+    expect(units![2]!.value).toBe('deg');
+    expect(sheet.stickyRowsCount).toBe(2);
+    expect(first![3]!.format).toBe('0.0000');
+    expect(first![3]!.value).toBe(result.points[0]!.cl);
+    expect(sheet.columns!.every((c) => (c.width ?? 0) >= 9)).toBe(true);
+    expect(numberFormat({ key: 'reynolds', header: 'Re', unit: '-', decimals: 'sig:4' })).toBe('0.000E+00');
   });
 
   it('copies tab-separated text a spreadsheet cannot run as a formula', () => {

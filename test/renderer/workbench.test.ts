@@ -120,7 +120,7 @@ describe('workbench', () => {
     const e = ctx.wb.state.entries['run-301.csv']!;
     expect(e.status).toBe('needs-mapping');
     expect(e.errors[0]).toMatch(/^run-301\.csv:7: missing required column "alpha"/);
-    expect(e.header?.cells[0]).toEqual({ name: 'AoA', unit: 'deg' });
+    expect(e.header?.cells[0]).toEqual({ name: 'AoA', unit: 'deg', unitFrom: 'brackets' });
 
     await ctx.wb.applyMapping('run-301.csv', { names: { aoa: 'alpha', pitot: 'dp_pitot' }, units: {} });
     expect(ctx.wb.state.entries['run-301.csv']!.status).toBe('ready');
@@ -134,6 +134,13 @@ describe('workbench', () => {
     // same numbers as the sample run it was made from (same setup, no tare on an imported run)
     const r302 = ctx.wb.state.entries['run-302.csv']!.result!;
     expect(r302.points.length).toBe(15);
+    // neither is taken as settled: both wait for the user's choice of setup and tare
+    expect(ctx.wb.state.unconfirmed).toEqual(['run-301.csv', 'run-302.csv']);
+    ctx.wb.confirmImport('run-301.csv', 'KM-7 wing', 'windoff-tare.csv');
+    await ctx.wb.settled();
+    expect(ctx.wb.state.unconfirmed).toEqual(['run-302.csv']);
+    expect(ctx.wb.runOf('run-301.csv')).toMatchObject({ setup: 'KM-7 wing', tare: 'windoff-tare.csv' });
+    expect(ctx.wb.state.entries['run-301.csv']!.result!.run.tare_file).toBe('windoff-tare.csv');
   });
 
   it('does not add a file twice, and locates a missing run by importing its file', async () => {

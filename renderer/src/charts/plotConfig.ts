@@ -37,17 +37,27 @@ export function dataset(s: Series): ChartDataset<'scatter'> {
     borderColor: s.style.colour,
     backgroundColor: s.style.colour,
     pointBorderColor: s.style.colour === '#F0E442' ? '#6b6310' : s.style.colour,
+    // a repeat of a configuration: an open, larger ring, so it shows even when it lies on its twin
+    pointBackgroundColor: s.style.filled ? s.style.colour : 'rgba(255,255,255,0)',
+    pointBorderWidth: s.style.filled ? 1 : 1.8,
     pointStyle: s.style.marker,
-    pointRadius: 4,
-    pointHoverRadius: 6,
+    pointRadius: s.style.filled ? 4 : 6,
+    pointHoverRadius: s.style.filled ? 6 : 8,
     borderWidth: 1.8,
     borderDash: [...s.style.dash],
   };
 }
 
-/** "0.5123 ± 0.0031" for a read-out, the uncertainty only where the point has one. */
-export function readOut(value: number, u: number | undefined, decimals: number): string {
-  return u === undefined ? value.toFixed(decimals) : `${value.toFixed(decimals)} ± ${u.toFixed(decimals)}`;
+/** "0.5123 ± 0.0031" for a read-out, the uncertainty only where the point has one, then the unit if any. */
+export function readOut(value: number, u: number | undefined, decimals: number, unit = ''): string {
+  const text = u === undefined ? value.toFixed(decimals) : `${value.toFixed(decimals)} ± ${u.toFixed(decimals)}`;
+  return unit ? `${text} ${unit}` : text;
+}
+
+/** The unit in an axis title ("α [deg]" → "deg"); none for a ratio ("[–]", "[-]") or no brackets. */
+export function unitOf(title: string): string {
+  const m = /\[([^\]]+)\]\s*$/.exec(title);
+  return m && !/^[–-]$/.test(m[1]!.trim()) ? m[1]!.trim() : '';
 }
 
 /**
@@ -72,8 +82,8 @@ export function plotConfig(
       layout: { padding: { bottom: footer.length * FOOTER_LINE_PX + (footer.length ? 8 : 0), right: 8 } },
       interaction: { mode: 'nearest', intersect: false },
       scales: {
-        x: { type: 'linear', title: { display: true, text: axes.xTitle, font: { size: 13, weight: 'bold' } }, min: limits.x?.min, max: limits.x?.max, grid: { color: '#e3e6ea' } },
-        y: { type: 'linear', title: { display: true, text: axes.yTitle, font: { size: 13, weight: 'bold' } }, min: limits.y?.min, max: limits.y?.max, grid: { color: '#e3e6ea' } },
+        x: { type: 'linear', title: { display: true, text: axes.xTitle, font: { size: 13, weight: 'bold' } }, min: limits.x?.min, max: limits.x?.max, grid: { color: '#e3e6ea' }, ticks: { includeBounds: false } },
+        y: { type: 'linear', title: { display: true, text: axes.yTitle, font: { size: 13, weight: 'bold' } }, min: limits.y?.min, max: limits.y?.max, grid: { color: '#e3e6ea' }, ticks: { includeBounds: false } },
       },
       plugins: {
         legend: { display: canvasLegend, position: 'bottom', labels: { usePointStyle: true, boxHeight: 7, padding: 14 } },
@@ -81,7 +91,7 @@ export function plotConfig(
           callbacks: {
             label: (item: TooltipItem<'scatter'>) => {
               const raw = item.raw as PlotPoint;
-              return `${item.dataset.label}: ${axes.xName} = ${readOut(item.parsed.x!, raw.xu, axes.xDecimals)}, ${axes.yName} = ${readOut(item.parsed.y!, raw.yu, axes.yDecimals)}`;
+              return `${item.dataset.label}: ${axes.xName} = ${readOut(item.parsed.x!, raw.xu, axes.xDecimals, unitOf(axes.xTitle))}, ${axes.yName} = ${readOut(item.parsed.y!, raw.yu, axes.yDecimals, unitOf(axes.yTitle))}`;
             },
           },
         },

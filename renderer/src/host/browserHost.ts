@@ -1,12 +1,24 @@
 /**
- * The browser host (DESIGN §1): the same interface as the Electron preload, built from what a web page
+ * The browser host (docs/architecture.md §1): the same interface as the Electron preload, built from what a web page
  * has — file inputs, dropped files, downloads, fetch for the bundled sample and local storage for the
  * recent list. Files are held in memory as Blobs under opaque ids; nothing here ever sees a path.
  */
 import type { ChosenFile, OpenedCampaign, SweepbookHost } from '../../../core/index.ts';
-import type { HostExtras, OpenedRun } from './hostAccess.ts';
+import type { HostExtras, KeptSession, OpenedRun, RestoredSession } from './hostAccess.ts';
+import { getJson, openKeptStore, putJson, type KeptStore } from './keptStore.ts';
 
 const RECENT_KEY = 'sweepbook.recentCampaigns';
+const SESSION_KEY = 'session';
+const FILE_PREFIX = 'file:';
+/** Run files larger than this are not kept between visits (they come back as "not found", to be located). */
+const KEEP_FILE_LIMIT = 256 * 1024 * 1024;
+
+interface KeptRecord {
+  campaignText: string;
+  savedText: string;
+  campaignFile: string | null;
+  files: { file: string; name: string; digest: string; size: number }[];
+}
 const RECENT_MAX = 8;
 const SAMPLE_FOLDER = 'sample-runs/';
 const SAMPLE_CAMPAIGN = 'sweepbook-campaign.json';
@@ -62,8 +74,11 @@ export function createBrowserHost(win: Window): SweepbookHost & HostExtras {
     return f.blob;
   };
 
+  // set once the working campaign has been kept: then a reload or closing the tab loses nothing, and
+  // the browser's "leave the page?" question is only asked where it cannot be kept
+  let keptOnce = false;
   win.addEventListener('beforeunload', (e) => {
-    if (!dirty) return;
+    if (!dirty || keptOnce) return;
     e.preventDefault();
     // older engines need returnValue set to ask before closing
     e.returnValue = '';
@@ -101,22 +116,65 @@ export function createBrowserHost(win: Window): SweepbookHost & HostExtras {
     win.setTimeout(() => URL.revokeObjectURL(url), 60_000);
   }
 
-  function readRecent(): RecentEntry[] {
+  // opened once: encrypted, per-origin storage of the working campaign, its files and the recent list
+  let storeOpened: Promise<KeptStore | null> | undefined;
+  const store = () => (storeOpened ??= openKeptStore(win).catch(() => null));
+  // keeps run one after another, so a slow write never lands after a newer one
+  let keeping: Promise<void> = Promise.resolve();
+
+  // without IndexedDB the recent list falls back to local storage (per origin, unencrypted)
+  function readLocal(): RecentEntry[] | null {
     try {
-      const list = JSON.parse(win.localStorage.getItem(RECENT_KEY) ?? '[]') as RecentEntry[];
-      return Array.isArray(list) ? list : [];
+      return JSON.parse(win.localStorage.getItem(RECENT_KEY) ?? '[]') as RecentEntry[];
     } catch {
-      return [];
+      return null;
     }
   }
 
-  function remember(entry: RecentEntry): void {
-    const list = [entry, ...readRecent().filter((e) => e.id !== entry.id && e.name !== entry.name)].slice(0, RECENT_MAX);
+  async function readRecent(): Promise<RecentEntry[]> {
+    const s = await store();
+    const list = s ? await getJson<RecentEntry[]>(s, RECENT_KEY) : readLocal();
+    return Array.isArray(list) ? list : [];
+  }
+
+  async function remember(entry: RecentEntry): Promise<void> {
+    const list = [entry, ...(await readRecent()).filter((e) => e.id !== entry.id && e.name !== entry.name)].slice(0, RECENT_MAX);
     try {
-      win.localStorage.setItem(RECENT_KEY, JSON.stringify(list));
+      const s = await store();
+      if (s) await putJson(s, RECENT_KEY, list);
+      else win.localStorage.setItem(RECENT_KEY, JSON.stringify(list));
     } catch {
-      // storage full or disabled: the recent list is a convenience, the save itself has happened
+      // storage full or refused: the recent list is a convenience, the save itself has happened
     }
+  }
+
+  const digests = new Map<string, string>();
+  async function digestOf(id: string): Promise<string> {
+    let d = digests.get(id);
+    if (!d) digests.set(id, (d = await sha256(id)));
+    return d;
+  }
+
+  async function keepNow(session: KeptSession): Promise<void> {
+    const s = await store();
+    if (!s) return;
+    const present = new Set(await s.keys());
+    const record: KeptRecord = { campaignText: session.campaignText, savedText: session.savedText, campaignFile: session.campaignFile, files: [] };
+    for (const { file, id } of session.files) {
+      const f = files.get(id);
+      if (!f || f.blob.size > KEEP_FILE_LIMIT) continue;
+      const digest = await digestOf(id);
+      if (!present.has(FILE_PREFIX + digest)) {
+        await s.put(FILE_PREFIX + digest, new Uint8Array(await f.blob.arrayBuffer()));
+        present.add(FILE_PREFIX + digest);
+      }
+      record.files.push({ file, name: f.name, digest, size: f.blob.size });
+    }
+    await putJson(s, SESSION_KEY, record);
+    keptOnce = true;
+    // files no longer named by the kept campaign go
+    const wanted = new Set(record.files.map((f) => FILE_PREFIX + f.digest));
+    for (const k of present) if (k.startsWith(FILE_PREFIX) && !wanted.has(k)) await s.delete(k);
   }
 
   async function sha256(id: string): Promise<string> {
@@ -125,12 +183,15 @@ export function createBrowserHost(win: Window): SweepbookHost & HostExtras {
     return hex(await subtle.digest('SHA-256', await blobOf(id).arrayBuffer()));
   }
 
-  /** Campaign text plus the run files chosen with it, matched by file name. */
+  /**
+   * Campaign text plus the run files chosen with it, matched by file name. Hashes are left to the loader,
+   * which works them out as it reads each run, so a campaign of a thousand runs is listed at once.
+   */
   async function resolveCampaign(id: string, name: string, text: string, available: Map<string, ChosenFile>): Promise<OpenedCampaign> {
     const runs: OpenedRun[] = [];
     for (const file of filesNamedBy(text)) {
       const chosen = available.get(baseName(file));
-      runs.push({ file, id: chosen?.id ?? null, sha256: chosen ? await sha256(chosen.id) : null, size: chosen?.size });
+      runs.push({ file, id: chosen?.id ?? null, sha256: null, size: chosen?.size });
     }
     return { id, name, text, runs };
   }
@@ -197,7 +258,7 @@ export function createBrowserHost(win: Window): SweepbookHost & HostExtras {
       const available = new Map<string, ChosenFile>();
       for (const f of list) if (f !== campaignFile) available.set(f.name, keep(f.name, f));
       const id = keep(campaignFile.name, campaignFile).id;
-      remember({ id: campaignFile.name, name: campaignFile.name, text, savedAt: new Date().toISOString() });
+      await remember({ id: campaignFile.name, name: campaignFile.name, text, savedAt: new Date().toISOString() });
       return resolveCampaign(id, campaignFile.name, text, available);
     },
 
@@ -209,7 +270,7 @@ export function createBrowserHost(win: Window): SweepbookHost & HostExtras {
       const id = options.id && !options.saveAs ? options.id : keep(name, blob).id;
       files.set(id, { name, blob });
       download(name, blob);
-      remember({ id: name, name, text, savedAt: new Date().toISOString() });
+      await remember({ id: name, name, text, savedAt: new Date().toISOString() });
       return { id, name };
     },
 
@@ -220,14 +281,37 @@ export function createBrowserHost(win: Window): SweepbookHost & HostExtras {
     },
 
     async recentCampaigns() {
-      return readRecent().map(({ id, name }) => ({ id, name }));
+      return (await readRecent()).map(({ id, name }) => ({ id, name }));
     },
 
     async openRecentCampaign(id) {
-      const entry = readRecent().find((e) => e.id === id);
+      const entry = (await readRecent()).find((e) => e.id === id);
       if (!entry) return null;
       // a web page keeps no access to files between visits: the runs have to be chosen again
       return resolveCampaign(keep(entry.name, new Blob([entry.text])).id, entry.name, entry.text, new Map());
+    },
+
+    keepSession(session) {
+      keeping = keeping.then(() => keepNow(session)).catch(() => undefined);
+      return keeping;
+    },
+
+    async restoreSession(): Promise<RestoredSession | null> {
+      const s = await store();
+      const record = s ? await getJson<KeptRecord>(s, SESSION_KEY) : null;
+      if (!s || !record || typeof record.campaignText !== 'string') return null;
+      const runs: OpenedRun[] = [];
+      for (const f of record.files ?? []) {
+        const bytes = await s.get(FILE_PREFIX + f.digest);
+        if (!bytes) continue;
+        const chosen = keep(f.name, new Blob([bytes as BlobPart]));
+        digests.set(chosen.id, f.digest);
+        runs.push({ file: f.file, id: chosen.id, sha256: f.digest, size: chosen.size });
+      }
+      // files the campaign names but the store lost come back as "not found", to be located
+      for (const file of filesNamedBy(record.campaignText)) if (!runs.some((r) => r.file === file)) runs.push({ file, id: null, sha256: null });
+      const name = record.campaignFile ?? 'campaign.json';
+      return { opened: { id: keep(name, new Blob([record.campaignText])).id, name, text: record.campaignText, runs }, savedText: record.savedText, campaignFile: record.campaignFile };
     },
 
     onMenuCommand() {

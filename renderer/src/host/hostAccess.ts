@@ -15,6 +15,30 @@ export interface HostExtras {
   acceptDroppedFiles?(files: File[]): Promise<ChosenFile[]>;
   /** One dropped file turned into a chosen file (the Electron preload, by the file's path). */
   adoptDroppedFile?(file: File): Promise<ChosenFile>;
+  /**
+   * Keep the working campaign and the files it was opened with, so a reload or a restart of the browser
+   * host finds them again (the browser host; the desktop window works on files on disk instead).
+   */
+  keepSession?(session: KeptSession): Promise<void>;
+  /** File → Open Recent in a native menu (the Electron preload): the id to pass to openRecentCampaign. */
+  onOpenRecent?(listener: (id: string) => void): () => void;
+  /** The campaign kept by keepSession, its files chosen again under new ids; null when nothing is kept. */
+  restoreSession?(): Promise<RestoredSession | null>;
+}
+
+export interface KeptSession {
+  campaignText: string;
+  /** What the campaign was when last saved or opened (unsaved changes stay unsaved after a reload). */
+  savedText: string;
+  campaignFile: string | null;
+  /** Run and tare files by their name in the campaign, with the host's id of their content. */
+  files: { file: string; id: string }[];
+}
+
+export interface RestoredSession {
+  opened: OpenedCampaign;
+  savedText: string;
+  campaignFile: string | null;
 }
 
 export type Host = SweepbookHost & HostExtras;

@@ -183,3 +183,61 @@ export function fitDeltas(run: ReductionResult, baseline: ReductionResult): FitD
     return { key: spec.key, label: spec.label, unit: spec.unit, decimals: spec.decimals, run: a, baseline: b, delta, u, note };
   });
 }
+
+/**
+ * Why a run cannot be compared with the baseline, or null when it can: a 2D section's coefficients are
+ * per unit span and corrected as a section, a 3D model's are whole-model; subtracting one from the other
+ * means nothing.
+ */
+export function incomparable(run: ReductionResult, baseline: ReductionResult, runName: string, baselineName: string): string | null {
+  const kind = (r: ReductionResult) => (r.corrections.kind === '2d' ? '2D section' : '3D model');
+  if (run.corrections.kind === baseline.corrections.kind) return null;
+  return `${runName} is a ${kind(run)} and the baseline ${baselineName} a ${kind(baseline)}: their coefficients are not on the same basis, so no difference is formed. Choose a baseline of the same kind.`;
+}
+
+/**
+ * The attached-flow branch of a run as CD against CL: the points up to the highest CL in α order (past
+ * the stall CL is no longer single-valued), sorted by CL, equal CL merged by their mean.
+ */
+export function dragPolarBranch(points: readonly PointResult[]): Curve {
+  const rows = points
+    .filter((p) => p.alpha_deg !== null && p.cl !== null && p.cd !== null && Number.isFinite(p.cl) && Number.isFinite(p.cd))
+    .sort((a, b) => a.alpha_deg! - b.alpha_deg!);
+  let peak = -1;
+  rows.forEach((p, i) => {
+    if (peak < 0 || p.cl! > rows[peak]!.cl!) peak = i;
+  });
+  // curveOf sorts and merges by its "alpha" field: here that is CL
+  return curveOf(
+    rows.slice(0, peak + 1).map((p) => ({ ...p, alpha_deg: p.cl })),
+    (p) => p.cd,
+    (p) => p.u_cd ?? null,
+  );
+}
+
+export interface MatchedLiftRow {
+  cl: number;
+  value: number;
+  baseline: number;
+  delta: number;
+  u: number | null;
+}
+
+/**
+ * ΔCD at constant lift: at each CL of the run's attached-flow branch that lies inside the baseline's,
+ * ΔCD = CD_run(CL) − CD_baseline(CL), the baseline's drag polar interpolated linearly in CL (no
+ * extrapolation); u(ΔCD) as for the differences at matched α. The usual way to compare the drag of two
+ * configurations (Barlow, Rae & Pope, 3rd ed., §13: increments at constant CL).
+ */
+export function dragAtMatchedLift(run: readonly PointResult[], baseline: readonly PointResult[]): MatchedLiftRow[] {
+  const base = dragPolarBranch(baseline);
+  const own = dragPolarBranch(run);
+  const rows: MatchedLiftRow[] = [];
+  own.alpha.forEach((cl, i) => {
+    const b = interpolate(base, cl);
+    if (b === null) return;
+    const value = own.value[i]!;
+    rows.push({ cl, value, baseline: b, delta: value - b, u: differenceUncertainty(own.u[i] ?? null, interpolateUncertainty(base, cl)) });
+  });
+  return rows;
+}

@@ -1,27 +1,29 @@
 /**
- * Export contents: the point table and the fit summary as CSV text and as sheet rows. Numbers stay full
- * precision; the point columns are the engine's (core/engine.ts POINT_COLUMNS), so an export equals the
- * command line's output for the same run and setup.
+ * Export contents: the point table and the fit summary as CSV text and as sheet rows. The point table
+ * CSV is core's report table (core/formats/reportTable.ts: trade names, a units row, numbers to the
+ * digits they support); the sheets keep full precision under a number format.
  */
-import { csvLine, toCsv, type Cell } from '../../../core/index.ts';
-import { POINT_COLUMNS, pointsCsv } from '../../../core/index.ts';
+import { commentLine, provenanceLines as coreProvenanceLines, reportPointsCsv, toCsv, type Cell } from '../../../core/index.ts';
+import { POINT_COLUMNS } from '../../../core/index.ts';
 import type { FitResult } from '../../../core/index.ts';
 import type { ReductionResult } from '../../../core/index.ts';
 import { CAUTION, exportProvenanceLines, type ExportProvenance } from './provenance.ts';
 
-/** Comment lines ("# key: value"), each one CSV cell so commas or formula characters inside stay harmless. */
+/**
+ * Comment lines ("# key: value"), written raw so comment-skipping readers skip them (pandas
+ * `comment='#'`, papaparse `comments`); formula characters after a comma are neutralised (commentLine).
+ */
 export function provenanceCsv(p: ExportProvenance): string {
-  return [...exportProvenanceLines(p), CAUTION].map((l) => csvLine([`# ${l}`])).join('\n') + '\n';
+  return [...exportProvenanceLines(p), CAUTION].map(commentLine).join('\n') + '\n';
 }
 
 /**
- * The point table of one run: the export's own lines, then exactly what the command line writes for the
- * same run (core's provenance lines and the table).
+ * The point table of one run: the export's own lines, the run's provenance as the command line writes
+ * it, then the report table (header, units row, rounded numbers).
  */
 export function pointsCsvExport(p: ExportProvenance, result: ReductionResult): string {
   const record = p.runs[0]?.record;
-  const own = provenanceCsv({ ...p, runs: [] });
-  return own + pointsCsv(result, record);
+  return reportPointsCsv(result, [...exportProvenanceLines({ ...p, runs: [] }), CAUTION, ...(record ? coreProvenanceLines(record) : [])]);
 }
 
 export interface FitSource {
@@ -82,4 +84,15 @@ export function pointRows(result: ReductionResult): { header: string[]; rows: Ce
 /** A file name part from a run name: letters, digits, dot, dash and underscore only. */
 export function safeName(text: string): string {
   return text.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-+|-+$/g, '') || 'run';
+}
+
+/**
+ * A file name part from a campaign or run name, whole words only: a name longer than `max` characters
+ * is cut at the last separator before it, never inside a word.
+ */
+export function fileStem(text: string, max = 80): string {
+  const name = safeName(text);
+  if (name.length <= max) return name;
+  const cut = name.slice(0, max + 1).search(/[-_.][^-_.]*$/);
+  return cut > 0 ? name.slice(0, cut) : name.slice(0, max);
 }

@@ -24,7 +24,7 @@ export interface ExportProvenance {
 
 export const UNITS_NOTE =
   'units: SI (pressure Pa, speed m/s, density kg/m3, viscosity Pa s, temperature K, force N, moment N m), angles in degrees; coefficients dimensionless';
-export const VALUES_NOTE = 'un-suffixed values are free-air corrected; *_uncorrected are as measured in the tunnel';
+export const VALUES_NOTE = 'values are free-air corrected unless named "as measured" (*_uncorrected), which are as measured in the tunnel';
 export const CAUTION =
   'Caution: model-test results at the test Reynolds number. Using them for a full-scale aircraft (stall speed, loads) needs scale-effect assessment; certified data and licensed practice govern.';
 
@@ -50,4 +50,26 @@ export function provenanceFooter(p: ExportProvenance): string {
     return `${r.file} (sha256 ${input ? input.sha256.slice(0, 12) : '?'}…)`;
   });
   return `Sweepbook ${TOOL_VERSION} · exported ${p.exportedAt} · ${p.campaign} · ${runs.join(', ')}`;
+}
+
+/**
+ * Provenance for a figure, a few legible lines: tool, time and campaign, then per run its file and
+ * hash, setup, correction method and factors under their symbols. More than `maxRuns` runs are counted.
+ */
+export function figureProvenance(p: ExportProvenance, factorText: (r: RunRecord) => string, maxRuns = 8): string[] {
+  const lines = [`Sweepbook ${TOOL_VERSION} · exported ${p.exportedAt} · campaign ${p.campaign}`];
+  for (const r of p.runs.slice(0, maxRuns)) {
+    const input = r.record.inputs.find((i) => i.role === 'run');
+    const setup = r.record.inputs.find((i) => i.role === 'setup');
+    const tare = r.record.inputs.find((i) => i.role === 'tare');
+    const c = r.record.corrections;
+    const method = c.enabled ? `${c.kind.toUpperCase()} wall corrections${c.wake ? `, ${c.wake} wake blockage` : ''}` : 'no wall corrections';
+    const factors = factorText(r.record);
+    lines.push(
+      `${r.name}: ${r.file} (sha256 ${input ? input.sha256.slice(0, 12) : '?'}…) · setup ${setup ? setup.name.replace(/^.*setups\["(.*)"\]$/, '"$1"') : '?'} · ${tare ? `tare ${tare.name}` : 'no tare'} · ${method}${factors ? ` (${factors})` : ''}`,
+    );
+  }
+  if (p.runs.length > maxRuns) lines.push(`… and ${p.runs.length - maxRuns} more runs (their provenance is in the CSV and workbook exports)`);
+  lines.push(CAUTION);
+  return lines;
 }

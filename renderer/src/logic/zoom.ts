@@ -23,3 +23,18 @@ export function boxRange(a: number, b: number, pixels: number, minPixels = 6): R
   if (Math.abs(pixels) < minPixels || a === b) return null;
   return { min: Math.min(a, b), max: Math.max(a, b) };
 }
+
+/**
+ * An axis range typed by the user: both ends numbers, the first below the second. Returns the range,
+ * or a message saying what is wrong ("" ends keep that end automatic: null range with no message).
+ */
+export function typedRange(minText: string, maxText: string, axis: string): { range: Range | null; problem: string | null } {
+  const a = minText.trim();
+  const b = maxText.trim();
+  if (a === '' && b === '') return { range: null, problem: null };
+  const min = Number(a.replace(',', '.'));
+  const max = Number(b.replace(',', '.'));
+  if (a === '' || b === '' || !Number.isFinite(min) || !Number.isFinite(max)) return { range: null, problem: `${axis}: give both ends as numbers, or leave both empty for the full range` };
+  if (!(min < max)) return { range: null, problem: `${axis}: the lower end (${a}) must be below the upper end (${b})` };
+  return { range: { min, max }, problem: null };
+}

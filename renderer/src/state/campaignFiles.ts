@@ -24,6 +24,7 @@ export function createCampaignFiles(base: CampaignState, host: Host, loader: Run
     state.tares = {};
     state.banners = [];
     state.mappingFor = null;
+    state.unconfirmed = [];
     state.currentRun = null;
     state.editingSetup = Object.keys(campaign.setups)[0] ?? null;
   }
@@ -167,5 +168,23 @@ export function createCampaignFiles(base: CampaignState, host: Host, loader: Run
     }
   }
 
-  return { newCampaign, openSample, openCampaign, openRecent, refreshRecent, save };
+  /**
+   * Reopen the campaign the host kept from the last visit (the browser host after a reload or restart),
+   * unsaved changes still marked unsaved. False when nothing was kept.
+   */
+  async function restoreSession(): Promise<boolean> {
+    if (!host.restoreSession) return false;
+    try {
+      const kept = await host.restoreSession();
+      if (!kept || !(await adopt(kept.opened, { keepId: false }))) return false;
+      state.campaignFile = kept.campaignFile;
+      state.savedText = kept.savedText;
+      return true;
+    } catch (err) {
+      say('warning', `The campaign kept from the last visit could not be reopened: ${problem(err)}`);
+      return false;
+    }
+  }
+
+  return { newCampaign, openSample, openCampaign, openRecent, refreshRecent, save, restoreSession };
 }

@@ -9,7 +9,7 @@ import type { ReductionResult } from '../../../core/index.ts';
 import type { Host } from '../host/hostAccess.ts';
 import { baseName } from '../host/browserHost.ts';
 import { emptyDraft, type FullScaleDraft } from '../logic/fullScale.ts';
-import { configurationOrder, styleFor, type SeriesStyle } from '../logic/palette.ts';
+import { assignStyles, configurationOrder, styleFor, type SeriesStyle } from '../logic/palette.ts';
 import type { ChannelStats, HeaderInfo } from '../worker/protocol.ts';
 
 export type RunStatus = 'missing' | 'queued' | 'reading' | 'reducing' | 'ready' | 'failed' | 'needs-mapping' | 'needs-setup';
@@ -74,9 +74,14 @@ export interface WorkbenchState {
   errorBars: boolean;
   /** What was typed into the full-scale estimate, kept while other views are shown. */
   fullScale: FullScaleDraft;
+  /** Imported runs whose setup and tare the user has not confirmed yet (ImportChoice.vue). */
+  unconfirmed: string[];
 }
 
 export type ViewId = 'plots' | 'delta' | 'fits' | 'fullscale' | 'detail' | 'samples' | 'setup' | 'analysis'; // 'analysis': balance, upflow, repeatability
+
+/** Swatch colour of a run that is not reduced; it holds none of the run colours. */
+export const UNREDUCED_GREY = '#A0A6AD';
 
 export const RUN_KEY = (file: string) => `run:${file}`;
 export const TARE_KEY = (file: string) => `tare:${file}`;
@@ -119,6 +124,7 @@ export function createCampaignState(host: Host) {
     view: 'plots',
     errorBars: true,
     fullScale: emptyDraft(),
+    unconfirmed: [],
   });
   let bannerId = 0;
 
@@ -159,10 +165,20 @@ export function createCampaignState(host: Host) {
     return basis === 'corrected' ? e.result : e.asMeasured;
   }
   const configurations = computed(() => configurationOrder(state.campaign.runs.map((r) => configurationOf(r.file))));
+  /** Colour, marker and dash of every reduced run (logic/palette.ts): unique colours, none spent on failed runs. */
+  const styles = computed(() =>
+    assignStyles(
+      state.campaign.runs
+        .filter((r) => state.entries[r.file]?.status === 'ready')
+        .map((r) => ({ file: r.file, configuration: configurationOf(r.file), chosen: r.style })),
+      configurations.value,
+    ),
+  );
   function styleOf(file: string): SeriesStyle {
-    const index = state.campaign.runs.findIndex((r) => r.file === file);
-    const run = state.campaign.runs[index];
-    return styleFor(run?.style ?? Math.max(0, index), Math.max(0, configurations.value.indexOf(configurationOf(file) ?? '')));
+    const s = styles.value.get(file);
+    if (s) return s;
+    // not reduced (yet): the configuration's marker in grey, holding no colour
+    return { ...styleFor(0, Math.max(0, configurations.value.indexOf(configurationOf(file) ?? ''))), colour: UNREDUCED_GREY };
   }
   /** Runs shown in plots: ticked and reduced, in campaign order. */
   const shownRuns = computed(() => state.campaign.runs.filter((r) => r.visible !== false && state.entries[r.file]?.status === 'ready').map((r) => r.file));

@@ -6,15 +6,19 @@ import { ref } from 'vue';
 import { renderPng, dataUrlBytes } from '../charts/renderImage.ts';
 import { plotConfig } from '../charts/plotConfig.ts';
 import { anyUncertainty, ERROR_BAR_NOTE } from '../logic/errorBars.ts';
-import { fitsCsvExport, pointsCsvExport, safeName, type FitSource } from '../logic/exportTables.ts';
+import { fileStem, fitsCsvExport, pointsCsvExport, type FitSource } from '../logic/exportTables.ts';
 import { PLOTS, plotSpec, type PlotId } from '../logic/plotSpecs.ts';
-import { exportProvenanceLines, provenanceFooter } from '../logic/provenance.ts';
+import { exportProvenanceLines, figureProvenance, provenanceFooter } from '../logic/provenance.ts';
+import { factorLine } from '../logic/factorNames.ts';
+import { svgFigure } from '../charts/svgFigure.ts';
 import type { Host } from '../host/hostAccess.ts';
 import type { PlotLimits } from './plotLimits.ts';
 import { overlaySeries } from './plotSeries.ts';
 import type { Workbench } from './workbench.ts';
 
 export const PNG_SIZE = { width: 1400, height: 900 } as const;
+/** SVG figures: A4-landscape-like proportions at 96 px per inch. */
+export const SVG_SIZE = { width: 1100, height: 780 } as const;
 
 export interface PrintJob {
   file: string;
@@ -27,7 +31,7 @@ export function createExports(wb: Workbench, host: Host, limits: PlotLimits, doc
   const printJob = ref<PrintJob | null>(null);
 
   function campaignStem(): string {
-    return safeName(wb.state.campaign.name).slice(0, 40);
+    return fileStem(wb.state.campaign.name);
   }
 
   function fitSources(files: readonly string[]): FitSource[] {
@@ -57,7 +61,7 @@ export function createExports(wb: Workbench, host: Host, limits: PlotLimits, doc
       const e = file ? wb.state.entries[file] : undefined;
       if (!file || !e?.result) return nothing('Point table CSV');
       const text = pointsCsvExport(await wb.provenance([file], 'corrected'), e.result);
-      await host.saveExport(`${safeName(e.result.run.name)}-points.csv`, text, 'text/csv');
+      await host.saveExport(`${fileStem(e.result.run.name)}-points.csv`, text, 'text/csv');
     });
 
   const exportFitsCsv = (files: readonly string[] = wb.shownRuns.value) =>
@@ -99,8 +103,8 @@ export function createExports(wb: Workbench, host: Host, limits: PlotLimits, doc
       const axesFont = { size: 20, weight: 'bold' as const };
       cfg.options!.scales!['x']!.title!.font = axesFont;
       cfg.options!.scales!['y']!.title!.font = axesFont;
-      cfg.options!.scales!['x']!.ticks = { font: { size: 17 } };
-      cfg.options!.scales!['y']!.ticks = { font: { size: 17 } };
+      cfg.options!.scales!['x']!.ticks = { includeBounds: false, font: { size: 17 } };
+      cfg.options!.scales!['y']!.ticks = { includeBounds: false, font: { size: 17 } };
     }
     return renderPng(cfg, width, height, doc);
   }
@@ -110,6 +114,27 @@ export function createExports(wb: Workbench, host: Host, limits: PlotLimits, doc
       if (wb.shownRuns.value.length === 0) return nothing('Plot PNG');
       const url = await plotImage(id, PNG_SIZE.width, PNG_SIZE.height, true);
       await host.saveExport(`${campaignStem()}-${id}.png`, dataUrlBytes(url), 'image/png');
+    });
+
+  /** The plot as an SVG figure (vector) at the chosen size, with a provenance block of legible lines. */
+  const exportPlotSvg = (id: PlotId = 'cl-alpha', size: { width: number; height: number } = SVG_SIZE) =>
+    guarded('SVG export', async () => {
+      if (wb.shownRuns.value.length === 0) return nothing('Plot SVG');
+      const spec = plotSpec(id);
+      const series = overlaySeries(wb, spec, wb.state.basis);
+      const basis = wb.state.basis === 'corrected' ? 'free-air corrected' : 'as measured in the tunnel';
+      const prov = await wb.provenance(wb.shownRuns.value);
+      const svg = svgFigure({
+        title: `${spec.title}, ${spec.y.title.split(' ')[0]} vs ${spec.x.title.split(' ')[0]} (${basis}) · ${wb.state.campaign.name}`,
+        xTitle: spec.x.title,
+        yTitle: spec.y.title,
+        series,
+        limits: limits.get(id),
+        width: size.width,
+        height: size.height,
+        provenance: figureProvenance(prov, (r) => factorLine(r.factors)),
+      });
+      await host.saveExport(`${campaignStem()}-${id}.svg`, svg, 'image/svg+xml');
     });
 
   /** Put text on the clipboard; falls back to a hidden text area where the clipboard API is refused. */
@@ -143,7 +168,7 @@ export function createExports(wb: Workbench, host: Host, limits: PlotLimits, doc
       await host.print();
     });
 
-  return { printJob, exportPointsCsv, exportFitsCsv, exportXlsx, exportPlotPng, copyText, printSummary, plotImage };
+  return { printJob, exportPlotSvg, exportPointsCsv, exportFitsCsv, exportXlsx, exportPlotPng, copyText, printSummary, plotImage };
 }
 
 export type Exports = ReturnType<typeof createExports>;

@@ -5,7 +5,9 @@ import type { Basis, Workbench } from './workbench.ts';
 
 export function seriesLabel(wb: Workbench, file: string): string {
   const config = wb.configurationOf(file);
-  return config ? `${wb.displayName(file)} · ${config}` : wb.displayName(file);
+  const label = config ? `${wb.displayName(file)} · ${config}` : wb.displayName(file);
+  // a 2D section says so wherever it is drawn beside 3D models
+  return wb.state.entries[file]?.result?.corrections.kind === '2d' ? `${label} (2D)` : label;
 }
 
 export function overlaySeries(wb: Workbench, spec: PlotSpec, basis: Basis, files: readonly string[] = wb.shownRuns.value): Series[] {

@@ -43,8 +43,11 @@ export function createRunEdits(base: CampaignState, host: Host, engine: EngineCl
         toLoad.push(existing.file);
         continue;
       }
+      // read provisionally with the current run's setup and no tare; the import strip (ImportChoice.vue)
+      // proposes a setup and tare from the file's metadata and the run stays marked until the user confirms
       const setup = defaultSetup();
       state.campaign.runs.push({ file: c.name, sha256: null, configuration: null, setup, tare: null, visible: true });
+      if (!state.unconfirmed.includes(c.name)) state.unconfirmed.push(c.name);
       state.entries[c.name] = { ...newEntry(c.name, c.id, c.size), imported: true };
       if (!state.campaign.setups[setup]) state.editingSetup = setup;
       toLoad.push(c.name);
@@ -76,6 +79,7 @@ export function createRunEdits(base: CampaignState, host: Host, engine: EngineCl
     const i = state.campaign.runs.findIndex((r) => r.file === file);
     if (i >= 0) state.campaign.runs.splice(i, 1);
     delete state.entries[file];
+    state.unconfirmed = state.unconfirmed.filter((f) => f !== file);
     engine.forget(RUN_KEY(file));
     if (state.campaign.baseline === file) state.campaign.baseline = null;
     if (state.currentRun === file) state.currentRun = state.campaign.runs[0]?.file ?? null;
@@ -109,6 +113,17 @@ export function createRunEdits(base: CampaignState, host: Host, engine: EngineCl
     if (!run || run.setup === setup) return;
     run.setup = setup;
     void reReduce((r) => r.file === file);
+  }
+
+  /** The user's choice of setup and tare for an imported run; the run is reduced again when either changed. */
+  function confirmImport(file: string, setup: string, tare: string | null): void {
+    const run = runOf(file);
+    state.unconfirmed = state.unconfirmed.filter((f) => f !== file);
+    if (!run) return;
+    const changed = run.setup !== setup || (run.tare ?? null) !== tare;
+    run.setup = setup;
+    run.tare = tare;
+    if (changed) void reReduce((r) => r.file === file);
   }
 
   function setRunTare(file: string, tare: string | null): void {
@@ -188,6 +203,7 @@ export function createRunEdits(base: CampaignState, host: Host, engine: EngineCl
   }
 
   return {
+    confirmImport,
     addFiles,
     importRuns,
     dropFiles,

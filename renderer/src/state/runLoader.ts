@@ -3,6 +3,7 @@
  * campaign, then reduced with its setup and tare; reductions are redone (without reading again) when
  * a setup or tare changes. One read at a time, in order, so a large file never competes with another.
  */
+import { markRaw } from 'vue';
 import type { CampaignRun } from '../../../core/index.ts';
 import { formatNotice } from '../../../core/index.ts';
 import type { ColumnMapping } from '../../../core/index.ts';
@@ -80,7 +81,7 @@ export function createRunLoader(base: CampaignState, host: Host, engine: EngineC
       return;
     }
     e.header = reply.header;
-    e.stats = reply.stats;
+    e.stats = markRaw(reply.stats);
     await reduceEntry(file);
   }
 
@@ -162,8 +163,9 @@ export function createRunLoader(base: CampaignState, host: Host, engine: EngineC
       e.status = needsMapping(reply.errors) ? 'needs-mapping' : 'failed';
       return;
     }
-    e.result = reply.result;
-    e.asMeasured = reply.asMeasured;
+    // results are never changed once made: kept raw, so reading a thousand runs' points costs no proxies
+    e.result = markRaw(reply.result);
+    e.asMeasured = markRaw(reply.asMeasured);
     e.reducedAt = reply.reducedAt;
     e.errors = [];
     e.status = 'ready';

@@ -11,6 +11,7 @@ import { createCampaignState } from './campaignState.ts';
 import { createRunEdits } from './runEdits.ts';
 import { createRunLoader } from './runLoader.ts';
 import { createProvenance } from './runProvenance.ts';
+import { startSessionKeeper } from './sessionKeeper.ts';
 
 export type { Banner, Basis, RunEntry, RunStatus, TareEntry, ViewId, WorkbenchState } from './campaignState.ts';
 export { RUN_KEY, TARE_KEY } from './campaignState.ts';
@@ -27,6 +28,17 @@ export function createWorkbench(host: Host, engine: EngineClient, options: Workb
   const files = createCampaignFiles(base, host, loader, ask);
   const edits = createRunEdits(base, host, engine, loader, ask);
   const provenance = createProvenance(base);
+
+  let keeper: ReturnType<typeof startSessionKeeper> | null = null;
+  /**
+   * Bring back what the host kept from the last visit, then keep every change from here on. Returns
+   * whether a campaign was brought back (the first start opens the sample instead).
+   */
+  async function resumeSession(): Promise<boolean> {
+    const restored = await files.restoreSession();
+    keeper ??= startSessionKeeper(base, host);
+    return restored;
+  }
 
   function handleMenu(command: MenuCommand, exports: Partial<Record<MenuCommand, () => unknown>>): void {
     const actions: Partial<Record<MenuCommand, () => unknown>> = {
@@ -57,6 +69,9 @@ export function createWorkbench(host: Host, engine: EngineClient, options: Workb
     ...edits,
     provenance,
     handleMenu,
+    resumeSession,
+    /** Resolves when the working campaign as shown has been handed to the host's keeping. */
+    sessionKept: () => keeper?.flushed() ?? Promise.resolve(),
     /** Resolves when every queued read and reduction has finished (tests, exports). */
     settled: loader.settled,
   };

@@ -14,7 +14,13 @@ export interface HeaderInfo {
   text: string;
   signature: string;
   delimiter: string;
-  cells: { name: string; unit: string | null }[];
+  /**
+   * Header cells as the reader names them, with the unit the file gives: in brackets `alpha [deg]`, in
+   * parentheses `AoA (deg)`, or in a units row below the header; `unitFrom` says which.
+   */
+  cells: { name: string; unit: string | null; unitFrom?: 'brackets' | 'parentheses' | 'units row' }[];
+  /** 1-based line of a units row below the header, when there is one. */
+  unitsRow?: number;
   /** A few data rows after the header, split into cells, as a preview. */
   preview: string[][];
 }

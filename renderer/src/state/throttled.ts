@@ -1,0 +1,29 @@
+/**
+ * A value that follows its source at most once per `ms`, always ending on the latest: what the plots
+ * draw from while hundreds of runs become ready one after another (each would otherwise rebuild every
+ * plot's series with every run, work that grows with the square of the number of runs).
+ */
+import { onBeforeUnmount, shallowRef, watch, type Ref } from 'vue';
+
+export function throttled<T>(source: () => T, ms: number): Ref<T> {
+  const out = shallowRef(source()) as Ref<T>;
+  let timer: ReturnType<typeof setTimeout> | undefined;
+  let last = 0;
+  const stop = watch(source, () => {
+    if (timer !== undefined) return;
+    const wait = Math.max(0, last + ms - Date.now());
+    const apply = () => {
+      timer = undefined;
+      last = Date.now();
+      out.value = source();
+    };
+    // a lone change after a quiet spell (a tick in the run list) shows at once
+    if (wait === 0) apply();
+    else timer = setTimeout(apply, wait);
+  });
+  onBeforeUnmount(() => {
+    stop();
+    if (timer !== undefined) clearTimeout(timer);
+  });
+  return out;
+}
