@@ -107,8 +107,8 @@ run('Sweepbook in a real browser (browser host)', () => {
     expect(polar.drawn).toBeGreaterThan(2000);
     for (const id of ['cl-alpha', 'cm-alpha', 'ld-alpha']) expect((await canvasInk(page, `[data-plot="${id}"] canvas`)).drawn).toBeGreaterThan(2000);
     // axes titled with units, on the canvas: read back through the chart's own configuration
-    const titles = await page.locator('[data-plot="cl-alpha"] canvas').getAttribute('aria-label');
-    expect(titles).toContain('101 · clean');
+    // the label follows the chart's coalesced redraw (at most every 250 ms): wait for it
+    await expect.poll(() => page.locator('[data-plot="cl-alpha"] canvas').getAttribute('aria-label')).toContain('101 · clean');
     await expect.poll(() => page.locator('.runs-table tbody').count()).toBe(5);
     await shot(page, 'plots-sample-campaign');
   });
