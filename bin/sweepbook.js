@@ -10,7 +10,11 @@ import { getHeapStatistics } from 'node:v8';
 // A run of a million points needs more than Node's default heap (about 4 GiB here): run again with a
 // heap of three quarters of the machine's memory (at most 32 GiB), unless the user chose one.
 const wanted = Math.min(Math.floor((totalmem() * 0.75) / 2 ** 20), 32 * 1024);
-if (!process.env.SWEEPBOOK_HEAP_SET && getHeapStatistics().heap_size_limit / 2 ** 20 < wanted * 0.9 && !/max-old-space-size/.test(process.env.NODE_OPTIONS ?? '')) {
+if (
+  !process.env.SWEEPBOOK_HEAP_SET &&
+  getHeapStatistics().heap_size_limit / 2 ** 20 < wanted * 0.9 &&
+  !/max-old-space-size/.test(process.env.NODE_OPTIONS ?? '')
+) {
   const child = spawnSync(process.execPath, [`--max-old-space-size=${wanted}`, ...process.execArgv, fileURLToPath(import.meta.url), ...process.argv.slice(2)], {
     stdio: 'inherit',
     env: { ...process.env, SWEEPBOOK_HEAP_SET: '1' },

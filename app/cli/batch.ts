@@ -38,7 +38,10 @@ function commandScript(): string {
 export function outputStems(runs: readonly string[]): string[] {
   const used = new Set<string>();
   return runs.map((r) => {
-    const base = basename(r).replace(/\.[^.]*$/, '').replace(/[^\w.+-]+/g, '_') || 'run';
+    const base =
+      basename(r)
+        .replace(/\.[^.]*$/, '')
+        .replace(/[^\w.+-]+/g, '_') || 'run';
     let stem = base;
     for (let i = 2; used.has(stem.toLowerCase()); i++) stem = `${base}-${i}`;
     used.add(stem.toLowerCase());
@@ -69,7 +72,19 @@ function reduceInChild(script: string, o: BatchOptions, run: string, out: string
   });
 }
 
-const FIT_HEAD = ['cl_alpha_per_deg', 'cl_alpha_stderr_per_deg', 'alpha_zero_lift_deg', 'cl_max', 'alpha_cl_max_deg', 'cd0', 'k_induced', 'oswald_e', 'ld_max', 'cl_at_ld_max', 'cm_alpha_per_deg'] as const;
+const FIT_HEAD = [
+  'cl_alpha_per_deg',
+  'cl_alpha_stderr_per_deg',
+  'alpha_zero_lift_deg',
+  'cl_max',
+  'alpha_cl_max_deg',
+  'cd0',
+  'k_induced',
+  'oswald_e',
+  'ld_max',
+  'cl_at_ld_max',
+  'cm_alpha_per_deg',
+] as const;
 
 export async function batchReduce(o: BatchOptions, say: (l: string) => void): Promise<number> {
   const stems = outputStems(o.runs);
@@ -109,18 +124,39 @@ export async function batchReduce(o: BatchOptions, say: (l: string) => void): Pr
   const pointRows: Cell[][] = [];
   for (const x of done) {
     const r = x.doc!;
-    for (const p of r.points) pointRows.push([r.run.name, r.run.configuration, String(r.run['source_file'] ?? basename(x.run)), ...POINT_COLUMNS.map((k) => p[k] as Cell)]);
+    for (const p of r.points)
+      pointRows.push([r.run.name, r.run.configuration, String(r.run['source_file'] ?? basename(x.run)), ...POINT_COLUMNS.map((k) => p[k] as Cell)]);
   }
   const fitHead = ['run', 'configuration', 'source_file', 'status', 'points', ...FIT_HEAD, 'linear_range_from_deg', 'linear_range_to_deg', 'warnings'];
   const fitRows: Cell[][] = outcomes.map((x) => {
     if (!x.doc) {
       const err = x.stderr.split('\n').find((l) => l.startsWith('error:')) ?? `exit ${x.code}`;
-      return [basename(x.run).replace(/\.[^.]*$/, ''), null, basename(x.run), `failed: ${err.replace(/^error:\s*/, '')}`, null, ...FIT_HEAD.map(() => null), null, null, null];
+      return [
+        basename(x.run).replace(/\.[^.]*$/, ''),
+        null,
+        basename(x.run),
+        `failed: ${err.replace(/^error:\s*/, '')}`,
+        null,
+        ...FIT_HEAD.map(() => null),
+        null,
+        null,
+        null,
+      ];
     }
     const r = x.doc;
     const f = r.fit as unknown as Record<string, unknown>;
     const range = f['linear_range_deg'] as [number, number] | null;
-    return [r.run.name, r.run.configuration, String(r.run['source_file'] ?? basename(x.run)), 'ok', r.points.length, ...FIT_HEAD.map((k) => f[k] as Cell), range?.[0] ?? null, range?.[1] ?? null, r.warnings.length];
+    return [
+      r.run.name,
+      r.run.configuration,
+      String(r.run['source_file'] ?? basename(x.run)),
+      'ok',
+      r.points.length,
+      ...FIT_HEAD.map((k) => f[k] as Cell),
+      range?.[0] ?? null,
+      range?.[1] ?? null,
+      r.warnings.length,
+    ];
   });
   await writeFileAtomic(join(o.outDir, 'points.csv'), toCsv(pointHead, pointRows));
   await writeFileAtomic(join(o.outDir, 'fits.csv'), toCsv(fitHead, fitRows));
@@ -132,7 +168,8 @@ export async function batchReduce(o: BatchOptions, say: (l: string) => void): Pr
 }
 
 async function workbook(name: string, head: string[], rows: Cell[][]): Promise<Buffer> {
-  const cell = (c: Cell) => (c === null || c === undefined || (typeof c === 'number' && !Number.isFinite(c)) ? null : { value: typeof c === 'string' ? escapeFormula(c) : c });
+  const cell = (c: Cell) =>
+    c === null || c === undefined || (typeof c === 'number' && !Number.isFinite(c)) ? null : { value: typeof c === 'string' ? escapeFormula(c) : c };
   const data = [head.map((h) => ({ value: h, fontWeight: 'bold' as const })), ...rows.map((r) => r.map(cell))];
   return (await writeXlsxFile(data as never, { sheet: name }).toBuffer()) as Buffer;
 }

@@ -4,11 +4,26 @@
  * each, and, with --out, a ready column map to check and edit.
  */
 import { parseArgs } from 'node:util';
-import { CHANNELS, columnMapFromGuesses, guessColumns, inspectHeader, InputError, serializeColumnMap, WHITESPACE, formatNotice, type Channel } from '../../core/index.ts';
+import {
+  CHANNELS,
+  columnMapFromGuesses,
+  guessColumns,
+  inspectHeader,
+  InputError,
+  serializeColumnMap,
+  WHITESPACE,
+  formatNotice,
+  type Channel,
+} from '../../core/index.ts';
 import { writeFileAtomic } from '../files/atomic.ts';
 import { runHead } from './runSource.ts';
 
-export async function columnsCommand(args: string[], io: { stdout: NodeJS.WritableStream }, say: (l: string) => void, usage: (m: string) => never): Promise<number> {
+export async function columnsCommand(
+  args: string[],
+  io: { stdout: NodeJS.WritableStream },
+  say: (l: string) => void,
+  usage: (m: string) => never,
+): Promise<number> {
   const { values, positionals } = parseArgs({ args, allowPositionals: true, options: { out: { type: 'string' } } });
   if (positionals.length !== 1) usage('columns needs one run file');
   const file = positionals[0]!;
@@ -24,17 +39,35 @@ export async function columnsCommand(args: string[], io: { stdout: NodeJS.Writab
     throw err;
   }
   const guesses = guessColumns(sketch.cells);
-  const layout = sketch.delimiter === WHITESPACE ? 'columns aligned with spaces' : sketch.delimiter === '\t' ? 'tab-separated' : sketch.delimiter === ';' ? 'semicolon-separated, decimal comma' : 'comma-separated';
+  const layout =
+    sketch.delimiter === WHITESPACE
+      ? 'columns aligned with spaces'
+      : sketch.delimiter === '\t'
+        ? 'tab-separated'
+        : sketch.delimiter === ';'
+          ? 'semicolon-separated, decimal comma'
+          : 'comma-separated';
   const out: string[] = [];
-  out.push(`${file}: header on line ${sketch.headerLine}${sketch.unitsLine ? `, units row on line ${sketch.unitsLine}` : ''}; ${layout}; ${sketch.cells.length} columns`);
+  out.push(
+    `${file}: header on line ${sketch.headerLine}${sketch.unitsLine ? `, units row on line ${sketch.unitsLine}` : ''}; ${layout}; ${sketch.cells.length} columns`,
+  );
   const rows = guesses.map((g) => {
     const ch = g.channel;
     const unit = g.unknownUnit ? `${g.cell.unit} (unknown)` : (g.cell.unit ?? (ch && ch !== 'point' ? `(${CHANNELS[ch as Channel].defaultUnit})` : ''));
     return [String(g.cell.column), g.cell.text, unit, ch ?? '—', ch ? (g.score >= 0.85 ? 'sure' : 'likely') : '', sketch.example[g.cell.column - 1] ?? ''];
   });
   const head = ['col', 'header as written', 'unit', 'channel', 'guess', 'first value'];
-  const widths = head.map((h, i) => Math.min(40, rows.reduce((w, r) => Math.max(w, r[i]!.length), h.length)));
-  const line = (cells: string[]) => cells.map((c, i) => (i === 0 ? c.padStart(widths[i]!) : c.padEnd(widths[i]!))).join('  ').trimEnd();
+  const widths = head.map((h, i) =>
+    Math.min(
+      40,
+      rows.reduce((w, r) => Math.max(w, r[i]!.length), h.length),
+    ),
+  );
+  const line = (cells: string[]) =>
+    cells
+      .map((c, i) => (i === 0 ? c.padStart(widths[i]!) : c.padEnd(widths[i]!)))
+      .join('  ')
+      .trimEnd();
   out.push(line(head), line(widths.map((w) => '-'.repeat(w))));
   for (const r of rows) out.push(line(r));
   const missing = (['alpha'] as Channel[]).filter((c) => !guesses.some((g) => g.channel === c));
@@ -44,7 +77,9 @@ export async function columnsCommand(args: string[], io: { stdout: NodeJS.Writab
   io.stdout.write(out.join('\n') + '\n');
   if (values.out !== undefined) {
     await writeFileAtomic(values.out, serializeColumnMap(columnMapFromGuesses(guesses)));
-    say(`wrote ${values.out}: a column map from these guesses; check every entry (channel, unit, and "scale": -1 where a sign convention differs) before using it with --columns`);
+    say(
+      `wrote ${values.out}: a column map from these guesses; check every entry (channel, unit, and "scale": -1 where a sign convention differs) before using it with --columns`,
+    );
   }
   return 0;
 }

@@ -106,7 +106,12 @@ export function startStaticServer(options: StaticServerOptions): Promise<StaticS
       return;
     }
     const body = JSON.stringify({ key: storageKey });
-    res.writeHead(200, { 'Content-Type': 'application/json; charset=utf-8', 'Content-Length': Buffer.byteLength(body), 'Cache-Control': 'no-store', 'X-Content-Type-Options': 'nosniff' });
+    res.writeHead(200, {
+      'Content-Type': 'application/json; charset=utf-8',
+      'Content-Length': Buffer.byteLength(body),
+      'Cache-Control': 'no-store',
+      'X-Content-Type-Options': 'nosniff',
+    });
     res.end(req.method === 'HEAD' ? undefined : body);
   }
 

@@ -266,11 +266,13 @@ export function regressQuadratic(x: ArrayLike<number>, y: ArrayLike<number>, w?:
     [0, 0, 1],
   ];
   const c = [0, 1, 2].map((r) => J[r]![0]! * d[0]! + J[r]![1]! * d[1]! + J[r]![2]! * d[2]!) as [number, number, number];
-  const cov = [0, 1, 2].map((r) => [0, 1, 2].map((s) => {
-    let v = 0;
-    for (let a = 0; a < 3; a++) for (let b = 0; b < 3; b++) v += J[r]![a]! * inv[a]![b]! * J[s]![b]!;
-    return v * scale;
-  }));
+  const cov = [0, 1, 2].map((r) =>
+    [0, 1, 2].map((s) => {
+      let v = 0;
+      for (let a = 0; a < 3; a++) for (let b = 0; b < 3; b++) v += J[r]![a]! * inv[a]![b]! * J[s]![b]!;
+      return v * scale;
+    }),
+  );
   return { c, cov, n };
 }
 

@@ -20,7 +20,17 @@
 import { CHANNELS, CHANNEL_NAMES, POINT_COLUMN, isChannel, type Channel } from './channels.ts';
 import { InputError } from '../contract/messages.ts';
 import { lookupUnit } from '../physics/units.ts';
-import { detectDelimiter, joinUnitWords, splitHeaderCell, splitHeaderLine, splitWhitespace, unitsRow, WHITESPACE, type ColumnMapping, type HeaderCell } from './runFile.ts';
+import {
+  detectDelimiter,
+  joinUnitWords,
+  splitHeaderCell,
+  splitHeaderLine,
+  splitWhitespace,
+  unitsRow,
+  WHITESPACE,
+  type ColumnMapping,
+  type HeaderCell,
+} from './runFile.ts';
 import { jsonErrorOffset, nearest } from '../setup/schema.ts';
 
 export const COLUMN_MAP_FORMAT = 'sweepbook-columns';
@@ -61,7 +71,8 @@ export function parseColumnMap(file: string, text: string): ColumnMap {
   const fail = (field: string, where: string | undefined, message: string): never => {
     throw new InputError({ file, ...(where === undefined ? {} : placeOfKey(body, where)), field, message });
   };
-  if (json === null || typeof json !== 'object' || Array.isArray(json)) fail('(document)', undefined, 'expected an object with "format", "version" and "columns"');
+  if (json === null || typeof json !== 'object' || Array.isArray(json))
+    fail('(document)', undefined, 'expected an object with "format", "version" and "columns"');
   const doc = json as Record<string, unknown>;
   for (const k of Object.keys(doc)) {
     if (!TOP_KEYS.includes(k)) {
@@ -69,10 +80,17 @@ export function parseColumnMap(file: string, text: string): ColumnMap {
       fail(k, k, `unknown key${near ? ` (did you mean "${near}"?)` : ''}; a column map has ${TOP_KEYS.map((t) => `"${t}"`).join(', ')}`);
     }
   }
-  if (doc['format'] !== COLUMN_MAP_FORMAT) fail('format', 'format', `expected "${COLUMN_MAP_FORMAT}"${doc['format'] === undefined ? ' (missing)' : `, not ${JSON.stringify(doc['format'])}`}`);
-  if (doc['version'] !== COLUMN_MAP_VERSION) fail('version', 'version', `expected ${COLUMN_MAP_VERSION}${doc['version'] === undefined ? ' (missing)' : `, not ${JSON.stringify(doc['version'])}; this map was written by a newer version`}`);
+  if (doc['format'] !== COLUMN_MAP_FORMAT)
+    fail('format', 'format', `expected "${COLUMN_MAP_FORMAT}"${doc['format'] === undefined ? ' (missing)' : `, not ${JSON.stringify(doc['format'])}`}`);
+  if (doc['version'] !== COLUMN_MAP_VERSION)
+    fail(
+      'version',
+      'version',
+      `expected ${COLUMN_MAP_VERSION}${doc['version'] === undefined ? ' (missing)' : `, not ${JSON.stringify(doc['version'])}; this map was written by a newer version`}`,
+    );
   const cols = doc['columns'];
-  if (cols === null || typeof cols !== 'object' || Array.isArray(cols)) fail('columns', 'columns', 'expected an object: header cell as written → { "channel": … } or null');
+  if (cols === null || typeof cols !== 'object' || Array.isArray(cols))
+    fail('columns', 'columns', 'expected an object: header cell as written → { "channel": … } or null');
   const columns: Record<string, ColumnMapEntry | null> = {};
   const taken = new Map<string, string>();
   for (const [rawKey, value] of Object.entries(cols as Record<string, unknown>)) {
@@ -95,7 +113,11 @@ export function parseColumnMap(file: string, text: string): ColumnMap {
     const channel = v['channel'];
     if (typeof channel !== 'string' || !MAP_CHANNELS.includes(channel)) {
       const near = typeof channel === 'string' ? nearest(channel, [...MAP_CHANNELS]) : undefined;
-      fail(`${field}.channel`, rawKey, `${channel === undefined ? 'missing' : `unknown channel ${JSON.stringify(channel)}`}${near ? ` (did you mean "${near}"?)` : ''}; one of ${MAP_CHANNELS.join(', ')}`);
+      fail(
+        `${field}.channel`,
+        rawKey,
+        `${channel === undefined ? 'missing' : `unknown channel ${JSON.stringify(channel)}`}${near ? ` (did you mean "${near}"?)` : ''}; one of ${MAP_CHANNELS.join(', ')}`,
+      );
     }
     const ch = channel as Channel | typeof POINT_COLUMN;
     const other = taken.get(ch);
@@ -109,7 +131,8 @@ export function parseColumnMap(file: string, text: string): ColumnMap {
       const conv = lookupUnit(unit as string);
       const quantity = CHANNELS[ch as Channel].quantity;
       if (!conv) fail(`${field}.unit`, rawKey, `unknown unit ${JSON.stringify(unit)}`);
-      if (conv!.quantity !== quantity) fail(`${field}.unit`, rawKey, `"${unit as string}" is a ${conv!.quantity} unit; channel "${ch}" needs a ${quantity} unit`);
+      if (conv!.quantity !== quantity)
+        fail(`${field}.unit`, rawKey, `"${unit as string}" is a ${conv!.quantity} unit; channel "${ch}" needs a ${quantity} unit`);
       entry.unit = unit as string;
     }
     for (const k of ['scale', 'offset'] as const) {
@@ -126,7 +149,9 @@ export function parseColumnMap(file: string, text: string): ColumnMap {
 
 /** The map as the JSON text a user edits: two-space indent, one column per line. */
 export function serializeColumnMap(map: ColumnMap): string {
-  const lines = Object.entries(map.columns).map(([k, v]) => `    ${JSON.stringify(k)}: ${v === null ? 'null' : JSON.stringify(compactEntry(v)).replace(/,"/g, ', "').replace(/":/g, '": ')}`);
+  const lines = Object.entries(map.columns).map(
+    ([k, v]) => `    ${JSON.stringify(k)}: ${v === null ? 'null' : JSON.stringify(compactEntry(v)).replace(/,"/g, ', "').replace(/":/g, '": ')}`,
+  );
   return `{\n  "format": "${COLUMN_MAP_FORMAT}",\n  "version": ${COLUMN_MAP_VERSION},\n  "columns": {\n${lines.join(',\n')}\n  }\n}\n`;
 }
 
@@ -172,7 +197,12 @@ export function inspectHeader(file: string, text: string): HeaderSketch {
     }
     break;
   }
-  if (i >= lines.length) throw new InputError({ file, line: Math.max(1, lines.length - (lines[lines.length - 1] === '' ? 1 : 0)), message: 'no header line found (the file is empty or holds only comments)' });
+  if (i >= lines.length)
+    throw new InputError({
+      file,
+      line: Math.max(1, lines.length - (lines[lines.length - 1] === '' ? 1 : 0)),
+      message: 'no header line found (the file is empty or holds only comments)',
+    });
   const headerLine = i + 1;
   const delimiter = detectDelimiter(lines[i]!);
   const split = (l: string) => (delimiter === WHITESPACE ? splitWhitespace(l) : l.split(delimiter).map((c) => c.trim()));
@@ -313,13 +343,14 @@ export function columnMapFromGuesses(guesses: ColumnGuess[]): ColumnMap {
  */
 export function missingChannelMessage(channel: string, why: string, cells: HeaderCell[]): string {
   const list = cells.map((c) => `${c.column} "${c.text}"`).join(', ');
-  const ranked = isChannel(channel) || channel === POINT_COLUMN
-    ? cells
-        .map((c) => ({ c, s: Math.max(channelScore(c, channel as Channel), nameSimilarity(c.name, channel)) }))
-        .filter((x) => x.s > 0.2)
-        .sort((a, b) => b.s - a.s)
-        .slice(0, 3)
-    : [];
+  const ranked =
+    isChannel(channel) || channel === POINT_COLUMN
+      ? cells
+          .map((c) => ({ c, s: Math.max(channelScore(c, channel as Channel), nameSimilarity(c.name, channel)) }))
+          .filter((x) => x.s > 0.2)
+          .sort((a, b) => b.s - a.s)
+          .slice(0, 3)
+      : [];
   const closest = ranked.length > 0 ? `; closest: ${ranked.map((x) => `"${x.c.text}" (column ${x.c.column})`).join(', ')}` : '';
   return `missing required column "${channel}" (${why}); the file's columns: ${list}${closest}. Assign columns with a column map (--columns MAP.json; \`sweepbook columns FILE --out MAP.json\` writes one to edit)`;
 }

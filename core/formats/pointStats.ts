@@ -75,7 +75,8 @@ export class PointAccumulator {
       if (earlier !== undefined && a >= 0) {
         // the id comes back after other points: a new test point (a return sweep or a repeat point),
         // never averaged with the earlier one; named when it lies at another angle
-        if (Math.abs(values[a]! - earlier.mean[a]!) > this.alphaTol) this.splits.push({ key, firstLine: earlier.line, line, alphaBefore: earlier.mean[a]!, alphaAfter: values[a]! });
+        if (Math.abs(values[a]! - earlier.mean[a]!) > this.alphaTol)
+          this.splits.push({ key, firstLine: earlier.line, line, alphaBefore: earlier.mean[a]!, alphaAfter: values[a]! });
         p = this.open(key, line);
       } else p = earlier ?? this.open(key, line);
       this.last = p;

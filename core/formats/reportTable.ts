@@ -26,7 +26,13 @@ export interface ReportColumn {
   u?: keyof PointResult;
 }
 
-const c = (key: keyof PointResult, header: string, unit: string, decimals: ReportColumn['decimals'], u?: keyof PointResult): ReportColumn => ({ key, header, unit, decimals, ...(u ? { u } : {}) });
+const c = (key: keyof PointResult, header: string, unit: string, decimals: ReportColumn['decimals'], u?: keyof PointResult): ReportColumn => ({
+  key,
+  header,
+  unit,
+  decimals,
+  ...(u ? { u } : {}),
+});
 
 /** The command line's point columns (POINT_COLUMNS), in the same order, with report names and units. */
 export const REPORT_COLUMNS: readonly ReportColumn[] = [

@@ -296,7 +296,10 @@ export class RunFileReader {
       });
     }
     if (acc.splits.length > this.limits.maxRowWarnings) {
-      this.warnings.push({ file: this.file, message: `${acc.splits.length - this.limits.maxRowWarnings} more points split by angle (only the first ${this.limits.maxRowWarnings} are listed)` });
+      this.warnings.push({
+        file: this.file,
+        message: `${acc.splits.length - this.limits.maxRowWarnings} more points split by angle (only the first ${this.limits.maxRowWarnings} are listed)`,
+      });
     }
     if (this.skipped > this.limits.maxRowWarnings) {
       this.warnings.push({
@@ -413,8 +416,16 @@ export class RunFileReader {
       this.bind(undefined);
       return;
     }
-    const cells = this.delimiter === WHITESPACE ? joinUnitWords(splitWhitespace(raw), this.headerWidth) : raw.indexOf('"') >= 0 ? Papa.parse<string[]>(raw, { delimiter: this.delimiter, newline: '\n' }).data[0] ?? [] : raw.split(this.delimiter);
-    const units = unitsRow(cells.map((c) => c.trim()), this.decimalComma);
+    const cells =
+      this.delimiter === WHITESPACE
+        ? joinUnitWords(splitWhitespace(raw), this.headerWidth)
+        : raw.indexOf('"') >= 0
+          ? (Papa.parse<string[]>(raw, { delimiter: this.delimiter, newline: '\n' }).data[0] ?? [])
+          : raw.split(this.delimiter);
+    const units = unitsRow(
+      cells.map((c) => c.trim()),
+      this.decimalComma,
+    );
     if (units === undefined) {
       this.bind(undefined);
       if (this.delimiter !== WHITESPACE && raw.indexOf('"') >= 0) {
@@ -429,7 +440,10 @@ export class RunFileReader {
     this.unitsLine = this.line;
     // a whitespace-aligned units row cannot leave a column empty: it must name every column
     if (this.delimiter === WHITESPACE && units.length !== this.headerWidth) {
-      this.fail({ line: this.line, message: `the units row has ${units.length} cells and the header ${this.headerWidth}; in a space-aligned file every column needs a unit ("-" for none)` });
+      this.fail({
+        line: this.line,
+        message: `the units row has ${units.length} cells and the header ${this.headerWidth}; in a space-aligned file every column needs a unit ("-" for none)`,
+      });
     }
     units.forEach((u, i) => {
       const cell = this.headerCells[i];
@@ -439,7 +453,11 @@ export class RunFileReader {
       }
       if (u === '') return;
       if (cell.unit !== undefined && cell.unit !== u) {
-        this.fail({ line: this.line, column: i + 1, message: `column "${cell.text}" has unit "${cell.unit}" in the header and "${u}" in the units row; keep one` });
+        this.fail({
+          line: this.line,
+          column: i + 1,
+          message: `column "${cell.text}" has unit "${cell.unit}" in the header and "${u}" in the units row; keep one`,
+        });
       }
       cell.unit = u;
     });
@@ -450,7 +468,9 @@ export class RunFileReader {
   private bind(units: string[] | undefined): void {
     const headerLine = this.headerLine;
     const unitPlace = (column: number, fromMap: boolean): Omit<Notice, 'file' | 'message'> =>
-      fromMap ? { field: `columns["${this.headerCells[column - 1]!.text}"].unit` } : { line: units && units[column - 1] ? this.unitsLine! : headerLine, column };
+      fromMap
+        ? { field: `columns["${this.headerCells[column - 1]!.text}"].unit` }
+        : { line: units && units[column - 1] ? this.unitsLine! : headerLine, column };
     const seen = new Map<string, number>();
     const bound: BoundColumn[] = [];
     const cellMap = this.mapping.cells;
@@ -496,7 +516,9 @@ export class RunFileReader {
         const found = lookupUnit(unitText);
         const quantity = CHANNELS[channel].quantity;
         if (!found || found.quantity !== quantity) {
-          const why = found ? `which is a ${found.quantity === 'ratio' ? 'dimensionless' : found.quantity} unit, not a ${quantity} unit` : 'which is not a known unit';
+          const why = found
+            ? `which is a ${found.quantity === 'ratio' ? 'dimensionless' : found.quantity} unit, not a ${quantity} unit`
+            : 'which is not a known unit';
           const place = unitPlace(column, fromMap);
           throw new InputError({
             file: fromMap ? (this.mapping.source ?? 'column map') : this.file,
@@ -975,7 +997,12 @@ function balanced(text: string): boolean {
  * whose cells are mostly units but one is not is refused by the caller naming that cell.
  */
 export function unitsRow(cells: string[], decimalComma: boolean): string[] | undefined {
-  const units = cells.map((c) => c.trim().replace(/^[[(](.*)[\])]$/, '$1').trim());
+  const units = cells.map((c) =>
+    c
+      .trim()
+      .replace(/^[[(](.*)[\])]$/, '$1')
+      .trim(),
+  );
   let known = 0;
   let filled = 0;
   for (const u of units) {

@@ -19,13 +19,15 @@ export function sheetRowsToCsv(rows: readonly (readonly SheetCell[])[]): string 
     }),
   );
   // a leading "#" cell is a metadata line of the contract: written bare, not quoted, so it reads as one
-  return text
-    .map((cells) => {
-      const first = cells[0] ?? '';
-      if (first.startsWith('#') && cells.slice(1).every((c) => c === '')) return first;
-      return Papa.unparse([cells], { newline: '\n' });
-    })
-    .join('\n') + '\n';
+  return (
+    text
+      .map((cells) => {
+        const first = cells[0] ?? '';
+        if (first.startsWith('#') && cells.slice(1).every((c) => c === '')) return first;
+        return Papa.unparse([cells], { newline: '\n' });
+      })
+      .join('\n') + '\n'
+  );
 }
 
 /** True when a file name is a spreadsheet workbook this reader opens (.xlsx). */

@@ -87,7 +87,12 @@ export function poolPoints(a: PointStats, b: PointStats): PointStats {
  * for files grouped without a point column, where a wind-off point's noisy pressure may have split
  * its samples (the reader cannot know the run's median q while streaming).
  */
-export function poolWindOffRuns(points: readonly PointStats[], off: readonly boolean[], alphaIndex: number, tolRad: number): { points: PointStats[]; off: boolean[] } {
+export function poolWindOffRuns(
+  points: readonly PointStats[],
+  off: readonly boolean[],
+  alphaIndex: number,
+  tolRad: number,
+): { points: PointStats[]; off: boolean[] } {
   const outP: PointStats[] = [];
   const outOff: boolean[] = [];
   let firstAlpha = Number.NaN;
@@ -145,7 +150,14 @@ export function windOffRoles(alphas: readonly number[], off: readonly boolean[],
   if (oneAlpha(0, firstOn)) for (let i = 0; i < firstOn; i++) roles[i] = 'zero-start';
   if (oneAlpha(lastOn + 1, n)) for (let i = lastOn + 1; i < n; i++) roles[i] = 'zero-end';
   const rest = roles.map((r, i) => (r === 'excluded' ? i : -1)).filter((i) => i >= 0);
-  if (!tareGiven && distinctAlphas(rest.map((i) => alphas[i]!), tolRad) >= 3) for (const i of rest) roles[i] = 'tare';
+  if (
+    !tareGiven &&
+    distinctAlphas(
+      rest.map((i) => alphas[i]!),
+      tolRad,
+    ) >= 3
+  )
+    for (const i of rest) roles[i] = 'tare';
   return roles;
 }
 
@@ -154,7 +166,11 @@ export function windOffRoles(alphas: readonly number[], off: readonly boolean[],
  * reading give a shift linear in position between them (held at the end values outside).
  * `start`/`end`: position and shift per load channel.
  */
-export function zeroShiftAt(position: number, start: { at: number; shift: Float64Array } | undefined, end: { at: number; shift: Float64Array } | undefined): Float64Array | undefined {
+export function zeroShiftAt(
+  position: number,
+  start: { at: number; shift: Float64Array } | undefined,
+  end: { at: number; shift: Float64Array } | undefined,
+): Float64Array | undefined {
   if (!start && !end) return undefined;
   if (!start || !end || end.at === start.at) return (start ?? end)!.shift;
   const t = Math.min(1, Math.max(0, (position - start.at) / (end.at - start.at)));
@@ -187,10 +203,19 @@ export function prepareRun(run: RunData, setup: Setup, tare: RunData | undefined
     throw new InputError({ file: run.file, line: run.headerLine, message: 'no dynamic-pressure column: the run needs "q", "dp_pitot" or "dp_contraction"' });
   }
   const present = PRESSURE_SOURCES.filter((c) => run.channels.includes(c));
-  if (present.length > 1) notices.push({ file: run.file, message: `pressure columns ${present.map((c) => `"${c}"`).join(', ')} are all present: q is taken from "${source}" (order of precedence q, dp_pitot, dp_contraction)` });
+  if (present.length > 1)
+    notices.push({
+      file: run.file,
+      message: `pressure columns ${present.map((c) => `"${c}"`).join(', ')} are all present: q is taken from "${source}" (order of precedence q, dp_pitot, dp_contraction)`,
+    });
   const factor = setup.flow.contraction_factor;
   if (source === 'dp_contraction' && factor === undefined) {
-    throw new InputError({ file: run.file, field: 'flow.contraction_factor', message: 'the run gives q by "dp_contraction", so the setup must give flow.contraction_factor (q per unit contraction pressure drop, from the facility calibration)' });
+    throw new InputError({
+      file: run.file,
+      field: 'flow.contraction_factor',
+      message:
+        'the run gives q by "dp_contraction", so the setup must give flow.contraction_factor (q per unit contraction pressure drop, from the facility calibration)',
+    });
   }
   requireChannels(run, setup);
   const idx = (c: Channel) => run.channels.indexOf(c);
@@ -212,13 +237,22 @@ export function prepareRun(run: RunData, setup: Setup, tare: RunData | undefined
   if (tarePoints.length > 0) {
     embeddedTare = { ...run, points: tarePoints, warnings: [], file: run.file };
     const lines = tarePoints.map((p) => p.line);
-    notices.push({ file: run.file, message: `no tare file given: the run's own wind-off points (${tarePoints.length}, at ${distinctAlphas(tarePoints.map((p) => p.mean[ai]!), tol)} angles, lines ${lines[0]}–${lines[lines.length - 1]}) are used as its tare` });
+    notices.push({
+      file: run.file,
+      message: `no tare file given: the run's own wind-off points (${tarePoints.length}, at ${distinctAlphas(
+        tarePoints.map((p) => p.mean[ai]!),
+        tol,
+      )} angles, lines ${lines[0]}–${lines[lines.length - 1]}) are used as its tare`,
+    });
   }
   const label = source === 'q' ? 'dynamic pressure q' : source === 'dp_pitot' ? 'pitot impact pressure' : 'q from dp_contraction';
   const runMedian = median(points.map((p) => roughQ(source, p.mean[si]!, factor)));
   for (const p of pick('excluded')) {
     const q = roughQ(source, p.mean[si]!, factor);
-    const why = tare && tarePoints.length === 0 && roles.some((r) => r === 'excluded') ? '; a tare file is given, so the run\'s wind-off points are not used as its tare' : '';
+    const why =
+      tare && tarePoints.length === 0 && roles.some((r) => r === 'excluded')
+        ? "; a tare file is given, so the run's wind-off points are not used as its tare"
+        : '';
     notices.push({
       file: run.file,
       line: p.line,
@@ -284,11 +318,22 @@ export function prepareRun(run: RunData, setup: Setup, tare: RunData | undefined
     // named by the first point, as any run where no point reduces
     const first = points[0]!;
     const q = roughQ(source, first.mean[si]!, factor);
-    const why = q > 0 ? `${label} ${q.toPrecision(4)} Pa is below ${WIND_OFF_FRACTION * 100} % of the run's median` : `${label} ${q.toFixed(3)} Pa is not positive (wind off?)`;
+    const why =
+      q > 0
+        ? `${label} ${q.toPrecision(4)} Pa is below ${WIND_OFF_FRACTION * 100} % of the run's median`
+        : `${label} ${q.toFixed(3)} Pa is not positive (wind off?)`;
     const more = points.length > 1 ? ` (and ${points.length - 1} more points skipped)` : '';
-    throw new InputError({ file: run.file, line: first.line, message: `no point could be reduced: point ${first.key} (line ${first.line}) skipped: ${why}${more}; every point is wind-off (is the pressure column right, and its unit?)` });
+    throw new InputError({
+      file: run.file,
+      line: first.line,
+      message: `no point could be reduced: point ${first.key} (line ${first.line}) skipped: ${why}${more}; every point is wind-off (is the pressure column right, and its unit?)`,
+    });
   }
-  if (source !== 'dp_pitot' && present.length === 1) notices.push({ file: run.file, message: `q is taken from "${source}"${source === 'dp_contraction' ? ` × flow.contraction_factor ${factor}` : ' as the facility logged it'}` });
+  if (source !== 'dp_pitot' && present.length === 1)
+    notices.push({
+      file: run.file,
+      message: `q is taken from "${source}"${source === 'dp_contraction' ? ` × flow.contraction_factor ${factor}` : ' as the facility logged it'}`,
+    });
   return { run: { ...run, channels, points: on }, embeddedTare, notices, source };
 }
 
@@ -301,7 +346,11 @@ export function checkTare(run: RunData, tare: RunData, setup: Setup): void {
   const loads = (setup.balance.axes === 'wind' ? WIND_LOADS : BODY_LOADS).filter((c) => run.channels.includes(c));
   for (const c of loads) {
     if (!tare.channels.includes(c)) {
-      throw new InputError({ file: tare.file, line: tare.headerLine, message: `the tare has no "${c}" column, which the run ${basename(run.file)} uses; a tare must hold every load channel of the run (found: ${tare.channels.join(', ') || 'none'})` });
+      throw new InputError({
+        file: tare.file,
+        line: tare.headerLine,
+        message: `the tare has no "${c}" column, which the run ${basename(run.file)} uses; a tare must hold every load channel of the run (found: ${tare.channels.join(', ') || 'none'})`,
+      });
     }
   }
   const ts = pressureSource(tare.channels);
@@ -329,9 +378,18 @@ export function requireChannels(run: RunData, setup: Setup): void {
     throw new InputError({ file: run.file, line: run.headerLine, message: missingChannelMessage(c, why, run.headerCells ?? []) });
   };
   if (!has('alpha')) missing('alpha', 'angle of attack');
-  const [f1, f2, other1, other2, axes, otherAxes] = setup.balance.axes === 'wind' ? (['lift', 'drag', 'normal', 'axial', 'wind', 'body'] as const) : (['normal', 'axial', 'lift', 'drag', 'body', 'wind'] as const);
+  const [f1, f2, other1, other2, axes, otherAxes] =
+    setup.balance.axes === 'wind'
+      ? (['lift', 'drag', 'normal', 'axial', 'wind', 'body'] as const)
+      : (['normal', 'axial', 'lift', 'drag', 'body', 'wind'] as const);
   for (const c of [f1, f2]) {
-    if (!has(c)) missing(c, has(other1) && has(other2) ? `the setup says balance.axes "${axes}", but the file has ${other1}/${other2} columns: set balance.axes to "${otherAxes}"` : `the setup says balance.axes "${axes}"`);
+    if (!has(c))
+      missing(
+        c,
+        has(other1) && has(other2)
+          ? `the setup says balance.axes "${axes}", but the file has ${other1}/${other2} columns: set balance.axes to "${otherAxes}"`
+          : `the setup says balance.axes "${axes}"`,
+      );
   }
 }
 

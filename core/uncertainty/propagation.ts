@@ -111,7 +111,14 @@ function inputsOf(x: PointInputs, g: MeasureGeometry, spec: UncertaintySpec, spr
       step: g.chord * 1e-6,
     },
   ];
-  if (Number.isFinite(x.pitch)) list.push({ name: 'pitch', kind: 'random', u: Math.hypot(spec.moment_nm ?? 0, rnd('pitch')), shifted: (h) => at({ pitch: x.pitch + h }), step: rel(x.pitch) });
+  if (Number.isFinite(x.pitch))
+    list.push({
+      name: 'pitch',
+      kind: 'random',
+      u: Math.hypot(spec.moment_nm ?? 0, rnd('pitch')),
+      shifted: (h) => at({ pitch: x.pitch + h }),
+      step: rel(x.pitch),
+    });
   return list.filter((i) => i.u > 0);
 }
 

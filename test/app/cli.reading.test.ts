@@ -23,7 +23,12 @@ function tmp(name: string, text: string | Buffer): string {
  */
 function facilityFile(): { text: string; cl: number[]; cd: number[] } {
   const S_REF = 0.2025; // m², sample-runs/setup-3d.json
-  const rows: string[] = ['# run: F-3', '# configuration: facility layout', 'AoA       Qinf     Pbar      Tair      RH     Lift      Drag      Mz        CL_fac   CD_fac', 'deg       mmH2O    hPa       degr. C   %      lb        lb        in-lb     -        -'];
+  const rows: string[] = [
+    '# run: F-3',
+    '# configuration: facility layout',
+    'AoA       Qinf     Pbar      Tair      RH     Lift      Drag      Mz        CL_fac   CD_fac',
+    'deg       mmH2O    hPa       degr. C   %      lb        lb        in-lb     -        -',
+  ];
   const cl: number[] = [];
   const cd: number[] = [];
   for (const [k, a] of [-4, 0, 4, 8].entries()) {
@@ -37,7 +42,22 @@ function facilityFile(): { text: string; cl: number[]; cd: number[] } {
     cd.push(Number(cD.toFixed(4)));
     for (const j of [0, 1, 2]) {
       const jitter = [0, 0.06, -0.04][j]!;
-      rows.push([(a + jitter).toFixed(2), qMm.toFixed(1), '991.8', '18.6', '52', liftLb.toFixed(3), dragLb.toFixed(4), (-0.2 * a).toFixed(3), cL.toFixed(4), cD.toFixed(4)].map((c) => c.padEnd(9)).join(' '));
+      rows.push(
+        [
+          (a + jitter).toFixed(2),
+          qMm.toFixed(1),
+          '991.8',
+          '18.6',
+          '52',
+          liftLb.toFixed(3),
+          dragLb.toFixed(4),
+          (-0.2 * a).toFixed(3),
+          cL.toFixed(4),
+          cD.toFixed(4),
+        ]
+          .map((c) => c.padEnd(9))
+          .join(' '),
+      );
     }
   }
   return { text: rows.join('\n') + '\n', cl, cd };
@@ -68,7 +88,7 @@ describe('sweepbook columns', () => {
 });
 
 describe('reduce with a column map', () => {
-  it('reproduces the facility\'s own uncorrected CL and CD to the printed digits (synthetic facility file)', async () => {
+  it("reproduces the facility's own uncorrected CL and CD to the printed digits (synthetic facility file)", async () => {
     const f = facilityFile();
     const run = tmp('facility.txt', f.text);
     const map = join(dir(), 'map.json');
@@ -144,11 +164,23 @@ describe('batch reduction', () => {
   it('reduces several runs in parallel, writes one table per run and combined points and fits (CSV, XLSX), and goes on past a failing run', async () => {
     const out = join(dir(), 'out');
     const bad = tmp('broken.csv', 'nothing to see\n');
-    const r = await runCli('reduce', S('run-101-clean.csv'), bad, S('run-102-flap10.csv'), '--setup', S('setup-3d.json'), '--tare', S('windoff-tare.csv'), '--out-dir', out);
+    const r = await runCli(
+      'reduce',
+      S('run-101-clean.csv'),
+      bad,
+      S('run-102-flap10.csv'),
+      '--setup',
+      S('setup-3d.json'),
+      '--tare',
+      S('windoff-tare.csv'),
+      '--out-dir',
+      out,
+    );
     expect(r.code).toBe(1);
     expect(r.stderr).toMatch(/FAILED {2}.*broken\.csv: error: .*broken\.csv:1: no data rows/);
     expect(r.stderr).toContain('wrote 2 run tables');
-    for (const f of ['run-101-clean.csv', 'run-102-flap10.csv', 'points.csv', 'fits.csv', 'points.xlsx', 'fits.xlsx']) expect(existsSync(join(out, f)), f).toBe(true);
+    for (const f of ['run-101-clean.csv', 'run-102-flap10.csv', 'points.csv', 'fits.csv', 'points.xlsx', 'fits.xlsx'])
+      expect(existsSync(join(out, f)), f).toBe(true);
     const perRun = readFileSync(join(out, 'run-102-flap10.csv'), 'utf8').split('\n');
     expect(perRun.slice(0, 2)).toEqual(['# run: 102', '# configuration: flap 10']);
     const fits = readFileSync(join(out, 'fits.csv'), 'utf8').trim().split('\n');

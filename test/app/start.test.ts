@@ -31,7 +31,7 @@ describe('browser host address and storage key', () => {
     }
   });
 
-  it('hands the key only to the page\'s own requests (Fetch Metadata)', () => {
+  it("hands the key only to the page's own requests (Fetch Metadata)", () => {
     expect(mayHaveKey('same-origin')).toBe(true);
     expect(mayHaveKey(undefined)).toBe(true);
     expect(mayHaveKey('same-site')).toBe(false);

@@ -13,7 +13,10 @@ import { buildRenderer, CHROMIUM, ROOT } from '../e2e/browserSetup.ts';
 /** Write a campaign of `n` runs (copies of the sample runs under their own numbers) into `dir`; returns every path. */
 export function writeLargeCampaign(dir: string, n: number): string[] {
   const samples = join(ROOT, 'sample-runs');
-  const campaign = JSON.parse(readFileSync(join(samples, 'sweepbook-campaign.json'), 'utf8')) as { name: string; runs: { file: string; sha256: string | null }[] };
+  const campaign = JSON.parse(readFileSync(join(samples, 'sweepbook-campaign.json'), 'utf8')) as {
+    name: string;
+    runs: { file: string; sha256: string | null }[];
+  };
   const sources = campaign.runs.filter((r) => !r.file.includes('201')).map((r) => ({ run: r, text: readFileSync(join(samples, r.file), 'utf8') }));
   const runs: typeof campaign.runs = [];
   const paths = [join(dir, 'campaign.json'), join(dir, 'windoff-tare.csv')];
@@ -55,7 +58,10 @@ async function main() {
     const busyTab = (Date.now() - r0) / 1000;
     process.stdout.write(`${n} runs: listed in ${listed.toFixed(2)} s; a tab change while reducing ${busyTab.toFixed(2)} s\n`);
     if (process.env['LIST_ONLY']) return;
-    await page.waitForFunction((count) => document.querySelectorAll('.runs-table tbody[data-status="ready"]').length >= count, n, { timeout: 600_000, polling: 200 });
+    await page.waitForFunction((count) => document.querySelectorAll('.runs-table tbody[data-status="ready"]').length >= count, n, {
+      timeout: 600_000,
+      polling: 200,
+    });
     const reduced = (Date.now() - t0) / 1000;
     // responsiveness after opening: a click on a tab until the view shows
     const c0 = Date.now();

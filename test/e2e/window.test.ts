@@ -70,7 +70,14 @@ run('the window on a laptop screen, kept across reloads', () => {
   });
 
   it('shows the corrected / as-measured switch only on the views it changes', async () => {
-    const expectations: Record<string, boolean> = { Plots: true, 'Against baseline': true, Characteristics: true, 'Run detail': false, 'Sample scatter': false, Setup: false };
+    const expectations: Record<string, boolean> = {
+      Plots: true,
+      'Against baseline': true,
+      Characteristics: true,
+      'Run detail': false,
+      'Sample scatter': false,
+      Setup: false,
+    };
     for (const [tab, shown] of Object.entries(expectations)) {
       await showView(page, tab);
       expect(await page.getByRole('radiogroup', { name: 'Values shown' }).count(), tab).toBe(shown ? 1 : 0);
@@ -86,7 +93,12 @@ run('the window on a laptop screen, kept across reloads', () => {
     const swatch = (file: string) => page.locator(`tbody[data-run="${file}"] svg.swatch`);
     const attrs = async (file: string) => {
       const el = swatch(file);
-      return { colour: await el.getAttribute('data-colour'), marker: await el.getAttribute('data-marker'), dash: await el.getAttribute('data-dash'), filled: await el.getAttribute('data-filled') };
+      return {
+        colour: await el.getAttribute('data-colour'),
+        marker: await el.getAttribute('data-marker'),
+        dash: await el.getAttribute('data-dash'),
+        filled: await el.getAttribute('data-filled'),
+      };
     };
     const first = await attrs('run-101-clean.csv');
     const repeat = await attrs('run-104-clean-timehistory.csv');

@@ -21,8 +21,15 @@ describe('import proposal', () => {
   });
 
   it('falls back to the same model, then to the run added last', () => {
-    const others = [run('101.csv', 'wing', 'tare.csv', { model: 'KM-7 wing', configuration: 'clean' }), run('201.csv', 'section', null, { model: 'KM-7 section' })];
+    const others = [
+      run('101.csv', 'wing', 'tare.csv', { model: 'KM-7 wing', configuration: 'clean' }),
+      run('201.csv', 'section', null, { model: 'KM-7 section' }),
+    ];
     expect(propose(run('n.csv', '', null, { model: 'KM-7 wing', configuration: 'flap 30' }), others, [], name).reason).toBe('as 101: same model');
-    expect(propose(run('n.csv', '', null, null), others, [], name)).toEqual({ setup: 'section', tare: null, reason: 'as 201, the run added last (no metadata in common)' });
+    expect(propose(run('n.csv', '', null, null), others, [], name)).toEqual({
+      setup: 'section',
+      tare: null,
+      reason: 'as 201, the run added last (no metadata in common)',
+    });
   });
 });

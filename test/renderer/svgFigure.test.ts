@@ -26,8 +26,22 @@ describe('svg figure', () => {
       xTitle: 'α [deg]',
       yTitle: 'CL [–]',
       series: [
-        { label: '101 · clean', style: styleFor(0, 0, 0), points: [{ x: 0, y: 0.2 }, { x: 5, y: 0.6 }] },
-        { label: '104 · clean', style: styleFor(1, 0, 1), points: [{ x: 0, y: 0.2 }, { x: 5, y: 0.6 }] },
+        {
+          label: '101 · clean',
+          style: styleFor(0, 0, 0),
+          points: [
+            { x: 0, y: 0.2 },
+            { x: 5, y: 0.6 },
+          ],
+        },
+        {
+          label: '104 · clean',
+          style: styleFor(1, 0, 1),
+          points: [
+            { x: 0, y: 0.2 },
+            { x: 5, y: 0.6 },
+          ],
+        },
       ],
       width: 1100,
       height: 780,

@@ -1,6 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import { InputError, formatNotice } from '../../core/contract/messages.ts';
-import { channelScore, columnMapFromGuesses, guessColumns, inspectHeader, missingChannelMessage, parseColumnMap, serializeColumnMap } from '../../core/formats/columnMap.ts';
+import {
+  channelScore,
+  columnMapFromGuesses,
+  guessColumns,
+  inspectHeader,
+  missingChannelMessage,
+  parseColumnMap,
+  serializeColumnMap,
+} from '../../core/formats/columnMap.ts';
 import { sheetRowsToCsv } from '../../core/formats/sheet.ts';
 import { readRunText } from '../../core/formats/runFile.ts';
 
@@ -64,7 +72,11 @@ describe('guessing channels', () => {
     expect(s.metadata).toEqual({ run: '4' });
     expect(s.headerLine).toBe(2);
     expect(s.unitsLine).toBe(3);
-    expect(s.cells.map((c) => [c.text, c.unit])).toEqual([['AoA', 'deg'], ['Qinf', 'mmH2O'], ['Lift', 'lb']]);
+    expect(s.cells.map((c) => [c.text, c.unit])).toEqual([
+      ['AoA', 'deg'],
+      ['Qinf', 'mmH2O'],
+      ['Lift', 'lb'],
+    ]);
     expect(s.example).toEqual(['1.0', '61.2', '3.5']);
   });
 
@@ -98,7 +110,12 @@ describe('guessing channels', () => {
 
 describe('spreadsheet rows as run-file text', () => {
   it('keeps numbers as the workbook stores them, metadata rows bare, and one line per sheet row', () => {
-    const csv = sheetRowsToCsv([['# run: 12', null], ['alpha [deg]', 'lift, N'], ['1.5', '2E-3'], [2, 'a\nb']]);
+    const csv = sheetRowsToCsv([
+      ['# run: 12', null],
+      ['alpha [deg]', 'lift, N'],
+      ['1.5', '2E-3'],
+      [2, 'a\nb'],
+    ]);
     expect(csv).toBe('# run: 12\nalpha [deg],"lift, N"\n1.5,2E-3\n2,a b\n');
     const run = readRunText('w.xlsx', csv, { mapping: { cells: { 'lift, N': { channel: 'lift' } } } });
     expect(run.metadata['run']).toBe('12');

@@ -36,7 +36,9 @@ describe('header units in brackets, parentheses or a units row', () => {
   });
 
   it('refuses a units row cell that is not a unit, naming line and column', () => {
-    expect(errorOf(() => readRunText('u.csv', 'alpha,dp_pitot,lift\ndeg,kPa,furlong\n1,2,3\n'))).toMatch(/^u\.csv:2:3: column "lift" \(lift\) has unit "furlong", which is not a known unit/);
+    expect(errorOf(() => readRunText('u.csv', 'alpha,dp_pitot,lift\ndeg,kPa,furlong\n1,2,3\n'))).toMatch(
+      /^u\.csv:2:3: column "lift" \(lift\) has unit "furlong", which is not a known unit/,
+    );
   });
 
   it('refuses a units row unit of the wrong kind, naming the units row line', () => {
@@ -63,7 +65,13 @@ describe('whitespace-aligned files', () => {
   });
 
   it('reads an aligned file with a units row whose units hold spaces ("degr. C", "in lbf")', () => {
-    const text = ['# run: 7', '   alpha     dp_pitot   t_total   pitch', '   deg       mmH2O      degr. C   in lbf', '   -2.0      61.2       18.0      1.5', '\t 4.0 \t 61.0 \t 18.5 \t -1.5  '].join('\n');
+    const text = [
+      '# run: 7',
+      '   alpha     dp_pitot   t_total   pitch',
+      '   deg       mmH2O      degr. C   in lbf',
+      '   -2.0      61.2       18.0      1.5',
+      '\t 4.0 \t 61.0 \t 18.5 \t -1.5  ',
+    ].join('\n');
     const run = readRunText('a.txt', text);
     expect(run.delimiter).toBe(WHITESPACE);
     expect(run.points).toHaveLength(2);
@@ -75,7 +83,13 @@ describe('whitespace-aligned files', () => {
   it('reads names holding single spaces when columns are two or more spaces apart, and units with spaces in brackets', async () => {
     const { splitHeaderLine } = await import('../../core/formats/runFile.ts');
     expect(splitHeaderLine('Angle of Attack   Lift force   Mz', WHITESPACE)).toEqual(['Angle of Attack', 'Lift force', 'Mz']);
-    expect(splitHeaderLine('point  alpha [deg]  dp_pitot [Pa] p_static [Pa]  pitch [N m]', WHITESPACE)).toEqual(['point', 'alpha [deg]', 'dp_pitot [Pa]', 'p_static [Pa]', 'pitch [N m]']);
+    expect(splitHeaderLine('point  alpha [deg]  dp_pitot [Pa] p_static [Pa]  pitch [N m]', WHITESPACE)).toEqual([
+      'point',
+      'alpha [deg]',
+      'dp_pitot [Pa]',
+      'p_static [Pa]',
+      'pitch [N m]',
+    ]);
     expect(splitHeaderLine('alpha lift (N m)', WHITESPACE)).toEqual(['alpha', 'lift (N m)']);
   });
 
@@ -97,7 +111,9 @@ describe('numbers are decimal', () => {
   it('skips a row with more cells than the header (a decimal comma in a comma file), naming line and column; never truncates it', () => {
     const run = readRunText('c.csv', 'lift,drag\n1.5,2.5\n1,5,2,5\n');
     expect(run.points).toHaveLength(1);
-    expect(formatNotice(run.warnings[0]!)).toMatch(/^c\.csv:3:3: row skipped: 4 fields where the header has 2; column 3 has no header \(a decimal comma in a comma-separated file\?\)/);
+    expect(formatNotice(run.warnings[0]!)).toMatch(
+      /^c\.csv:3:3: row skipped: 4 fields where the header has 2; column 3 has no header \(a decimal comma in a comma-separated file\?\)/,
+    );
   });
 });
 
@@ -115,20 +131,50 @@ describe('load cells reading mass', () => {
 describe('grouping without a point column', () => {
   const rows = (list: [number, number][]) => 'alpha,dp_pitot,lift\n' + list.map(([a, dp], i) => `${a},${dp},${i}`).join('\n') + '\n';
 
-  it('joins consecutive rows whose alpha stays within 0.2° of the group\'s first row (encoder jitter of 0.1°)', () => {
-    const run = readRunText('g.csv', rows([[0, 500], [0.1, 501], [-0.09, 499], [2, 500], [2.05, 500], [4, 500]]));
+  it("joins consecutive rows whose alpha stays within 0.2° of the group's first row (encoder jitter of 0.1°)", () => {
+    const run = readRunText(
+      'g.csv',
+      rows([
+        [0, 500],
+        [0.1, 501],
+        [-0.09, 499],
+        [2, 500],
+        [2.05, 500],
+        [4, 500],
+      ]),
+    );
     expect(run.grouped).toBe(true);
-    expect(run.points.map((p) => [p.key, p.n])).toEqual([['2', 3], ['5', 2], ['7', 1]]);
+    expect(run.points.map((p) => [p.key, p.n])).toEqual([
+      ['2', 3],
+      ['5', 2],
+      ['7', 1],
+    ]);
     expect(ch(run, 'lift')).toBeCloseTo(1, 12); // mean of 0, 1, 2
   });
 
   it('follows a finer tolerance from the setup', () => {
-    const run = readRunText('g.csv', rows([[0, 500], [0.1, 501], [0.2, 499]]), { grouping: { alphaTolRad: 0.05 * D } });
+    const run = readRunText(
+      'g.csv',
+      rows([
+        [0, 500],
+        [0.1, 501],
+        [0.2, 499],
+      ]),
+      { grouping: { alphaTolRad: 0.05 * D } },
+    );
     expect(run.points).toHaveLength(3);
   });
 
   it('starts a new point where the wind state changes at the same angle (wind-off then wind-on)', () => {
-    const run = readRunText('g.csv', rows([[0, 0.3], [0, 0.2], [0, 500], [0, 502]]));
+    const run = readRunText(
+      'g.csv',
+      rows([
+        [0, 0.3],
+        [0, 0.2],
+        [0, 500],
+        [0, 502],
+      ]),
+    );
     expect(run.points.map((p) => p.n)).toEqual([2, 2]);
   });
 
@@ -153,7 +199,8 @@ describe('grouping without a point column', () => {
 });
 
 describe('column maps applied by the reader', () => {
-  const map = (columns: object) => readerMapping(parseColumnMap('facility.json', JSON.stringify({ format: 'sweepbook-columns', version: 1, columns })), 'facility.json');
+  const map = (columns: object) =>
+    readerMapping(parseColumnMap('facility.json', JSON.stringify({ format: 'sweepbook-columns', version: 1, columns })), 'facility.json');
 
   it('assigns header cells as written, with unit override, scale and offset in that unit, and null to ignore', () => {
     const text = 'Angle of Attack [deg],Pbar,Mz,Note,Qinf\n4,1000,2,x,60\n';
@@ -182,7 +229,7 @@ describe('column maps applied by the reader', () => {
     expect(msg).toMatch(/^facility\.json: columns\["Angle of attack"\]: names a column that f\.csv does not have \(its header, line 1: "AoA", "lift"\)/);
   });
 
-  it('passes over missing columns when reading a tare with its run\'s map', () => {
+  it("passes over missing columns when reading a tare with its run's map", () => {
     const m = { ...map({ AoA: { channel: 'alpha' }, Qinf: { channel: 'q' } }), partial: true };
     const run = readRunText('t.csv', 'AoA,lift\n1,2\n', { mapping: m });
     expect(run.channels).toEqual(['alpha', 'lift']);
@@ -192,7 +239,16 @@ describe('column maps applied by the reader', () => {
 describe('aligned files and units rows stream alike whatever the chunking', () => {
   it('gives the same points, units and warnings in chunks of any size, with LF or CRLF', async () => {
     const { RunFileReader } = await import('../../core/formats/runFile.ts');
-    const body = ['# run: 8', 'AoA      dp_pitot   lift     drag', 'deg      mmH2O      lb       g', ...Array.from({ length: 40 }, (_, i) => `${(Math.floor(i / 4) * 2 + (i % 2) * 0.05).toFixed(2)}     ${(61 + (i % 3) * 0.1).toFixed(1)}       ${(i * 0.1).toFixed(2)}     ${i % 5 === 4 ? '0x1' : (10 + i).toString()}`)];
+    const body = [
+      '# run: 8',
+      'AoA      dp_pitot   lift     drag',
+      'deg      mmH2O      lb       g',
+      ...Array.from(
+        { length: 40 },
+        (_, i) =>
+          `${(Math.floor(i / 4) * 2 + (i % 2) * 0.05).toFixed(2)}     ${(61 + (i % 3) * 0.1).toFixed(1)}       ${(i * 0.1).toFixed(2)}     ${i % 5 === 4 ? '0x1' : (10 + i).toString()}`,
+      ),
+    ];
     const whole = readRunText('s.txt', body.join('\n') + '\n', { mapping: { cells: { AoA: { channel: 'alpha' } } } });
     expect(whole.unitsLine).toBe(3);
     expect(whole.rowsSkipped).toBe(8);
@@ -202,7 +258,10 @@ describe('aligned files and units rows stream alike whatever the chunking', () =
         const r = new RunFileReader('s.txt', { mapping: { cells: { AoA: { channel: 'alpha' } } } });
         for (let i = 0; i < text.length; i += size) r.push(text.slice(i, i + size));
         const got = r.finish();
-        expect(got.points.map((p) => [p.key, p.n, ...p.mean]), `chunks of ${size}`).toEqual(whole.points.map((p) => [p.key, p.n, ...p.mean]));
+        expect(
+          got.points.map((p) => [p.key, p.n, ...p.mean]),
+          `chunks of ${size}`,
+        ).toEqual(whole.points.map((p) => [p.key, p.n, ...p.mean]));
         expect(got.warnings.map(formatNotice)).toEqual(whole.warnings.map(formatNotice));
       }
     }

@@ -93,10 +93,12 @@ describe('report point table', () => {
     expect(units![header!.indexOf('q')]).toBe('Pa');
     expect(units![header!.indexOf('alpha')]).toBe('deg');
     expect(rows.length).toBe(result.points.length);
-    for (const r of rows) for (const cell of r.slice(1)) if (cell !== '') {
-      expect(Number.isFinite(Number(cell)), cell).toBe(true);
-      expect(significantDigits(cell), cell).toBeLessThanOrEqual(7);
-    }
+    for (const r of rows)
+      for (const cell of r.slice(1))
+        if (cell !== '') {
+          expect(Number.isFinite(Number(cell)), cell).toBe(true);
+          expect(significantDigits(cell), cell).toBeLessThanOrEqual(7);
+        }
     const q = header!.indexOf('q');
     rows.forEach((r, i) => expect(Math.abs(Number(r[q]) - result.points[i]!.q_pa!)).toBeLessThanOrEqual(0.005 + 1e-9));
   });

@@ -7,21 +7,35 @@ const si = (value: number, unit: string) => toSI(value, lookupUnit(unit)!);
 describe('units of tunnel files as written (every spelling of the v2 list)', () => {
   it.each([
     // force
-    ['N', 1], ['kN', 1000], ['lbf', 4.4482216152605], ['lb', 4.4482216152605], // NIST SP 811 B.8 pound-force 4.448 222 E+00 N
+    ['N', 1],
+    ['kN', 1000],
+    ['lbf', 4.4482216152605],
+    ['lb', 4.4482216152605], // NIST SP 811 B.8 pound-force 4.448 222 E+00 N
     ['ozf', 4.4482216152605 / 16], // NIST SP 811 B.8 ounce-force 2.780 139 E-01 N
-    ['kgf', 9.80665], ['kp', 9.80665], // NIST SP 811 B.8 kilogram-force, exact
+    ['kgf', 9.80665],
+    ['kp', 9.80665], // NIST SP 811 B.8 kilogram-force, exact
     ['gf', 0.00980665], // NIST SP 811 B.8 gram-force 9.806 65 E-03 N
-    ['kg', 9.80665], ['g', 0.00980665], // mass indication × standard gravity 9.806 65 m/s² (NIST SP 811 B.8)
+    ['kg', 9.80665],
+    ['g', 0.00980665], // mass indication × standard gravity 9.806 65 m/s² (NIST SP 811 B.8)
   ])('force: 1 %s = %f N', (unit, n) => {
     expect(lookupUnit(unit)!.quantity).toBe('force');
     expect(si(1, unit)).toBeCloseTo(n, 12);
   });
 
   it.each([
-    ['N m', 1], ['Nm', 1], ['N·m', 1], ['N mm', 0.001], ['N cm', 0.01],
+    ['N m', 1],
+    ['Nm', 1],
+    ['N·m', 1],
+    ['N mm', 0.001],
+    ['N cm', 0.01],
     // NIST SP 811 B.8: pound-force inch 1.129 848 E-01 N m; pound-force foot 1.355 818 E+00 N m
-    ['lbf in', 0.1129848290276167], ['in-lb', 0.1129848290276167], ['in lbf', 0.1129848290276167], ['in·lbf', 0.1129848290276167], ['lb in', 0.1129848290276167],
-    ['lbf ft', 4.4482216152605 * 0.3048], ['ft-lb', 4.4482216152605 * 0.3048],
+    ['lbf in', 0.1129848290276167],
+    ['in-lb', 0.1129848290276167],
+    ['in lbf', 0.1129848290276167],
+    ['in·lbf', 0.1129848290276167],
+    ['lb in', 0.1129848290276167],
+    ['lbf ft', 4.4482216152605 * 0.3048],
+    ['ft-lb', 4.4482216152605 * 0.3048],
     ['kgf m', 9.80665], // NIST SP 811 B.8 kilogram-force metre 9.806 65 N m
   ])('moment: 1 %s = %f N m', (unit, nm) => {
     expect(lookupUnit(unit)!.quantity).toBe('moment');
@@ -29,7 +43,11 @@ describe('units of tunnel files as written (every spelling of the v2 list)', () 
   });
 
   it.each([
-    ['Pa', 1], ['kPa', 1000], ['hPa', 100], ['mbar', 100], ['bar', 1e5],
+    ['Pa', 1],
+    ['kPa', 1000],
+    ['hPa', 100],
+    ['mbar', 100],
+    ['bar', 1e5],
     ['psi', 6894.757293168361], // NIST SP 811 B.8 6.894 757 E+03 Pa
     ['torr', 133.32236842105263], // NIST SP 811 B.8 (101 325/760) Pa
     ['mmHg', 133.322387415], // NIST SP 811 B.8 conventional millimetre of mercury 1.333 224 E+02 Pa

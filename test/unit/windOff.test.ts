@@ -26,7 +26,9 @@ function refusal(text: string, opts: { tare?: string; setup?: string } = {}): st
 
 /** Data rows of a sample file as arrays of cells, and its header line. */
 function table(name: string): { header: string; rows: string[][] } {
-  const lines = sample(name).split('\n').filter((l) => l.trim() !== '' && !l.startsWith('#'));
+  const lines = sample(name)
+    .split('\n')
+    .filter((l) => l.trim() !== '' && !l.startsWith('#'));
   return { header: lines[0]!, rows: lines.slice(1).map((l) => l.split(',')) };
 }
 const run101 = table('run-101-clean.csv'); // alpha,dp_pitot,p_static,t_total,rh,lift,drag,pitch
@@ -99,7 +101,7 @@ describe('wind-off classification (pure)', () => {
     const q = 0.7 * p * M * M;
     const dp = p * ((1 + 0.2 * M * M) ** 3.5 - 1);
     expect(impactPressureFromQ(q, p, 1.4)).toBeCloseTo(dp, 9);
-    expect(dp / q).toBeCloseTo(1 + M * M / 4, 4); // low-Mach expansion p0 − p ≈ q(1 + M²/4)
+    expect(dp / q).toBeCloseTo(1 + (M * M) / 4, 4); // low-Mach expansion p0 − p ≈ q(1 + M²/4)
     expect(impactPressureFromQ(-3, p, 1.4)).toBe(-3);
   });
 });
@@ -114,7 +116,7 @@ describe('pressure sources', () => {
     return 0.7 * p * m2;
   };
 
-  it('reads the facility\'s own q and reduces it to the same coefficients as the pitot pressure', () => {
+  it("reads the facility's own q and reduces it to the same coefficients as the pitot pressure", () => {
     const r = reduce(withSource('q [Pa]', qOf));
     sameCoefficients(r, plain);
     expect(r.warnings.join('\n')).toContain('q is taken from "q" as the facility logged it');
@@ -123,7 +125,10 @@ describe('pressure sources', () => {
   it('reads dp_contraction × flow.contraction_factor', () => {
     const setup = JSON.parse(setupText);
     setup.flow.contraction_factor = 1.08;
-    const r = reduce(withSource('dp_contraction [Pa]', (row) => qOf(row) / 1.08), { setup: JSON.stringify(setup) });
+    const r = reduce(
+      withSource('dp_contraction [Pa]', (row) => qOf(row) / 1.08),
+      { setup: JSON.stringify(setup) },
+    );
     sameCoefficients(r, plain);
     expect(r.warnings.join('\n')).toContain('× flow.contraction_factor 1.08');
   });
@@ -133,7 +138,10 @@ describe('pressure sources', () => {
   });
 
   it('takes q before dp_pitot before dp_contraction, and says which', () => {
-    const text = [run101.header.replace('dp_pitot [Pa]', 'dp_pitot [Pa],q [Pa],dp_contraction [Pa]'), ...run101.rows.map((r) => [r[0], '9999', String(qOf(r)), '1', ...r.slice(2)].join(','))].join('\n');
+    const text = [
+      run101.header.replace('dp_pitot [Pa]', 'dp_pitot [Pa],q [Pa],dp_contraction [Pa]'),
+      ...run101.rows.map((r) => [r[0], '9999', String(qOf(r)), '1', ...r.slice(2)].join(',')),
+    ].join('\n');
     const r = reduce(text);
     sameCoefficients(r, plain);
     expect(r.warnings.join('\n')).toContain('"q", "dp_pitot", "dp_contraction" are all present: q is taken from "q"');
@@ -145,7 +153,11 @@ describe('wind-off points inside a run', () => {
 
   it('takes a wind-off sweep at the start of the file as the tare when none is given, with a notice', () => {
     const ref = run101.rows[0]!;
-    const text = [run101.header, ...tare100.rows.map((t, i) => windOffRow(t, (0.3 * (i % 2 ? 1 : -1)).toFixed(2), ref)), ...run101.rows.map((r) => r.join(','))].join('\n');
+    const text = [
+      run101.header,
+      ...tare100.rows.map((t, i) => windOffRow(t, (0.3 * (i % 2 ? 1 : -1)).toFixed(2), ref)),
+      ...run101.rows.map((r) => r.join(',')),
+    ].join('\n');
     const r = reduce(text);
     expect(r.points).toHaveLength(15);
     sameCoefficients(r, withTare, 12);
@@ -153,7 +165,7 @@ describe('wind-off points inside a run', () => {
     expect(r.run['tare_file']).toBe('run.csv');
   });
 
-  it('leaves the run\'s wind-off sweep out, naming its lines, when a tare file is given', () => {
+  it("leaves the run's wind-off sweep out, naming its lines, when a tare file is given", () => {
     const ref = run101.rows[0]!;
     const text = [run101.header, ...tare100.rows.slice(0, 3).map((t) => windOffRow(t, '0.1', ref)), ...run101.rows.map((r) => r.join(','))].join('\n');
     const r = reduce(text, { tare: sample('windoff-tare.csv') });
@@ -171,15 +183,22 @@ describe('wind-off points inside a run', () => {
     const drift = (line: number, a: number, b: number) => a + ((b - a) * (line - 2)) / (n + 1);
     const rows = run101.rows.map((r, i) => {
       const line = i + 3;
-      return [...r.slice(0, 5), Number(r[5]) + drift(line, start.l, end.l), Number(r[6]) + drift(line, start.d, end.d), Number(r[7]) + drift(line, start.m, end.m)].join(',');
+      return [
+        ...r.slice(0, 5),
+        Number(r[5]) + drift(line, start.l, end.l),
+        Number(r[6]) + drift(line, start.d, end.d),
+        Number(r[7]) + drift(line, start.m, end.m),
+      ].join(',');
     });
     const text = [run101.header, zero(start.l, start.d, start.m), ...rows, zero(end.l, end.d, end.m)].join('\n');
     const r = reduce(text);
     sameCoefficients(r, plain, 10);
-    expect(r.warnings.join('\n')).toMatch(/balance zero drift removed: start reading at line 2 .* end reading at line 18 .* interpolated linearly in file order/);
+    expect(r.warnings.join('\n')).toMatch(
+      /balance zero drift removed: start reading at line 2 .* end reading at line 18 .* interpolated linearly in file order/,
+    );
   });
 
-  it('interpolates in the time column when there is one, and subtracts the tare at the reading\'s alpha', () => {
+  it("interpolates in the time column when there is one, and subtracts the tare at the reading's alpha", () => {
     const n = run101.rows.length;
     const times = [0, ...Array.from({ length: n }, (_, i) => 100 + 30 * i * i), 100 + 30 * n * n];
     const tAt = (i: number) => times[i]!;
@@ -204,12 +223,16 @@ describe('wind-off points inside a run', () => {
 
 describe('tare checks', () => {
   it('refuses a tare without a load channel the run uses, naming the channel', () => {
-    const tare = sample('windoff-tare.csv').replace('pitch [N m]', 'note').replace(/,(-?[\d.]+)$/gm, ',x');
+    const tare = sample('windoff-tare.csv')
+      .replace('pitch [N m]', 'note')
+      .replace(/,(-?[\d.]+)$/gm, ',x');
     expect(refusal(sample('run-101-clean.csv'), { tare })).toMatch(/^tare\.csv:6: +the tare has no "pitch" column, which the run run\.csv uses/);
   });
 
   it('refuses a wind-on file given as the tare', () => {
-    expect(refusal(sample('run-101-clean.csv'), { tare: sample('run-102-flap10.csv') })).toMatch(/the tare is a wind-on file: its median q \(6\d\d Pa, from "dp_pitot"\) exceeds 5 % of the run's/);
+    expect(refusal(sample('run-101-clean.csv'), { tare: sample('run-102-flap10.csv') })).toMatch(
+      /the tare is a wind-on file: its median q \(6\d\d Pa, from "dp_pitot"\) exceeds 5 % of the run's/,
+    );
   });
 
   it('accepts a tare whose pressure column reads wind-off', () => {
@@ -222,7 +245,9 @@ describe('tare checks', () => {
 describe('missing required channel', () => {
   it('lists every column of the file with the closest matches', () => {
     const text = sample('run-101-clean.csv').replace('alpha [deg]', 'AoA [deg]');
-    expect(refusal(text)).toMatch(/missing required column "alpha" \(angle of attack\); the file's columns: 1 "AoA \[deg\]", 2 "dp_pitot \[Pa\]", .*8 "pitch \[N m\]"; closest: "AoA \[deg\]" \(column 1\)/);
+    expect(refusal(text)).toMatch(
+      /missing required column "alpha" \(angle of attack\); the file's columns: 1 "AoA \[deg\]", 2 "dp_pitot \[Pa\]", .*8 "pitch \[N m\]"; closest: "AoA \[deg\]" \(column 1\)/,
+    );
   });
 });
 

@@ -101,21 +101,33 @@ export function svgFigure(o: SvgFigureOptions): string {
   const px = (x: number) => plot.left + ((x - xr.min) / (xr.max - xr.min)) * (plot.right - plot.left);
   const py = (y: number) => plot.bottom - ((y - yr.min) / (yr.max - yr.min)) * (plot.bottom - plot.top);
   const parts: string[] = [];
-  parts.push(`<svg xmlns="http://www.w3.org/2000/svg" width="${o.width}" height="${o.height}" viewBox="0 0 ${o.width} ${o.height}" font-family="DejaVu Sans, Arial, sans-serif">`);
+  parts.push(
+    `<svg xmlns="http://www.w3.org/2000/svg" width="${o.width}" height="${o.height}" viewBox="0 0 ${o.width} ${o.height}" font-family="DejaVu Sans, Arial, sans-serif">`,
+  );
   parts.push(`<rect width="100%" height="100%" fill="#ffffff"/>`);
   parts.push(`<text x="${o.width / 2}" y="26" text-anchor="middle" font-size="17" font-weight="bold">${esc(o.title)}</text>`);
-  parts.push(`<clipPath id="plot-area"><rect x="${plot.left}" y="${plot.top}" width="${plot.right - plot.left}" height="${plot.bottom - plot.top}"/></clipPath>`);
+  parts.push(
+    `<clipPath id="plot-area"><rect x="${plot.left}" y="${plot.top}" width="${plot.right - plot.left}" height="${plot.bottom - plot.top}"/></clipPath>`,
+  );
   for (const t of niceTicks(xr.min, xr.max)) {
     const x = px(t).toFixed(1);
-    parts.push(`<line x1="${x}" y1="${plot.top}" x2="${x}" y2="${plot.bottom}" stroke="#e3e6ea"/><text x="${x}" y="${plot.bottom + 18}" text-anchor="middle" font-size="13">${esc(String(t))}</text>`);
+    parts.push(
+      `<line x1="${x}" y1="${plot.top}" x2="${x}" y2="${plot.bottom}" stroke="#e3e6ea"/><text x="${x}" y="${plot.bottom + 18}" text-anchor="middle" font-size="13">${esc(String(t))}</text>`,
+    );
   }
   for (const t of niceTicks(yr.min, yr.max)) {
     const y = py(t).toFixed(1);
-    parts.push(`<line x1="${plot.left}" y1="${y}" x2="${plot.right}" y2="${y}" stroke="#e3e6ea"/><text x="${plot.left - 8}" y="${(py(t) + 4).toFixed(1)}" text-anchor="end" font-size="13">${esc(String(t))}</text>`);
+    parts.push(
+      `<line x1="${plot.left}" y1="${y}" x2="${plot.right}" y2="${y}" stroke="#e3e6ea"/><text x="${plot.left - 8}" y="${(py(t) + 4).toFixed(1)}" text-anchor="end" font-size="13">${esc(String(t))}</text>`,
+    );
   }
   parts.push(`<rect x="${plot.left}" y="${plot.top}" width="${plot.right - plot.left}" height="${plot.bottom - plot.top}" fill="none" stroke="#888"/>`);
-  parts.push(`<text x="${(plot.left + plot.right) / 2}" y="${plot.bottom + 40}" text-anchor="middle" font-size="14" font-weight="bold">${esc(o.xTitle)}</text>`);
-  parts.push(`<text transform="translate(22 ${(plot.top + plot.bottom) / 2}) rotate(-90)" text-anchor="middle" font-size="14" font-weight="bold">${esc(o.yTitle)}</text>`);
+  parts.push(
+    `<text x="${(plot.left + plot.right) / 2}" y="${plot.bottom + 40}" text-anchor="middle" font-size="14" font-weight="bold">${esc(o.xTitle)}</text>`,
+  );
+  parts.push(
+    `<text transform="translate(22 ${(plot.top + plot.bottom) / 2}) rotate(-90)" text-anchor="middle" font-size="14" font-weight="bold">${esc(o.yTitle)}</text>`,
+  );
   parts.push(`<g clip-path="url(#plot-area)">`);
   for (const s of o.series) {
     // open rings stay see-through, so a repeat lying on its twin shows both
@@ -123,7 +135,9 @@ export function svgFigure(o: SvgFigureOptions): string {
     const r = s.style.filled ? 4 : 5.5;
     if (s.joined !== false && s.points.length > 1) {
       const d = s.points.map((p, i) => `${i ? 'L' : 'M'}${px(p.x).toFixed(1)} ${py(p.y).toFixed(1)}`).join('');
-      parts.push(`<path d="${d}" fill="none" stroke="${s.style.colour}" stroke-width="1.8"${s.style.dash.length ? ` stroke-dasharray="${s.style.dash.join(' ')}"` : ''}/>`);
+      parts.push(
+        `<path d="${d}" fill="none" stroke="${s.style.colour}" stroke-width="1.8"${s.style.dash.length ? ` stroke-dasharray="${s.style.dash.join(' ')}"` : ''}/>`,
+      );
     }
     for (const p of s.points) parts.push(marker(s.style.marker, px(p.x), py(p.y), r, fill, s.style.colour));
   }
@@ -133,7 +147,9 @@ export function svgFigure(o: SvgFigureOptions): string {
   o.series.forEach((s, i) => {
     const x = 24 + (i % 3) * colW;
     const y = legendTop + Math.floor(i / 3) * 20;
-    parts.push(`<line x1="${x}" y1="${y}" x2="${x + 30}" y2="${y}" stroke="${s.style.colour}" stroke-width="1.8"${s.style.dash.length ? ` stroke-dasharray="${s.style.dash.join(' ')}"` : ''}/>`);
+    parts.push(
+      `<line x1="${x}" y1="${y}" x2="${x + 30}" y2="${y}" stroke="${s.style.colour}" stroke-width="1.8"${s.style.dash.length ? ` stroke-dasharray="${s.style.dash.join(' ')}"` : ''}/>`,
+    );
     parts.push(marker(s.style.marker, x + 15, y, s.style.filled ? 4 : 5, s.style.filled ? s.style.colour : '#ffffff', s.style.colour));
     parts.push(`<text x="${x + 38}" y="${y + 4}" font-size="13">${esc(s.label)}</text>`);
   });

@@ -54,7 +54,12 @@ export function pointSheet(name: string, result: ReductionResult): Omit<Sheet<Bl
       }),
     ),
   ];
-  return { data, columns: cols.map((c) => ({ width: Math.max(9, c.header.length + 2) })), stickyRowsCount: 2, stickyColumnsCount: REPORT_COLUMNS[0]!.key === 'point' ? 1 : 0 };
+  return {
+    data,
+    columns: cols.map((c) => ({ width: Math.max(9, c.header.length + 2) })),
+    stickyRowsCount: 2,
+    stickyColumnsCount: REPORT_COLUMNS[0]!.key === 'point' ? 1 : 0,
+  };
 }
 
 export function workbookSheets(p: ExportProvenance, sources: readonly FitSource[]): Sheet<Blob>[] {

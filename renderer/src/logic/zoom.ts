@@ -34,7 +34,8 @@ export function typedRange(minText: string, maxText: string, axis: string): { ra
   if (a === '' && b === '') return { range: null, problem: null };
   const min = Number(a.replace(',', '.'));
   const max = Number(b.replace(',', '.'));
-  if (a === '' || b === '' || !Number.isFinite(min) || !Number.isFinite(max)) return { range: null, problem: `${axis}: give both ends as numbers, or leave both empty for the full range` };
+  if (a === '' || b === '' || !Number.isFinite(min) || !Number.isFinite(max))
+    return { range: null, problem: `${axis}: give both ends as numbers, or leave both empty for the full range` };
   if (!(min < max)) return { range: null, problem: `${axis}: the lower end (${a}) must be below the upper end (${b})` };
   return { range: { min, max }, problem: null };
 }
