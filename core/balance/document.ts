@@ -8,7 +8,7 @@
 import { InputError } from '../contract/messages.ts';
 import { CHANNELS, isChannel, type Channel } from '../formats/channels.ts';
 import { lookupUnit, unitsOf, type UnitConversion } from '../physics/units.ts';
-import { jsonErrorOffset } from '../setup/schema.ts';
+import { parseJsonText } from '../setup/schema.ts';
 import { invert, type Matrix } from './matrix.ts';
 
 export const BALANCE_FORMAT = 'sweepbook-balance';
@@ -80,21 +80,7 @@ export function quadraticTermNames(names: readonly string[]): string[] {
 
 /** Parse a balance file's text. Throws InputError naming the file, and the line and column of a JSON error. */
 export function parseBalance(file: string, text: string): Balance {
-  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
-  let json: unknown;
-  try {
-    json = JSON.parse(body);
-  } catch (err) {
-    const pos = jsonErrorOffset(body) ?? 0;
-    const before = body.slice(0, pos);
-    throw new InputError({
-      file,
-      line: before.split('\n').length,
-      column: pos - before.lastIndexOf('\n'),
-      message: `not valid JSON (${(err as Error).message})`,
-    });
-  }
-  return validateBalance(file, json);
+  return validateBalance(file, parseJsonText(file, text));
 }
 
 /**

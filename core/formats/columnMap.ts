@@ -31,7 +31,7 @@ import {
   type ColumnMapping,
   type HeaderCell,
 } from './runFile.ts';
-import { jsonErrorOffset, nearest } from '../setup/schema.ts';
+import { editDistance, nearest, parseJsonText } from '../setup/schema.ts';
 
 export const COLUMN_MAP_FORMAT = 'sweepbook-columns';
 export const COLUMN_MAP_VERSION = 1;
@@ -61,13 +61,7 @@ export const MAP_CHANNELS: readonly string[] = [POINT_COLUMN, ...CHANNEL_NAMES];
  */
 export function parseColumnMap(file: string, text: string): ColumnMap {
   const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
-  let json: unknown;
-  try {
-    json = JSON.parse(body);
-  } catch (err) {
-    const pos = jsonErrorOffset(body) ?? 0;
-    throw new InputError({ file, ...placeOf(body, pos), message: `not valid JSON (${(err as Error).message})` });
-  }
+  const json = parseJsonText(file, text);
   const fail = (field: string, where: string | undefined, message: string): never => {
     throw new InputError({ file, ...(where === undefined ? {} : placeOfKey(body, where)), field, message });
   };
@@ -360,21 +354,6 @@ function nameSimilarity(a: string, b: string): number {
   const y = norm(b);
   if (x === '' || y === '') return 0;
   return 1 - editDistance(x, y) / Math.max(x.length, y.length);
-}
-
-function editDistance(a: string, b: string): number {
-  const prev = new Array<number>(b.length + 1);
-  for (let j = 0; j <= b.length; j++) prev[j] = j;
-  for (let i = 1; i <= a.length; i++) {
-    let diag = prev[0]!;
-    prev[0] = i;
-    for (let j = 1; j <= b.length; j++) {
-      const tmp = prev[j]!;
-      prev[j] = Math.min(prev[j]! + 1, prev[j - 1]! + 1, diag + (a[i - 1] === b[j - 1] ? 0 : 1));
-      diag = tmp;
-    }
-  }
-  return prev[b.length]!;
 }
 
 function placeOf(text: string, pos: number): { line: number; column: number } {

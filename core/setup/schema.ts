@@ -450,17 +450,22 @@ export interface SetupResult {
 
 /** Parse and validate setup JSON text. Throws InputError naming the file and the field. */
 export function parseSetup(file: string, text: string): SetupResult {
-  let json: unknown;
+  return validateSetup(file, parseJsonText(file, text));
+}
+
+/**
+ * Parse a JSON document of ours (setup, column map, balance file), a byte-order mark allowed. Throws an
+ * InputError naming the file and the line and column where the text stops being JSON: located by our
+ * own scan, since V8 names no position for some errors ("Unexpected end of JSON input"; fuzz finding).
+ */
+export function parseJsonText(file: string, text: string): unknown {
   const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
   try {
-    json = JSON.parse(body);
+    return JSON.parse(body);
   } catch (err) {
-    // Located by our own scan of the text after the BOM: V8 names no position for some errors
-    // ("Unexpected end of JSON input", "Unexpected token 'x', ... is not valid JSON"), found by the fuzz tests.
     const { line, column } = jsonErrorPlace(body, err);
     throw new InputError({ file, line, column, message: `not valid JSON (${(err as Error).message})` });
   }
-  return validateSetup(file, json);
 }
 
 /** Validate an already-parsed setup object. Throws InputError naming the field. */
@@ -664,7 +669,8 @@ export function nearest(key: string, known: string[]): string | undefined {
   return best !== undefined && bestD <= Math.max(2, Math.floor(key.length / 2)) ? best : undefined;
 }
 
-function editDistance(a: string, b: string): number {
+/** Levenshtein distance between two strings (insertions, deletions, substitutions; common practice). */
+export function editDistance(a: string, b: string): number {
   const prev = new Array<number>(b.length + 1);
   for (let j = 0; j <= b.length; j++) prev[j] = j;
   for (let i = 1; i <= a.length; i++) {

@@ -6,6 +6,7 @@
  */
 import type { FitResult } from '../../../core/index.ts';
 import type { PointResult, ReductionResult } from '../../../core/index.ts';
+import { bracket as bracketIn } from '../../../core/index.ts';
 
 export interface Curve {
   alpha: number[];
@@ -45,19 +46,11 @@ export function curveOf(points: readonly PointResult[], pick: (p: PointResult) =
   return { alpha, value, u };
 }
 
-/** The neighbours of x on a sorted α list and the fraction of the way between them; null outside. */
+/** The neighbours of x on a sorted α list and the fraction of the way between them (core's one interpolation search); null outside. */
 function bracket(a: readonly number[], x: number): { lo: number; hi: number; t: number } | null {
-  const n = a.length;
-  if (n === 0 || x < a[0]! || x > a[n - 1]!) return null;
-  if (n === 1) return { lo: 0, hi: 0, t: 0 };
-  let lo = 0;
-  let hi = n - 1;
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1;
-    if (a[mid]! <= x) lo = mid;
-    else hi = mid;
-  }
-  return { lo, hi, t: (x - a[lo]!) / (a[hi]! - a[lo]!) };
+  if (a.length === 0) return null;
+  const b = bracketIn(a, x);
+  return b.outside ? null : b;
 }
 
 /** Linear interpolation y(x) on a curve sorted by α; null outside its range. */
