@@ -3,7 +3,7 @@
  * iteration and the least-squares calibration, against an independent reference computed with numpy
  * (numpy.linalg.lstsq) and scipy (scipy.optimize.fsolve, a general root finder rather than the
  * fixed-point iteration used here) by test/fixtures/balance/generate.py. The AIAA R-091 two-component
- * worked example was located (as a web transcript) but its data tables could not be retrieved in full,
+ * worked example was located (as a web copy) but its data tables could not be retrieved in full,
  * so the checks use this independent computation instead.
  */
 import { readFileSync } from 'node:fs';
