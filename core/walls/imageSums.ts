@@ -113,7 +113,7 @@ export function solidBlockageTau1({ B, H }: Section): number {
   return (Math.pow(C, 1.5) / (4 * Math.PI)) * sum;
 }
 
-type Vec = [number, number, number];
+export type Vec = [number, number, number];
 
 /** z-velocity at point P of a straight vortex segment A→B of unit strength (Biot–Savart; Katz & Plotkin, Low-Speed Aerodynamics, 2nd ed., eq. 10.115). */
 function segmentW(P: Vec, A: Vec, Bp: Vec): number {
@@ -144,7 +144,7 @@ function trailingW(P: Vec, A: Vec): number {
 }
 
 /** Upwash at P of a unit horseshoe of span bv centred at (0, yc, zc): bound vortex along +y (lift up), legs to +∞. */
-function horseshoeW(P: Vec, yc: number, zc: number, bv: number): number {
+export function horseshoeW(P: Vec, yc: number, zc: number, bv: number): number {
   const s = bv / 2;
   const left: Vec = [0, yc - s, zc];
   const right: Vec = [0, yc + s, zc];

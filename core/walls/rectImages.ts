@@ -12,7 +12,7 @@
  * Frame as in imageSums.ts: x downstream, y along the span, z in the lift direction, model at the centre.
  */
 import type { Boundary, RectImageSection } from './sections.ts';
-import type { Loading } from './imageSums.ts';
+import { horseshoeW, type Loading, type Vec } from './imageSums.ts';
 
 /** Reflection factor of a trailing vortex (−1 at a solid wall, +1 at a free boundary). */
 const vortexFactor = (b: Boundary) => (b === 'solid' ? -1 : 1);
@@ -189,40 +189,7 @@ export function tau1Rect(sec: RectImageSection): number {
   return (Math.pow(B * H, 1.5) / (4 * Math.PI)) * sum;
 }
 
-type Vec = [number, number, number];
-
-/** z-velocity at P of a straight unit vortex segment A→B (Biot–Savart; Katz & Plotkin, Low-Speed Aerodynamics, 2nd ed., eq. 10.115). */
-function segmentW(P: Vec, A: Vec, Bp: Vec): number {
-  const r1: Vec = [P[0] - A[0], P[1] - A[1], P[2] - A[2]];
-  const r2: Vec = [P[0] - Bp[0], P[1] - Bp[1], P[2] - Bp[2]];
-  const cx = r1[1] * r2[2] - r1[2] * r2[1];
-  const cy = r1[2] * r2[0] - r1[0] * r2[2];
-  const cz = r1[0] * r2[1] - r1[1] * r2[0];
-  const c2 = cx * cx + cy * cy + cz * cz;
-  if (c2 < 1e-24) return 0;
-  const r0: Vec = [Bp[0] - A[0], Bp[1] - A[1], Bp[2] - A[2]];
-  const n1 = Math.hypot(...r1); // bounded spread: a 3-vector
-  const n2 = Math.hypot(...r2); // bounded spread: a 3-vector
-  const k = (r0[0] * (r1[0] / n1 - r2[0] / n2) + r0[1] * (r1[1] / n1 - r2[1] / n2) + r0[2] * (r1[2] / n1 - r2[2] / n2)) / (4 * Math.PI * c2);
-  return k * cz;
-}
-
-/** z-velocity at P of a semi-infinite unit vortex from A to +∞ along x. */
-function trailingW(P: Vec, A: Vec): number {
-  const ry = P[1] - A[1];
-  const rz = P[2] - A[2];
-  const rx = P[0] - A[0];
-  const d2 = ry * ry + rz * rz;
-  if (d2 < 1e-24) return 0;
-  const r = Math.sqrt(rx * rx + d2);
-  return (ry / (4 * Math.PI * d2)) * (1 + rx / r);
-}
-
-/** Upwash at P of a unit horseshoe of span bv centred at (0, yc, zc) (bound vortex along +y, lift up). */
-function horseshoeW(P: Vec, yc: number, zc: number, bv: number): number {
-  const s = bv / 2;
-  return segmentW(P, [0, yc - s, zc], [0, yc + s, zc]) + trailingW(P, [0, yc + s, zc]) - trailingW(P, [0, yc - s, zc]);
-}
+// the vortex-segment kernels (Biot–Savart) are imageSums.ts's: one copy serves both
 
 /**
  * Streamline-curvature factor τ2 = δ(l)/δ(0) − 1 by Biot–Savart over the image horseshoes, as
