@@ -52,4 +52,6 @@ export default {
   Tooltip: part,
   Legend: part,
   Title: part,
+  // the plots' own hover mode is registered here (charts/chartSetup.ts)
+  Interaction: { modes: {} as Record<string, unknown> },
 };
