@@ -164,7 +164,7 @@ export function polarCurve(fit: FitResult, points: readonly PointResult[], branc
     : (cl: number) => fit.cd0! + fit.k_induced! * cl * cl;
   const out: PlotPoint[] = [];
   for (let s = 0; s <= POLAR_STEPS; s++) {
-    const cl = clLo + ((clHi - clLo) * s) / POLAR_STEPS;
+    const cl = s === POLAR_STEPS ? clHi : clLo + ((clHi - clLo) * s) / POLAR_STEPS;
     out.push({ x: cd(cl), y: cl });
   }
   const eq = cambered
