@@ -83,12 +83,15 @@ describe('sweep branches of the plotted points', () => {
     expect(branchName(sweep.directions, 1)).toBe('return sweep (branch 2 of 2)');
   });
 
-  it('puts one arrowhead in the middle of each branch', () => {
+  it("puts one arrowhead on each branch, where a loop's branches part near the turn", () => {
     expect(arrowSegments([])).toEqual([]);
     expect(arrowSegments([0])).toEqual([]);
     expect(arrowSegments([0, 0, 0, 0, 1, 1, 1])).toEqual([2, 5]);
     // a branch of one plotted point gets the segment that reaches it
-    expect(arrowSegments([0, 0, 0, 1])).toEqual([1, 3]);
+    expect(arrowSegments([0, 0, 0, 1])).toEqual([2, 3]);
+    // one branch: halfway; three: near the turns on the outer branches, halfway on the middle one
+    expect(arrowSegments([0, 0, 0, 0, 0])).toEqual([2]);
+    expect(arrowSegments([0, 0, 0, 1, 1, 1, 2, 2, 2])).toEqual([2, 4, 7]);
     const b = pointBranches(back)!;
     const segs = arrowSegments(b.branchOf);
     expect(segs).toHaveLength(2);
@@ -228,7 +231,14 @@ describe('what Chart.js is handed', () => {
     // the fitted line in the run's colour, pale and broad, under the points; the CLmax mark on top
     expect(datasets[2]!.borderColor).toBe('rgba(213,94,0,0.3)');
     expect([datasets[2]!.order, datasets[3]!.order]).toEqual([1, -1]);
-    expect(marks.arrows).toEqual([{ dataset: 1, segments: [7, 22] }]);
+    expect(marks.arrows).toEqual([{ dataset: 1, segments: [11, 18] }]);
+    // both arrows lie inside the hysteresis loop the engine finds, where the two branches part
+    const [h0, h1] = back.fit.hysteresis_alpha_range_deg!;
+    for (const i of [11, 18]) {
+      const mid = (points[i - 1]!.x + points[i]!.x) / 2;
+      expect(mid).toBeGreaterThan(h0);
+      expect(mid).toBeLessThan(h1);
+    }
     expect(marks.clMax).toEqual([{ dataset: 3, xu: null, yu: null }]);
   });
 
@@ -272,7 +282,7 @@ describe('what Chart.js is handed', () => {
   it('explains each mark once in the key, whatever the number of runs carrying it', () => {
     expect(markKey(runs, 'cl-alpha').map((k) => k.kind)).toEqual(['return', 'clmax', 'fit']);
     expect(markKey([...runs, runs[1]!], 'cl-alpha')).toHaveLength(3);
-    expect(markKey(runs, 'cd-cl')[2]!.text).toBe('fitted drag polar over its fitted range');
+    expect(markKey(runs, 'cd-cl')[2]!.text).toBe('fitted drag polar');
     expect(markKey([runs[0]!], 'cl-alpha')).toEqual([]);
   });
 });
@@ -280,11 +290,11 @@ describe('what Chart.js is handed', () => {
 describe('mark geometry', () => {
   it('points the arrowhead along the segment, centred on its middle, and leaves short segments alone', () => {
     const [tip, l, r] = arrowHead({ x: 0, y: 0 }, { x: 40, y: 0 })!;
-    expect(tip).toEqual({ x: 24, y: 0 });
-    expect([l.x, r.x]).toEqual([16, 16]);
-    expect(Math.abs(l.y - r.y)).toBe(8);
+    expect(tip).toEqual({ x: 25, y: 0 });
+    expect([l.x, r.x]).toEqual([15, 15]);
+    expect(Math.abs(l.y - r.y)).toBe(9);
     const down = arrowHead({ x: 0, y: 0 }, { x: 0, y: -30 })!;
-    expect(down[0]).toEqual({ x: 0, y: -19 });
+    expect(down[0]).toEqual({ x: 0, y: -20 });
     expect(arrowHead({ x: 0, y: 0 }, { x: 10, y: 0 })).toBeNull();
   });
 

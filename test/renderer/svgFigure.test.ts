@@ -80,7 +80,7 @@ describe('svg figure', () => {
       expect(svg).toMatch(/<path d="[^"]+" fill="none" stroke="#009E73" stroke-width="1.8"\/>/);
       expect(svg.match(/class="sweep-arrow"/g)).toHaveLength(2);
       expect(svg).toContain('<g class="key" data-key="return">');
-      expect(svg).toContain('thin line: α falling (return sweep); arrows: sweep direction');
+      expect(svg).toContain('return sweep (α falling)');
       expect(svg).not.toContain('clmax-mark');
       expect(svg).not.toContain('fit-line');
     });

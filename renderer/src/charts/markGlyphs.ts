@@ -12,9 +12,9 @@ export interface Px {
 }
 
 /** Arrowhead length and half-width, px. */
-export const ARROW = { length: 8, halfWidth: 4 } as const;
+export const ARROW = { length: 10, halfWidth: 4.5 } as const;
 /** Segments shorter than this on screen get no arrowhead (it would hide the points). */
-export const ARROW_MIN_SEGMENT_PX = 14;
+export const ARROW_MIN_SEGMENT_PX = 16;
 
 /** The three corners of an arrowhead centred on the middle of the segment a → b, tip towards b; null for a short segment. */
 export function arrowHead(a: Px, b: Px): [Px, Px, Px] | null {

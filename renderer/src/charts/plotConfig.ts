@@ -168,7 +168,16 @@ export function plotConfig(
       interaction: { mode: 'nearestPoint', intersect: false },
       scales: {
         x: { type: 'linear', title: { display: true, text: axes.xTitle, font: { size: 13, weight: 'bold' } }, min: limits.x?.min, max: limits.x?.max, grid: { color: '#e3e6ea' }, ticks: { includeBounds: false } },
-        y: { type: 'linear', title: { display: true, text: axes.yTitle, font: { size: 13, weight: 'bold' } }, min: limits.y?.min, max: limits.y?.max, grid: { color: '#e3e6ea' }, ticks: { includeBounds: false } },
+        y: {
+          type: 'linear',
+          title: { display: true, text: axes.yTitle, font: { size: 13, weight: 'bold' } },
+          min: limits.y?.min,
+          max: limits.y?.max,
+          // room above the highest CLmax for its caret
+          ...(marks.clMax.length ? { grace: '15%' } : {}),
+          grid: { color: '#e3e6ea' },
+          ticks: { includeBounds: false },
+        },
       },
       plugins: {
         legend: {

@@ -99,7 +99,7 @@ const KEY_GREY = '#4a5058';
 /** The small drawing of a key entry, centred at (x, y), 30 px wide. */
 function keySwatch(kind: KeyEntry['kind'], x: number, y: number): string {
   if (kind === 'return') {
-    const head = arrowHead({ x: x + 15, y }, { x: x, y })!;
+    const head = arrowHead({ x: x + 26, y }, { x: x + 4, y })!;
     return `<line x1="${x}" y1="${y}" x2="${x + 30}" y2="${y}" stroke="${KEY_GREY}" stroke-width="${FALLING_LINE_PX}"/><polygon points="${pts(head)}" fill="${KEY_GREY}"/>`;
   }
   if (kind === 'fit')

@@ -56,19 +56,25 @@ export function segmentFalls(sweep: SweepInfo, i: number): boolean {
 }
 
 /**
- * Where the arrowheads go: one per branch, on the segment (i − 1 → i, given as i) in the middle of the
- * branch's plotted points; a branch of a single plotted point gets the segment that reaches it.
+ * Where the arrowheads go: one per branch (given as the index i of the segment i − 1 → i). On a run that
+ * turns, the arrows sit where the branches part, near the turn: three quarters of the way along the
+ * first branch, a quarter of the way along the last, halfway along any between; a single branch gets
+ * its arrow halfway. A branch of a single plotted point gets the segment that reaches it.
  */
 export function arrowSegments(branchOf: readonly number[]): number[] {
   const out: number[] = [];
+  const count = new Set(branchOf).size;
   let start = 0;
+  let k = 0;
   for (let i = 1; i <= branchOf.length; i++) {
     if (i < branchOf.length && branchOf[i] === branchOf[start]) continue;
-    // points start … i − 1 form one branch; segments ending at start + 1 … i − 1 lie inside it
-    const last = i - 1;
-    const seg = last > start ? start + Math.ceil((last - start) / 2) : start;
+    // points start … i − 1 form one branch; its own segments end at start + 1 … i − 1
+    const segments = i - 1 - start;
+    const f = count === 1 ? 0.5 : k === 0 ? 0.75 : k === count - 1 ? 0.25 : 0.5;
+    const seg = segments > 0 ? start + Math.min(segments, Math.max(1, Math.round(f * segments))) : start;
     if (seg >= 1) out.push(seg);
     start = i;
+    k++;
   }
   return out;
 }
@@ -217,11 +223,9 @@ export interface KeyEntry {
 /** The key entries the shown series need, in a fixed order. */
 export function markKey(series: readonly { sweep?: SweepInfo; marks?: SeriesMarks }[], plot: string): KeyEntry[] {
   const out: KeyEntry[] = [];
-  if (series.some((s) => s.sweep?.directions.includes('down')))
-    out.push({ kind: 'return', text: 'thin line: α falling (return sweep); arrows: sweep direction' });
-  if (series.some((s) => s.marks?.clMax)) out.push({ kind: 'clmax', text: 'CLmax from the fit (± one standard uncertainty)' });
-  if (series.some((s) => s.marks?.fitLine))
-    out.push({ kind: 'fit', text: plot === 'cd-cl' ? 'fitted drag polar over its fitted range' : 'fitted lift line over its linear range' });
+  if (series.some((s) => s.sweep?.directions.includes('down'))) out.push({ kind: 'return', text: 'return sweep (α falling)' });
+  if (series.some((s) => s.marks?.clMax)) out.push({ kind: 'clmax', text: 'fitted CLmax (± u)' });
+  if (series.some((s) => s.marks?.fitLine)) out.push({ kind: 'fit', text: plot === 'cd-cl' ? 'fitted drag polar' : 'fitted lift line (linear range)' });
   return out;
 }
 
