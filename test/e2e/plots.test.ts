@@ -194,6 +194,9 @@ run('the Plots view: sweep branches, CLmax and fitted lines', () => {
     expect(await page.getByLabel('Mark CLmax').isChecked()).toBe(true);
     expect(await page.getByLabel('Show fitted lines').isChecked()).toBe(true);
     await expect.poll(async () => (await drawn(page, 'cl-alpha')).datasets.some((d) => d.role === 'clmax')).toBe(true);
+    // hovering runs the plots' own hover mode over runs, fitted lines and CLmax marks without a page error
+    const box = (await page.locator('[data-plot="cl-alpha"] canvas').boundingBox())!;
+    for (const f of [0.2, 0.5, 0.7, 0.8, 0.9]) await page.mouse.move(box.x + box.width * f, box.y + box.height * (1 - f));
     await page.getByLabel('Mark CLmax').uncheck();
     await page.getByLabel('Show fitted lines').uncheck();
     await expect.poll(async () => (await drawn(page, 'cl-alpha')).datasets.every((d) => d.role === 'run')).toBe(true);

@@ -199,12 +199,13 @@ export function plotConfig(
             label: (item: TooltipItem<'scatter'>) => {
               const s = series[owner[item.datasetIndex]!];
               const role = roles[item.datasetIndex];
-              if (role === 'clmax') return `${s?.label}: ${s?.marks?.clMax?.text ?? ''}`;
-              if (role === 'fit') return `${s?.label}: ${s?.marks?.fitLine?.text ?? ''}`;
+              // a second line rather than a wider box: the plots are narrow on a laptop
+              if (role === 'clmax') return [`${s?.label}:`, s?.marks?.clMax?.text ?? ''];
+              if (role === 'fit') return [`${s?.label}:`, s?.marks?.fitLine?.text ?? ''];
               const raw = item.raw as PlotPoint;
               const text = `${item.dataset.label}: ${axes.xName} = ${readOut(item.parsed.x!, raw.xu, axes.xDecimals, unitOf(axes.xTitle))}, ${axes.yName} = ${readOut(item.parsed.y!, raw.yu, axes.yDecimals, unitOf(axes.yTitle))}`;
               const branch = s?.sweep?.branchOf[item.dataIndex];
-              return s?.sweep && branch !== undefined ? `${text}, ${branchName(s.sweep.directions, branch)}` : text;
+              return s?.sweep && branch !== undefined ? [text, branchName(s.sweep.directions, branch)] : text;
             },
           },
         },
