@@ -125,5 +125,17 @@ describe('svg figure', () => {
       expect(svg).toContain('201 · section (2D): no CLmax: no stall is seen');
       expect(svg.indexOf('class="mark-notes"')).toBeLessThan(svg.indexOf('class="provenance"'));
     });
+
+    it('leaves room above a CLmax at the top of the data for its caret', () => {
+      const top = { x: 10, y: 1.0, xu: null, yu: null, text: 'CLmax 1.0000 at α 10.00 deg' };
+      const plain = svgFigure({ ...base, series: [loop] });
+      const marked = svgFigure({ ...base, series: [{ ...loop, marks: { clMax: top, notes: [] } }] });
+      const ticks = (svg: string) => [...svg.matchAll(/text-anchor="end" font-size="13">([^<]+)</g)].map((m) => Number(m[1]));
+      expect(Math.max(...ticks(plain))).toBe(1);
+      expect(Math.max(...ticks(marked))).toBeGreaterThan(1);
+      // a range the user typed is kept as typed
+      const typed = svgFigure({ ...base, series: [{ ...loop, marks: { clMax: top, notes: [] } }], limits: { y: { min: 0, max: 1 } } });
+      expect(Math.max(...ticks(typed))).toBe(1);
+    });
   });
 });

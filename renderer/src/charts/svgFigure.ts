@@ -145,6 +145,11 @@ export function svgFigure(o: SvgFigureOptions): string {
   ]);
   const xr = o.limits?.x ?? extent(xs);
   const yr = o.limits?.y ?? extent(ys);
+  // room above the highest CLmax for its caret (about 16 px), unless the user chose the range
+  const tops = o.series.flatMap((s) => (s.marks?.clMax ? [s.marks.clMax.y + (s.marks.clMax.yu ?? 0)] : []));
+  if (!o.limits?.y && tops.length && ((yr.max - maxOf(tops)) / (yr.max - yr.min)) * (plot.bottom - plot.top) < 16) {
+    yr.max += niceStep(yr.max - yr.min);
+  }
   const px = (x: number) => plot.left + ((x - xr.min) / (xr.max - xr.min)) * (plot.right - plot.left);
   const py = (y: number) => plot.bottom - ((y - yr.min) / (yr.max - yr.min)) * (plot.bottom - plot.top);
   const parts: string[] = [];
