@@ -181,6 +181,12 @@ run('the Plots view: sweep branches, CLmax and fitted lines', () => {
     expect(svg.match(/class="branch-falling"/g)).toHaveLength(1);
     expect(svg).toContain(`data-cl-max="${back.fit.cl_max}"`);
     expect(svg).toContain('108 · clean: no CLmax: ');
+    const [dp] = await Promise.all([page.waitForEvent('download'), page.locator('[data-plot="cd-cl"]').getByRole('button', { name: 'SVG' }).click()]);
+    const polar = readFileSync((await dp.path())!, 'utf8');
+    writeFileSync(join(ARTIFACTS, 'plots-marks-polar.svg'), polar);
+    expect(polar.match(/class="fit-line"/g)).toHaveLength(4);
+    expect(polar).not.toContain('clmax-mark');
+    expect(polar.match(/class="sweep-arrow"/g)).toHaveLength(2);
     const [p] = await Promise.all([page.waitForEvent('download'), panel.getByRole('button', { name: 'PNG' }).click()]);
     const png = readFileSync((await p.path())!);
     writeFileSync(join(ARTIFACTS, 'plots-marks-export.png'), png);
