@@ -288,6 +288,10 @@ describe('what Chart.js is handed', () => {
     expect(markKey(runs, 'cl-alpha').map((k) => k.kind)).toEqual(['return', 'clmax', 'fit']);
     expect(markKey([...runs, runs[1]!], 'cl-alpha')).toHaveLength(3);
     expect(markKey(runs, 'cd-cl')[2]!.text).toBe('fitted drag polar');
+    // the key promises uncertainty bars only when a mark has them
+    expect(markKey(runs, 'cl-alpha')[1]!.text).toBe('fitted CLmax');
+    const withU = { ...runs[1]!, marks: { ...runs[1]!.marks!, clMax: { ...runs[1]!.marks!.clMax!, yu: 0.01 } } };
+    expect(markKey([withU], 'cl-alpha')[1]!.text).toBe('fitted CLmax, ± one standard uncertainty');
     expect(markKey([runs[0]!], 'cl-alpha')).toEqual([]);
   });
 });

@@ -114,6 +114,7 @@ describe('svg figure', () => {
       expect(svg.match(/class="fit-line"/g)).toHaveLength(1);
       expect(svg.indexOf('class="fit-line"')).toBeLessThan(svg.indexOf('<circle'));
       expect(svg).toMatch(/<path class="fit-line" d="M[\d.]+ [\d.]+L[\d.]+ [\d.]+" fill="none" stroke="#009E73" stroke-opacity="0.3" stroke-width="6"/);
+      expect(svg).toContain('<title>107 · clean: fitted lift line</title>');
       const mark = /<g class="clmax-mark" data-cl-max="1" data-alpha="10">(.*?)<\/g>/.exec(svg);
       expect(mark).not.toBeNull();
       expect(mark![1]).toContain('<title>107 · clean: CLmax 1.0000 ± 0.0200 at α 10.00 ± 0.20 deg</title>');

@@ -187,7 +187,7 @@ export function svgFigure(o: SvgFigureOptions): string {
     if (!f || f.points.length < 2) continue;
     const d = f.points.map((p, i) => `${i ? 'L' : 'M'}${px(p.x).toFixed(1)} ${py(p.y).toFixed(1)}`).join('');
     parts.push(
-      `<path class="fit-line" d="${d}" fill="none" stroke="${s.style.colour}" stroke-opacity="${FIT_LINE_ALPHA}" stroke-width="${FIT_LINE_PX}" stroke-linecap="round"/>`,
+      `<path class="fit-line" d="${d}" fill="none" stroke="${s.style.colour}" stroke-opacity="${FIT_LINE_ALPHA}" stroke-width="${FIT_LINE_PX}" stroke-linecap="round"><title>${esc(`${s.label}: ${f.text}`)}</title></path>`,
     );
   }
   for (const s of o.series) {

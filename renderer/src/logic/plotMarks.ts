@@ -224,7 +224,9 @@ export interface KeyEntry {
 export function markKey(series: readonly { sweep?: SweepInfo; marks?: SeriesMarks }[], plot: string): KeyEntry[] {
   const out: KeyEntry[] = [];
   if (series.some((s) => s.sweep?.directions.includes('down'))) out.push({ kind: 'return', text: 'return sweep (α falling)' });
-  if (series.some((s) => s.marks?.clMax)) out.push({ kind: 'clmax', text: 'fitted CLmax (± u)' });
+  const peaks = series.flatMap((s) => (s.marks?.clMax ? [s.marks.clMax] : []));
+  if (peaks.length)
+    out.push({ kind: 'clmax', text: peaks.some((m) => m.xu !== null || m.yu !== null) ? 'fitted CLmax, ± one standard uncertainty' : 'fitted CLmax' });
   if (series.some((s) => s.marks?.fitLine)) out.push({ kind: 'fit', text: plot === 'cd-cl' ? 'fitted drag polar' : 'fitted lift line (linear range)' });
   return out;
 }
