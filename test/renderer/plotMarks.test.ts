@@ -11,7 +11,9 @@ import { splitBranches } from '../../core/fits/sweepBranches.ts';
 import { readSetup, reduceRun } from '../../core/reduction/engine.ts';
 import type { ReductionResult } from '../../core/reduction/pipeline.ts';
 import { readRunText } from '../../core/formats/runFile.ts';
+import type { Chart, ChartEvent } from 'chart.js';
 import { arrowHead, clMaxGlyph } from '../../renderer/src/charts/markGlyphs.ts';
+import { nearestPoint, plotMarks as marksPlugin } from '../../renderer/src/charts/plugins.ts';
 import { datasetsOf, plotConfig, type Series } from '../../renderer/src/charts/plotConfig.ts';
 import { styleFor } from '../../renderer/src/logic/palette.ts';
 import {
@@ -316,6 +318,78 @@ describe('mark geometry', () => {
     expect(g.caret[0]).toEqual({ x: 100, y: 47 });
     expect(g.caret[1]!.y).toBeLessThan(47);
     expect(clMaxGlyph({ x: 100, y: 50 }, 30).caret[0]).toEqual({ x: 100, y: 27 });
+  });
+});
+
+/** A chart stand-in: linear scales, a recording context, a run (dataset 0), a fitted line (1) and a CLmax mark (2). */
+function fakeChart() {
+  const ops: string[] = [];
+  const ctx = new Proxy({} as Record<string, unknown>, {
+    get:
+      (_t, name: string) =>
+      (...args: number[]) =>
+        ops.push(`${name}(${args.map((a) => (typeof a === 'number' ? +a.toFixed(3) : a)).join(',')})`),
+    set: (_t, name: string, v) => {
+      ops.push(`${name}=${v}`);
+      return true;
+    },
+  });
+  // x: 10 px per unit from 100; y: 100 px per unit, upward, from 300
+  const px = (p: { x: number; y: number }) => ({ x: 100 + 10 * p.x, y: 300 - 100 * p.y, getProps: () => ({ x: 100 + 10 * p.x, y: 300 - 100 * p.y }) });
+  const data = [
+    [
+      { x: 0, y: 0 },
+      { x: 4, y: 0.4 },
+      { x: 8, y: 0.8 },
+      { x: 4, y: 0.3 },
+    ],
+    [
+      { x: 0, y: 0.01 },
+      { x: 8, y: 0.81 },
+    ],
+    [{ x: 7, y: 0.85 }],
+  ];
+  const chart = {
+    ctx,
+    chartArea: { left: 50, top: 10, right: 450, bottom: 310 },
+    scales: { x: { getPixelForValue: (v: number) => 100 + 10 * v }, y: { getPixelForValue: (v: number) => 300 - 100 * v } },
+    options: {
+      plugins: { plotMarks: { roles: ['run', 'fit', 'clmax'], arrows: [{ dataset: 0, segments: [1, 3] }], clMax: [{ dataset: 2, xu: 0.5, yu: 0.05 }] } },
+    },
+    data: { datasets: data.map((d, i) => ({ borderColor: ['#0072B2', 'rgba(0,114,178,0.3)', '#0072B2'][i], data: d })) },
+    isDatasetVisible: () => true,
+    getDatasetMeta: (d: number) => ({ index: d, data: data[d]!.map(px) }),
+    getSortedVisibleDatasetMetas: () => data.map((d, i) => ({ index: i, data: d.map(px) })),
+    isPointInArea: (p: { x: number; y: number }) => p.x >= 50 && p.x <= 450 && p.y >= 10 && p.y <= 310,
+  };
+  return { chart: chart as unknown as Chart<'scatter'>, ops };
+}
+
+describe('the marks plugin and the hover mode', () => {
+  it('draws an arrowhead on each listed segment and the CLmax mark with its bars, clipped to the plot area', () => {
+    const { chart, ops } = fakeChart();
+    (marksPlugin.afterDatasetsDraw as (c: Chart<'scatter'>) => void)(chart);
+    expect(ops.slice(0, 4)).toEqual(['save()', 'beginPath()', 'rect(50,10,400,300)', 'clip()']);
+    // segment 0 → 1 runs from (100, 300) to (140, 260): tip 5 px past its middle (120, 280) towards (140, 260)
+    expect(ops).toContain(`moveTo(${+(120 + 5 / Math.SQRT2).toFixed(3)},${+(280 - 5 / Math.SQRT2).toFixed(3)})`);
+    // segment 2 → 3 runs from (180, 220) back to (140, 270), the return: tip towards the lower left
+    expect(ops.filter((o) => o === 'fill()')).toHaveLength(3);
+    // CLmax at (7, 0.85) → (170, 215); u(CL) = 0.05 → bar 210 … 220; u(α) = 0.5 → bar 165 … 175
+    for (const op of ['moveTo(170,220)', 'lineTo(170,210)', 'moveTo(165,215)', 'lineTo(175,215)', 'moveTo(161,215)', 'lineTo(179,215)'])
+      expect(ops).toContain(op);
+    // the caret points down at the top of the CL bar, 3 px above it
+    expect(ops).toContain('moveTo(170,207)');
+    expect(ops.at(-1)).toBe('restore()');
+  });
+
+  it('reads out the nearest point of a run or a CLmax mark, never the end of a fitted line', () => {
+    const { chart } = fakeChart();
+    const at = (x: number, y: number) => nearestPoint(chart as unknown as Chart, { x, y } as ChartEvent, {} as never)[0];
+    // (101, 299) is 1 px from the fitted line's end (100, 299) and 1.4 px from the run's first point
+    expect(at(101, 299)).toMatchObject({ datasetIndex: 0, index: 0 });
+    expect(at(171, 214)).toMatchObject({ datasetIndex: 2, index: 0 });
+    expect(at(141, 268)).toMatchObject({ datasetIndex: 0, index: 3 });
+    expect(nearestPoint(chart as unknown as Chart, { x: null, y: null } as unknown as ChartEvent, {} as never)).toEqual([]);
   });
 });
 
