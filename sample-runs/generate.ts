@@ -363,4 +363,42 @@ function balanceAndFlowSamples(amb: Ambient) {
 }
 // --- end of balance calibration, raw bridge outputs, upflow pair, repeat runs ---
 
+// --- a return sweep ---
+/**
+ * Run 107: the clean wing swept up through the stall and straight back down (a return sweep), with an
+ * invented stall hysteresis: on the way down the flow stays separated until about 9°, so between 9° and
+ * 15° the falling branch lies below the rising one and its drag above. Not part of the sample campaign;
+ * imported to show the sweep branches in the plots.
+ */
+function returnSweepRun(file: string, amb: Ambient, seed: number) {
+  const noise = rng(seed);
+  const up = [-4, -2, 0, 2, 4, 6, 8, 9, 10, 11, 12, 13, 14, 15, 16];
+  const down = [15, 14, 13, 12, 11, 10, 9, 8, 6, 4, 2, 0, -2, -4];
+  // separated-flow lift loss on the falling branch: zero at 9° and at 15.5°, largest (0.16) near 12.5°
+  const loss = (a: number) => (a > 9 && a < 15.5 ? 0.16 * Math.sin((Math.PI * (a - 9)) / 6.5) : 0);
+  const lines = [
+    ...header({
+      run: '107',
+      configuration: 'clean',
+      date: '2026-12-02',
+      tunnel: 'Kestrel Moor Polytechnic LST (fictional)',
+      model: 'KM-7 wing',
+      sweep: 'alpha up to 16 deg and back down to -4 deg (return sweep)',
+      note: `${NOTE}; made with an invented stall hysteresis for the sweep-branch example`,
+    }),
+    'alpha [deg],dp_pitot [Pa],p_static [Pa],t_total [degC],rh [%],lift [N],drag [N],pitch [N m]',
+  ];
+  for (const [a, falling] of [...up.map((a) => [a, false] as const), ...down.map((a) => [a, true] as const)]) {
+    const r = readings(CLEAN, a, amb, noise);
+    const qs = dynamicPressure(r.p, machFromImpactPressure(r.p, r.dp, GAMMA), GAMMA) * MODEL.area;
+    const dCl = falling ? loss(a) : 0;
+    const lift = r.lift - dCl * qs;
+    const drag = r.drag + 0.25 * dCl * qs;
+    lines.push([fmt(r.alpha, 3), fmt(r.dp, 2), fmt(r.p, 1), fmt(r.t, 2), fmt(r.rh, 1), fmt(lift, 3), fmt(drag, 4), fmt(r.pitch, 4)].join(','));
+  }
+  writeRun(file, lines);
+}
+// --- end of a return sweep ---
+
 generate();
+returnSweepRun('run-107-clean-return-sweep.csv', { p: 99180, t: 18.9, rh: 51, dp: 610 }, 107);

@@ -8,6 +8,8 @@ export interface MockChart {
   options: Record<string, unknown>;
   destroyed: boolean;
   updates: number;
+  /** The plugins the chart was made with (by id). */
+  plugins: string[];
 }
 
 export const charts: MockChart[] = [];
@@ -21,8 +23,10 @@ class Chart {
   destroyed = false;
   updates = 0;
   scales: Record<string, unknown> = {};
-  constructor(canvas: unknown, config: { data: MockChart['data']; options?: Record<string, unknown> }) {
+  plugins: string[];
+  constructor(canvas: unknown, config: { data: MockChart['data']; options?: Record<string, unknown>; plugins?: { id: string }[] }) {
     this.canvas = canvas;
+    this.plugins = (config.plugins ?? []).map((p) => p.id);
     this.data = config.data;
     this.options = config.options ?? {};
     charts.push(this);
@@ -52,4 +56,6 @@ export default {
   Tooltip: part,
   Legend: part,
   Title: part,
+  // the plots' own hover mode is registered here (charts/chartSetup.ts)
+  Interaction: { modes: {} as Record<string, unknown> },
 };

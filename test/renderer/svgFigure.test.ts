@@ -57,4 +57,86 @@ describe('svg figure', () => {
     expect(svg).toContain('δ = 0.125, τ1 = 0.84');
     expect(svg.trim().endsWith('</svg>')).toBe(true);
   });
+
+  describe('sweep branches and fitted marks, as on screen', () => {
+    // an invented loop: up 0 → 10° in 2° steps, back down to 0°, CL lower on the way down
+    const up = [0, 2, 4, 6, 8, 10].map((a) => ({ x: a, y: 0.1 * a }));
+    const down = [8, 6, 4, 2, 0].map((a) => ({ x: a, y: 0.1 * a - (a > 3 ? 0.15 : 0) }));
+    const loop = {
+      label: '107 · clean',
+      style: styleFor(2, 0, 0),
+      points: [...up, ...down],
+      plot: 'cl-alpha',
+      sweep: { branchOf: [...up.map(() => 0), ...down.map(() => 1)], directions: ['up', 'down'] as ('up' | 'down')[] },
+    };
+    const base = { title: 'Lift curve', xTitle: 'α [deg]', yTitle: 'CL [–]', width: 1100, height: 780, provenance: ['Sweepbook 0.1.0'] };
+
+    it("draws the return sweep thin in the run's colour, with one arrowhead per branch and a key entry", () => {
+      const svg = svgFigure({ ...base, series: [loop] });
+      const falling = /<path class="branch-falling" d="([^"]+)" fill="none" stroke="#009E73" stroke-width="0.9"\/>/.exec(svg);
+      expect(falling).not.toBeNull();
+      // five segments down: from the top (10°) to each of the five falling points
+      expect(falling![1]!.match(/L/g)).toHaveLength(5);
+      expect(svg).toMatch(/<path d="[^"]+" fill="none" stroke="#009E73" stroke-width="1.8"\/>/);
+      expect(svg.match(/class="sweep-arrow"/g)).toHaveLength(2);
+      expect(svg).toContain('<g class="key" data-key="return">');
+      expect(svg).toContain('return sweep (α falling)');
+      expect(svg).not.toContain('clmax-mark');
+      expect(svg).not.toContain('fit-line');
+    });
+
+    it('draws the fitted line under the points and the CLmax mark with its uncertainty, and writes the notes above the provenance', () => {
+      const withMarks = {
+        ...loop,
+        marks: {
+          clMax: { x: 10, y: 1.0, xu: 0.2, yu: 0.02, text: 'CLmax 1.0000 ± 0.0200 at α 10.00 ± 0.20 deg' },
+          fitLine: {
+            points: [
+              { x: 0, y: 0 },
+              { x: 8, y: 0.8 },
+            ],
+            text: 'fitted lift line',
+          },
+          notes: [],
+        },
+      };
+      const none = {
+        label: '201 · section (2D)',
+        style: styleFor(3, 1, 0),
+        points: [
+          { x: 0, y: 0.2 },
+          { x: 5, y: 0.7 },
+        ],
+        plot: 'cl-alpha',
+        marks: { notes: ['no CLmax: no stall is seen'] },
+      };
+      const svg = svgFigure({ ...base, series: [withMarks, none] });
+      expect(svg.match(/class="fit-line"/g)).toHaveLength(1);
+      expect(svg.indexOf('class="fit-line"')).toBeLessThan(svg.indexOf('<circle'));
+      expect(svg).toMatch(/<path class="fit-line" d="M[\d.]+ [\d.]+L[\d.]+ [\d.]+" fill="none" stroke="#009E73" stroke-opacity="0.3" stroke-width="6"/);
+      expect(svg).toContain('<title>107 · clean: fitted lift line</title>');
+      const mark = /<g class="clmax-mark" data-cl-max="1" data-alpha="10">(.*?)<\/g>/.exec(svg);
+      expect(mark).not.toBeNull();
+      expect(mark![1]).toContain('<title>107 · clean: CLmax 1.0000 ± 0.0200 at α 10.00 ± 0.20 deg</title>');
+      // the uncertainty bars: vertical and horizontal, each with two end caps
+      expect(mark![1]!.match(/M/g)!.length).toBeGreaterThanOrEqual(6);
+      expect(svg.match(/class="clmax-mark"/g)).toHaveLength(1);
+      expect(['return', 'clmax', 'fit'].map((k) => svg.includes(`data-key="${k}"`))).toEqual([true, true, true]);
+      expect(svg).toContain('<g class="mark-notes" font-size="12" fill="#333">');
+      expect(svg).toContain('201 · section (2D): no CLmax: no stall is seen');
+      expect(svg.indexOf('class="mark-notes"')).toBeLessThan(svg.indexOf('class="provenance"'));
+    });
+
+    it('leaves room above a CLmax at the top of the data for its caret', () => {
+      const top = { x: 10, y: 1.0, xu: null, yu: null, text: 'CLmax 1.0000 at α 10.00 deg' };
+      const plain = svgFigure({ ...base, series: [loop] });
+      const marked = svgFigure({ ...base, series: [{ ...loop, marks: { clMax: top, notes: [] } }] });
+      const ticks = (svg: string) => [...svg.matchAll(/text-anchor="end" font-size="13">([^<]+)</g)].map((m) => Number(m[1]));
+      expect(Math.max(...ticks(plain))).toBe(1);
+      expect(Math.max(...ticks(marked))).toBeGreaterThan(1);
+      // a range the user typed is kept as typed
+      const typed = svgFigure({ ...base, series: [{ ...loop, marks: { clMax: top, notes: [] } }], limits: { y: { min: 0, max: 1 } } });
+      expect(Math.max(...ticks(typed))).toBe(1);
+    });
+  });
 });

@@ -4,7 +4,7 @@
  */
 import type { ChartConfiguration } from 'chart.js';
 import { Chart } from './chartSetup.ts';
-import { errorBars, paperFooter, rangeBars } from './plugins.ts';
+import { errorBars, paperFooter, plotMarks, rangeBars } from './plugins.ts';
 
 export function renderPng(config: ChartConfiguration<'scatter'>, width: number, height: number, doc: Document = document): string {
   const canvas = doc.createElement('canvas');
@@ -20,7 +20,7 @@ export function renderPng(config: ChartConfiguration<'scatter'>, width: number, 
   const chart = new Chart(canvas, {
     ...config,
     options: { ...config.options, responsive: false, devicePixelRatio: 1, animation: false },
-    plugins: [paperFooter, rangeBars, errorBars],
+    plugins: [paperFooter, rangeBars, errorBars, plotMarks],
   });
   try {
     return chart.toBase64Image('image/png');

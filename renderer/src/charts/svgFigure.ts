@@ -1,11 +1,15 @@
 /**
  * A plot as an SVG figure for reports (vector, scales without blur): titled axes with round ticks, the
- * runs in their colours, markers and dashes, a legend, and a provenance block in legible type below.
+ * runs in their colours, markers and dashes, return sweeps thin with arrowheads, the fitted lines and
+ * CLmax marks when they are shown, a legend with the key to those marks, notes on marks a fit cannot
+ * give, and a provenance block in legible type below. Drawn as the window draws them (markGlyphs.ts).
  * Pure string building: no DOM, so it is tested as text.
  */
 import type { Series } from './plotConfig.ts';
 import type { Range } from '../logic/zoom.ts';
 import { maxOf, minOf } from '../../../core/index.ts';
+import { arrowSegments, markKey, markNotes, segmentFalls, type KeyEntry } from '../logic/plotMarks.ts';
+import { arrowHead, clMaxGlyph, FALLING_LINE_PX, FIT_LINE_ALPHA, FIT_LINE_PX, RISING_LINE_PX, type Px } from './markGlyphs.ts';
 
 export interface SvgFigureOptions {
   title: string;
@@ -88,16 +92,64 @@ export function wrapLines(lines: readonly string[], chars: number): string[] {
   return out;
 }
 
+const pts = (p: readonly Px[]) => p.map((q) => `${q.x.toFixed(1)},${q.y.toFixed(1)}`).join(' ');
+const dashAttr = (dash: readonly number[]) => (dash.length ? ` stroke-dasharray="${dash.join(' ')}"` : '');
+const KEY_GREY = '#4a5058';
+
+/** The small drawing of a key entry, centred at (x, y), 30 px wide. */
+function keySwatch(kind: KeyEntry['kind'], x: number, y: number): string {
+  if (kind === 'return') {
+    const head = arrowHead({ x: x + 26, y }, { x: x + 4, y })!;
+    return `<line x1="${x}" y1="${y}" x2="${x + 30}" y2="${y}" stroke="${KEY_GREY}" stroke-width="${FALLING_LINE_PX}"/><polygon points="${pts(head)}" fill="${KEY_GREY}"/>`;
+  }
+  if (kind === 'fit')
+    return `<line x1="${x + 3}" y1="${y}" x2="${x + 27}" y2="${y}" stroke="${KEY_GREY}" stroke-opacity="${FIT_LINE_ALPHA}" stroke-width="${FIT_LINE_PX}" stroke-linecap="round"/>`;
+  const g = clMaxGlyph({ x: x + 15, y: y + 4 });
+  return `<line x1="${g.bar[0].x}" y1="${g.bar[0].y}" x2="${g.bar[1].x}" y2="${g.bar[1].y}" stroke="${KEY_GREY}" stroke-width="3" stroke-linecap="round"/><polygon points="${pts(g.caret)}" fill="${KEY_GREY}"/>`;
+}
+
+/** The path of the segments (i − 1 → i) that `take` selects, joined where they follow each other. */
+function segmentPath(xy: readonly Px[], take: (i: number) => boolean): string {
+  let d = '';
+  let open = false;
+  for (let i = 1; i < xy.length; i++) {
+    if (!take(i)) {
+      open = false;
+      continue;
+    }
+    if (!open) d += `M${xy[i - 1]!.x.toFixed(1)} ${xy[i - 1]!.y.toFixed(1)}`;
+    d += `L${xy[i]!.x.toFixed(1)} ${xy[i]!.y.toFixed(1)}`;
+    open = true;
+  }
+  return d;
+}
+
 export function svgFigure(o: SvgFigureOptions): string {
-  const legendRows = Math.ceil(o.series.length / 3);
+  const key = markKey(o.series, o.series[0]?.plot ?? '');
+  const legendRows = Math.ceil((o.series.length + key.length) / 3);
   // 12 px DejaVu Sans runs about 7 px a character
-  const provenance = wrapLines(o.provenance, Math.floor((o.width - 48) / 7));
-  const provH = provenance.length * 16 + 12;
+  const chars = Math.floor((o.width - 48) / 7);
+  const notes = wrapLines(markNotes(o.series), chars);
+  const provenance = wrapLines(o.provenance, chars);
+  const provH = (notes.length + provenance.length) * 16 + 12;
   const plot = { left: 80, top: 44, right: o.width - 24, bottom: o.height - 56 - legendRows * 20 - provH };
-  const xs = o.series.flatMap((s) => s.points.map((p) => p.x));
-  const ys = o.series.flatMap((s) => s.points.map((p) => p.y));
+  const xs = o.series.flatMap((s) => [
+    ...s.points.map((p) => p.x),
+    ...(s.marks?.fitLine?.points.map((p) => p.x) ?? []),
+    ...(s.marks?.clMax ? [s.marks.clMax.x] : []),
+  ]);
+  const ys = o.series.flatMap((s) => [
+    ...s.points.map((p) => p.y),
+    ...(s.marks?.fitLine?.points.map((p) => p.y) ?? []),
+    ...(s.marks?.clMax ? [s.marks.clMax.y + (s.marks.clMax.yu ?? 0)] : []),
+  ]);
   const xr = o.limits?.x ?? extent(xs);
   const yr = o.limits?.y ?? extent(ys);
+  // room above the highest CLmax for its caret (about 16 px), unless the user chose the range
+  const tops = o.series.flatMap((s) => (s.marks?.clMax ? [s.marks.clMax.y + (s.marks.clMax.yu ?? 0)] : []));
+  if (!o.limits?.y && tops.length && ((yr.max - maxOf(tops)) / (yr.max - yr.min)) * (plot.bottom - plot.top) < 16) {
+    yr.max += niceStep(yr.max - yr.min);
+  }
   const px = (x: number) => plot.left + ((x - xr.min) / (xr.max - xr.min)) * (plot.right - plot.left);
   const py = (y: number) => plot.bottom - ((y - yr.min) / (yr.max - yr.min)) * (plot.bottom - plot.top);
   const parts: string[] = [];
@@ -129,31 +181,84 @@ export function svgFigure(o: SvgFigureOptions): string {
     `<text transform="translate(22 ${(plot.top + plot.bottom) / 2}) rotate(-90)" text-anchor="middle" font-size="14" font-weight="bold">${esc(o.yTitle)}</text>`,
   );
   parts.push(`<g clip-path="url(#plot-area)">`);
+  // fitted lines under everything, as on screen
+  for (const s of o.series) {
+    const f = s.marks?.fitLine;
+    if (!f || f.points.length < 2) continue;
+    const d = f.points.map((p, i) => `${i ? 'L' : 'M'}${px(p.x).toFixed(1)} ${py(p.y).toFixed(1)}`).join('');
+    parts.push(
+      `<path class="fit-line" d="${d}" fill="none" stroke="${s.style.colour}" stroke-opacity="${FIT_LINE_ALPHA}" stroke-width="${FIT_LINE_PX}" stroke-linecap="round"><title>${esc(`${s.label}: ${f.text}`)}</title></path>`,
+    );
+  }
   for (const s of o.series) {
     // open rings stay see-through, so a repeat lying on its twin shows both
     const fill = s.style.filled ? s.style.colour : 'none';
     const r = s.style.filled ? 4 : 5.5;
+    const xy = s.points.map((p) => ({ x: px(p.x), y: py(p.y) }));
     if (s.joined !== false && s.points.length > 1) {
-      const d = s.points.map((p, i) => `${i ? 'L' : 'M'}${px(p.x).toFixed(1)} ${py(p.y).toFixed(1)}`).join('');
-      parts.push(
-        `<path d="${d}" fill="none" stroke="${s.style.colour}" stroke-width="1.8"${s.style.dash.length ? ` stroke-dasharray="${s.style.dash.join(' ')}"` : ''}/>`,
+      const sweep = s.sweep;
+      const rising = sweep ? segmentPath(xy, (i) => !segmentFalls(sweep, i)) : segmentPath(xy, () => true);
+      if (rising) parts.push(`<path d="${rising}" fill="none" stroke="${s.style.colour}" stroke-width="${RISING_LINE_PX}"${dashAttr(s.style.dash)}/>`);
+      if (sweep) {
+        const falling = segmentPath(xy, (i) => segmentFalls(sweep, i));
+        if (falling)
+          parts.push(
+            `<path class="branch-falling" d="${falling}" fill="none" stroke="${s.style.colour}" stroke-width="${FALLING_LINE_PX}"${dashAttr(s.style.dash)}/>`,
+          );
+        for (const i of arrowSegments(sweep.branchOf)) {
+          const head = arrowHead(xy[i - 1]!, xy[i]!);
+          if (head) parts.push(`<polygon class="sweep-arrow" points="${pts(head)}" fill="${s.style.colour}"/>`);
+        }
+      }
+    }
+    for (const p of xy) parts.push(marker(s.style.marker, p.x, p.y, r, fill, s.style.colour));
+  }
+  for (const s of o.series) {
+    const m = s.marks?.clMax;
+    if (!m) continue;
+    const at = { x: px(m.x), y: py(m.y) };
+    const c = s.style.colour;
+    const bars: string[] = [];
+    if (m.yu !== null) {
+      const [y0, y1] = [py(m.y - m.yu), py(m.y + m.yu)];
+      bars.push(
+        `M${at.x.toFixed(1)} ${y0.toFixed(1)}L${at.x.toFixed(1)} ${y1.toFixed(1)}M${(at.x - 3).toFixed(1)} ${y0.toFixed(1)}L${(at.x + 3).toFixed(1)} ${y0.toFixed(1)}M${(at.x - 3).toFixed(1)} ${y1.toFixed(1)}L${(at.x + 3).toFixed(1)} ${y1.toFixed(1)}`,
       );
     }
-    for (const p of s.points) parts.push(marker(s.style.marker, px(p.x), py(p.y), r, fill, s.style.colour));
+    if (m.xu !== null) {
+      const [x0, x1] = [px(m.x - m.xu), px(m.x + m.xu)];
+      bars.push(
+        `M${x0.toFixed(1)} ${at.y.toFixed(1)}L${x1.toFixed(1)} ${at.y.toFixed(1)}M${x0.toFixed(1)} ${(at.y - 3).toFixed(1)}L${x0.toFixed(1)} ${(at.y + 3).toFixed(1)}M${x1.toFixed(1)} ${(at.y - 3).toFixed(1)}L${x1.toFixed(1)} ${(at.y + 3).toFixed(1)}`,
+      );
+    }
+    const g = clMaxGlyph(at, m.yu !== null ? py(m.y + m.yu) : undefined);
+    parts.push(
+      `<g class="clmax-mark" data-cl-max="${m.y}" data-alpha="${m.x}">${bars.length ? `<path d="${bars.join('')}" stroke="${c}" stroke-width="1.4" fill="none"/>` : ''}<line x1="${g.bar[0].x.toFixed(1)}" y1="${g.bar[0].y.toFixed(1)}" x2="${g.bar[1].x.toFixed(1)}" y2="${g.bar[1].y.toFixed(1)}" stroke="${c}" stroke-width="3" stroke-linecap="round"/><polygon points="${pts(g.caret)}" fill="${c}" stroke="#ffffff" stroke-width="1"/><title>${esc(`${s.label}: ${m.text}`)}</title></g>`,
+    );
   }
   parts.push(`</g>`);
   const legendTop = plot.bottom + 62;
   const colW = (o.width - 48) / 3;
+  const cell = (i: number) => ({ x: 24 + (i % 3) * colW, y: legendTop + Math.floor(i / 3) * 20 });
   o.series.forEach((s, i) => {
-    const x = 24 + (i % 3) * colW;
-    const y = legendTop + Math.floor(i / 3) * 20;
-    parts.push(
-      `<line x1="${x}" y1="${y}" x2="${x + 30}" y2="${y}" stroke="${s.style.colour}" stroke-width="1.8"${s.style.dash.length ? ` stroke-dasharray="${s.style.dash.join(' ')}"` : ''}/>`,
-    );
+    const { x, y } = cell(i);
+    parts.push(`<line x1="${x}" y1="${y}" x2="${x + 30}" y2="${y}" stroke="${s.style.colour}" stroke-width="1.8"${dashAttr(s.style.dash)}/>`);
     parts.push(marker(s.style.marker, x + 15, y, s.style.filled ? 4 : 5, s.style.filled ? s.style.colour : '#ffffff', s.style.colour));
     parts.push(`<text x="${x + 38}" y="${y + 4}" font-size="13">${esc(s.label)}</text>`);
   });
-  const provTop = legendTop + legendRows * 20 + 8;
+  key.forEach((k, j) => {
+    const { x, y } = cell(o.series.length + j);
+    parts.push(
+      `<g class="key" data-key="${k.kind}">${keySwatch(k.kind, x, y)}<text x="${x + 38}" y="${y + 4}" font-size="12" fill="#444b55">${esc(k.text)}</text></g>`,
+    );
+  });
+  const notesTop = legendTop + legendRows * 20 + 8;
+  if (notes.length) {
+    parts.push(`<g class="mark-notes" font-size="12" fill="#333">`);
+    notes.forEach((l, i) => parts.push(`<text x="24" y="${notesTop + i * 16}">${esc(l)}</text>`));
+    parts.push(`</g>`);
+  }
+  const provTop = notesTop + notes.length * 16;
   parts.push(`<g class="provenance" font-size="12" fill="#333">`);
   provenance.forEach((l, i) => parts.push(`<text x="24" y="${provTop + i * 16}">${esc(l)}</text>`));
   parts.push(`</g></svg>`);

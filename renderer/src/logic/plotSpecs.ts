@@ -79,12 +79,19 @@ export function plotSpec(id: PlotId): PlotSpec {
  * each with its standard uncertainties where the run has them (the error bars).
  */
 export function plotPoints(spec: PlotSpec, points: readonly PointResult[]): PlotPoint[] {
+  return indexedPlotPoints(spec, points).points;
+}
+
+/** The plotted points with the index of the result point each came from (points without a value are left out). */
+export function indexedPlotPoints(spec: PlotSpec, points: readonly PointResult[]): { points: PlotPoint[]; index: number[] } {
   const out: PlotPoint[] = [];
-  for (const p of points) {
+  const index: number[] = [];
+  points.forEach((p, i) => {
     const { x, y } = spec.value(p);
-    if (x === null || y === null || !Number.isFinite(x) || !Number.isFinite(y)) continue;
+    if (x === null || y === null || !Number.isFinite(x) || !Number.isFinite(y)) return;
     const u = spec.uncertainty(p);
     out.push(withUncertainty(x, y, u.x, u.y));
-  }
-  return out;
+    index.push(i);
+  });
+  return { points: out, index };
 }
