@@ -32,8 +32,10 @@ export interface FitRowSpec {
   /** Fields holding the random standard error and the combined standard uncertainty (random and systematic). */
   random?: keyof FitResult;
   combined?: keyof FitResult;
-  /** How the value was found, in words (null when there is nothing to say). */
+  /** How the value was found, in a few words shown under it (null when there is nothing to say). */
   note?: (result: ReductionResult) => string | null;
+  /** The same at length, for the hover. */
+  hint?: (result: ReductionResult) => string | null;
   /** Patterns of engine warnings that explain a null here, and the reason when none is found. */
   explainedBy: RegExp[];
   fallback: (kind: '2d' | '3d', result?: ReductionResult) => string;
@@ -45,15 +47,17 @@ export interface FitRowSpec {
 const LIFT_FIT = /lift-curve fits/;
 const PITCH = /pitching-moment coefficients are not given|no "pitch" column/;
 
-const CLMAX_METHOD: Record<string, string> = {
-  parabola: 'parabola through the peak and its two neighbours',
-  'measured peak': 'highest measured point',
-  'smoothed peak': 'peak of the smoothed sweep (fine sweep)',
+const CLMAX_METHOD: Record<string, [short: string, long: string]> = {
+  parabola: ['parabola through the peak', 'CLmax is the vertex of the parabola through the highest point and its two neighbours'],
+  'measured peak': ['highest point', 'CLmax is the highest measured point (a parabola through it would overshoot the points)'],
+  'smoothed peak': ['smoothed peak', 'CLmax is the peak of the sweep averaged over a moving window (a fine or continuous sweep)'],
 };
 
-/** The method behind a CLmax, in words. */
-export function clMaxMethodText(method: string | null): string | null {
-  return method === null ? null : (CLMAX_METHOD[method] ?? method);
+/** The method behind a CLmax, in a few words, or at length. */
+export function clMaxMethodText(method: string | null, long = false): string | null {
+  if (method === null) return null;
+  const m = CLMAX_METHOD[method];
+  return m ? m[long ? 1 : 0] : method;
 }
 
 /**
@@ -71,26 +75,42 @@ export function clMaxReasonText(reason: string | null): string {
   return reason;
 }
 
+/** The same in two or three words, for a narrow cell (the long form goes to the hover). */
+export function clMaxReasonShort(reason: string | null): string {
+  if (!reason) return 'not determined';
+  if (/^no peak was reached/.test(reason)) return 'not reached (CL still rising)';
+  if (/^CL does not drop/.test(reason)) return 'no stall seen';
+  if (/^only \d+ points?$/.test(reason)) return 'too few points';
+  return reason;
+}
+
+const LINEAR_SOURCE_SHORT = (r: ReductionResult): string | null => {
+  const f = r.fit;
+  if (f.linear_range_source === null || f.linear_range_deg === null) return null;
+  const n = f.linear_range_points === null ? '' : `${f.linear_range_points} points, `;
+  if (f.linear_range_source === 'setup alpha_range_deg') return `${n}set in the setup`;
+  if (f.linear_range_source === 'setup linear_tolerance_cl') return `${n}setup tolerance`;
+  return `${n}from the scatter`;
+};
+
 const LINEAR_SOURCE = (r: ReductionResult): string | null => {
   const f = r.fit;
   if (f.linear_range_source === null || f.linear_range_deg === null) return null;
   const n = f.linear_range_points === null ? '' : `${f.linear_range_points} points; `;
   if (f.linear_range_source === 'setup alpha_range_deg') return `${n}range set in the setup (fit.alpha_range_deg)`;
-  const tol = f.linear_tolerance_cl === null ? '' : ` ±${significant(f.linear_tolerance_cl, 2)} in CL`;
+  const tol = f.linear_tolerance_cl === null ? '' : ` ±${fixed(f.linear_tolerance_cl, 4)} in CL`;
   if (f.linear_range_source === 'setup linear_tolerance_cl') return `${n}points within${tol} of the line, tolerance set in the setup (fit.linear_tolerance_cl)`;
-  const sigma = f.noise_cl === null ? '' : ` (scatter σ of CL ${significant(f.noise_cl, 2)})`;
+  const sigma = f.noise_cl === null ? '' : ` (scatter σ of CL ${fixed(f.noise_cl, 4)})`;
   return `${n}found from the data: points within${tol} of the line, a tolerance from the run's own scatter${sigma}`;
 };
 
 const HYSTERESIS_NONE = (_kind: '2d' | '3d', r?: ReductionResult): string =>
-  r && r.fit_branches.length < 2
-    ? 'single sweep: no return branch to compare'
-    : 'no loop: the return sweep follows the rising one within the scatter, or does not overlap it';
+  r && r.fit_branches.length < 2 ? 'single sweep' : 'no loop: the return sweep follows the rising one within the scatter, or does not overlap it';
 
 export const FIT_ROWS: readonly FitRowSpec[] = [
   { key: 'cl_alpha_per_deg', group: 'lift', label: 'Lift-curve slope dCL/dα', unit: '1/deg', decimals: 5, random: 'cl_alpha_stderr_per_deg', combined: 'cl_alpha_u_per_deg', explainedBy: [LIFT_FIT], fallback: () => 'not determined' },
   { key: 'alpha_zero_lift_deg', group: 'lift', label: 'Zero-lift angle α₀', unit: 'deg', decimals: 2, random: 'alpha_zero_lift_stderr_deg', combined: 'alpha_zero_lift_u_deg', explainedBy: [LIFT_FIT], fallback: () => 'zero slope: no zero-lift angle' },
-  { key: 'linear_range_deg', group: 'lift', label: 'Linear range of α', unit: 'deg', decimals: 2, note: LINEAR_SOURCE, explainedBy: [LIFT_FIT], fallback: () => 'not determined' },
+  { key: 'linear_range_deg', group: 'lift', label: 'Linear range of α', unit: 'deg', decimals: 2, note: LINEAR_SOURCE_SHORT, hint: LINEAR_SOURCE, explainedBy: [LIFT_FIT], fallback: () => 'not determined' },
   { key: 'linear_range_points', group: 'lift', detail: true, label: 'points in the linear range', unit: '–', decimals: 0, explainedBy: [LIFT_FIT], fallback: () => 'not determined' },
   { key: 'linear_tolerance_cl', group: 'lift', detail: true, label: 'residual tolerance', unit: '–', decimals: 4, explainedBy: [LIFT_FIT], fallback: (_k, r) => (r?.fit.linear_range_source === 'setup alpha_range_deg' ? 'none: the range is set in the setup' : 'not determined') },
   { key: 'noise_cl', group: 'lift', detail: true, label: 'scatter σ of CL', unit: '–', decimals: null, explainedBy: [], fallback: () => 'not determined' },
@@ -102,6 +122,7 @@ export const FIT_ROWS: readonly FitRowSpec[] = [
     decimals: 4,
     combined: 'cl_max_u',
     note: (r) => clMaxMethodText(r.fit.cl_max_method),
+    hint: (r) => clMaxMethodText(r.fit.cl_max_method, true),
     explainedBy: [],
     fallback: (_k, r) => clMaxReasonText(r?.fit.cl_max_reason ?? null),
   },
@@ -117,7 +138,13 @@ export const FIT_ROWS: readonly FitRowSpec[] = [
     decimals: 3,
     random: 'oswald_e_stderr',
     combined: 'oswald_e_u',
-    note: (r) => (r.fit.oswald_e_source ? `from the ${r.fit.oswald_e_source}` : null),
+    note: (r) => (r.fit.oswald_e_source === 'cambered polar' ? 'cambered polar' : r.fit.oswald_e_source ? 'polar through CL = 0' : null),
+    hint: (r) =>
+      r.fit.oswald_e_source === 'cambered polar'
+        ? 'from k of the cambered polar CD = CDmin + k·(CL − CL at CDmin)², whose minimum lies away from CL = 0'
+        : r.fit.oswald_e_source
+          ? 'from k of the polar CD = CD0 + k·CL²: e = 1/(π·A·k)'
+          : null,
     explainedBy: [/Oswald/, LIFT_FIT],
     fallback: (k) => (k === '2d' ? 'not defined for a 2D section' : 'not determined'),
   },
@@ -188,8 +215,10 @@ export interface FitCell {
   reason: string | null;
   /** Standard uncertainty (k = 1) shown after "±". */
   u?: number;
-  /** How the value was found ("parabola through the peak…"). */
+  /** How the value was found, in a few words ("parabola through the peak"). */
   note?: string;
+  /** The same at length, for the hover. */
+  hint?: string;
   /** The uncertainty split into its random and systematic parts, for a hover. */
   breakdown?: string;
 }
@@ -268,7 +297,16 @@ export function fitCell(spec: FitRowSpec, result: ReductionResult): FitCell {
   }
   const note = spec.note?.(result);
   if (note) cell.note = note;
+  const hint = spec.hint?.(result);
+  if (hint) cell.hint = hint;
   return cell;
+}
+
+/** The hover of a cell: why it is empty, or how it was found and its uncertainty's parts. */
+export function cellTitle(cell: FitCell): string | undefined {
+  if (cell.reason) return cell.reason;
+  const parts = [cell.hint ?? cell.note, cell.breakdown].filter((x): x is string => !!x);
+  return parts.length ? parts.join('\n') : undefined;
 }
 
 /** Row specs for every key of the fit, known ones first in their order, unknown ones after (never the folded ones). */
@@ -293,8 +331,9 @@ export interface BranchRow {
   points: number;
   alphaRange: string;
   clMax: string;
-  /** Why there is no CLmax (words), else null. */
+  /** Why there is no CLmax (words), else null; and the same in a few words. */
   clMaxReason: string | null;
+  clMaxShort: string | null;
   alphaClMax: string;
   alphaStall: string;
   slope: string;
@@ -316,6 +355,7 @@ export function branchRows(result: ReductionResult): BranchRow[] {
     alphaRange: range(b.alpha_range_deg, 2),
     clMax: fixed(b.cl_max, 4),
     clMaxReason: b.cl_max === null ? clMaxReasonText(b.cl_max_reason) : null,
+    clMaxShort: b.cl_max === null ? clMaxReasonShort(b.cl_max_reason) : null,
     alphaClMax: fixed(b.alpha_cl_max_deg, 2),
     alphaStall: fixed(b.alpha_stall_deg, 2),
     slope: withUncertainty(b.cl_alpha_per_deg, b.cl_alpha_stderr_per_deg, 5),
