@@ -218,7 +218,7 @@ describe('characteristics', () => {
     // value ± standard uncertainty, both to the uncertainty's second significant digit (GUM §7.2.6), and its source
     const f101 = ctx.wb.state.entries['run-101-clean.csv']!.result!.fit;
     expect(cells[0]!.find('.val').text()).toBe(`${f101.oswald_e!.toFixed(4)} ± ${f101.oswald_e_u!.toFixed(4)}`);
-    expect(cells[0]!.find('.how').text()).toBe('from the polar through CL = 0');
+    expect(cells[0]!.find('.how').text()).toBe('polar through CL = 0');
     expect(w.find('tr[data-fit="cl_alpha_per_deg"] td.unit').text()).toBe('1/deg');
     expect(w.find('.caution').text()).toMatch(/certified data and licensed practice govern/);
   });
