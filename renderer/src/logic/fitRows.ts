@@ -84,6 +84,15 @@ export function clMaxReasonShort(reason: string | null): string {
   return reason;
 }
 
+const CLMAX = /no peak was reached|CLmax/;
+
+/** Why a run has no CLmax: the fit's own reason in words, else the engine warning about it. */
+function clMaxNullReason(r?: ReductionResult): string {
+  if (r?.fit.cl_max_reason) return clMaxReasonText(r.fit.cl_max_reason);
+  const w = r?.warnings.find((text) => CLMAX.test(text));
+  return w ? plainWarning(w) : 'not determined';
+}
+
 const LINEAR_SOURCE_SHORT = (r: ReductionResult): string | null => {
   const f = r.fit;
   if (f.linear_range_source === null || f.linear_range_deg === null) return null;
@@ -112,7 +121,21 @@ export const FIT_ROWS: readonly FitRowSpec[] = [
   { key: 'alpha_zero_lift_deg', group: 'lift', label: 'Zero-lift angle α₀', unit: 'deg', decimals: 2, random: 'alpha_zero_lift_stderr_deg', combined: 'alpha_zero_lift_u_deg', explainedBy: [LIFT_FIT], fallback: () => 'zero slope: no zero-lift angle' },
   { key: 'linear_range_deg', group: 'lift', label: 'Linear range of α', unit: 'deg', decimals: 2, note: LINEAR_SOURCE_SHORT, hint: LINEAR_SOURCE, explainedBy: [LIFT_FIT], fallback: () => 'not determined' },
   { key: 'linear_range_points', group: 'lift', detail: true, label: 'points in the linear range', unit: '–', decimals: 0, explainedBy: [LIFT_FIT], fallback: () => 'not determined' },
-  { key: 'linear_tolerance_cl', group: 'lift', detail: true, label: 'residual tolerance', unit: '–', decimals: 4, explainedBy: [LIFT_FIT], fallback: (_k, r) => (r?.fit.linear_range_source === 'setup alpha_range_deg' ? 'none: the range is set in the setup' : 'not determined') },
+  {
+    key: 'linear_tolerance_cl',
+    group: 'lift',
+    detail: true,
+    label: 'residual tolerance',
+    unit: '–',
+    decimals: 4,
+    note: (r) => (r.fit.linear_range_source === 'setup alpha_range_deg' ? 'largest residual' : null),
+    hint: (r) =>
+      r.fit.linear_range_source === 'setup alpha_range_deg'
+        ? 'the range is set in the setup: this is the largest residual of its points from the line'
+        : 'points of the linear range lie within this distance in CL of the fitted line',
+    explainedBy: [LIFT_FIT],
+    fallback: () => 'not determined',
+  },
   { key: 'noise_cl', group: 'lift', detail: true, label: 'scatter σ of CL', unit: '–', decimals: null, explainedBy: [], fallback: () => 'not determined' },
   {
     key: 'cl_max',
@@ -124,10 +147,10 @@ export const FIT_ROWS: readonly FitRowSpec[] = [
     note: (r) => clMaxMethodText(r.fit.cl_max_method),
     hint: (r) => clMaxMethodText(r.fit.cl_max_method, true),
     explainedBy: [],
-    fallback: (_k, r) => clMaxReasonText(r?.fit.cl_max_reason ?? null),
+    fallback: (_k, r) => clMaxNullReason(r),
   },
-  { key: 'alpha_cl_max_deg', group: 'maximum', label: 'α at CLmax', unit: 'deg', decimals: 2, combined: 'alpha_cl_max_u_deg', explainedBy: [], fallback: (_k, r) => clMaxReasonText(r?.fit.cl_max_reason ?? null) },
-  { key: 'alpha_stall_deg', group: 'maximum', label: 'Stall angle (first drop after the peak)', unit: 'deg', decimals: 2, explainedBy: [], fallback: (_k, r) => clMaxReasonText(r?.fit.cl_max_reason ?? null) },
+  { key: 'alpha_cl_max_deg', group: 'maximum', label: 'α at CLmax', unit: 'deg', decimals: 2, combined: 'alpha_cl_max_u_deg', explainedBy: [], fallback: (_k, r) => clMaxNullReason(r) },
+  { key: 'alpha_stall_deg', group: 'maximum', label: 'Stall angle (first drop after the peak)', unit: 'deg', decimals: 2, explainedBy: [], fallback: (_k, r) => clMaxNullReason(r) },
   { key: 'cd0', group: 'polar', label: 'CD0 in CD = CD0 + k·CL²', unit: '–', decimals: 5, random: 'cd0_stderr', combined: 'cd0_u', explainedBy: [LIFT_FIT], fallback: () => 'polar not fitted' },
   { key: 'k_induced', group: 'polar', label: 'k in CD = CD0 + k·CL²', unit: '–', decimals: 4, random: 'k_induced_stderr', combined: 'k_induced_u', explainedBy: [LIFT_FIT], fallback: () => 'polar not fitted' },
   {

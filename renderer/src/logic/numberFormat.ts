@@ -56,14 +56,18 @@ export function fixed(value: number | null | undefined, decimals: number): strin
   return noNegativeZero(value.toFixed(d));
 }
 
-/** Significant digits, switching to exponent form for very large or small magnitudes. */
+/**
+ * Significant digits, trailing zeros kept ("0.1250" to four: they state the resolution), switching to
+ * exponent form for magnitudes (after rounding) of 10⁶ and more or below 10⁻⁴.
+ */
 export function significant(value: number | null | undefined, digits = 4): string {
   if (absent(value)) return DASH;
   if (value === 0) return '0';
-  const mag = Math.abs(value);
   const d = Math.max(1, Math.min(MAX_DIGITS, Math.round(digits)));
+  const rounded = Number(value.toPrecision(d));
+  const mag = Math.abs(rounded);
   if (mag >= 1e6 || mag < 1e-4) return exponent(value, d);
-  return noNegativeZero(Number(value.toPrecision(d)).toString());
+  return toPlace(rounded, d - 1 - exponentOf(rounded));
 }
 
 /** Reynolds number in millions, the way test engineers quote it ("0.470" for 470 000), for a column headed "Re [10⁶]". */
