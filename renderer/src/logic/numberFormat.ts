@@ -70,6 +70,12 @@ export function significant(value: number | null | undefined, digits = 4): strin
   return toPlace(rounded, d - 1 - exponentOf(rounded));
 }
 
+/** Significant digits without trailing zeros ("1.2", "0.225"): for echoing dimensions the user typed, not for measured values. */
+export function compact(value: number | null | undefined, digits = 3): string {
+  const s = significant(value, digits);
+  return s.includes('.') && !s.includes('e') ? s.replace(/\.?0+$/, '') : s;
+}
+
 /** Reynolds number in millions, the way test engineers quote it ("0.470" for 470 000), for a column headed "Re [10⁶]". */
 export function millions(value: number | null | undefined, decimals = 3): string {
   return absent(value) ? DASH : fixed(value / 1e6, decimals);
@@ -105,6 +111,12 @@ export function withUncertainty(value: number | null | undefined, u: number | nu
   if (absent(u) || u <= 0) return fixed(value, decimals);
   const d = decimalsFor(value, u, decimals);
   return `${toPlace(value, d)} ± ${toPlace(u, Math.max(d, decimalsFromUncertainty(u) ?? d))}`;
+}
+
+/** An angle and its standard uncertainty in running text, "0.3512° ± 0.0041°" (GUM §7.2.6 rounding). */
+export function degreesWithUncertainty(value: number | null | undefined, u: number | null | undefined, decimals: number): string {
+  const t = withUncertainty(value, u, decimals);
+  return t === DASH ? t : t.replace(' ± ', '° ± ') + '°';
 }
 
 /** A value rounded as withUncertainty rounds it, without the "± u" (for a table whose uncertainty has its own column). */
