@@ -138,10 +138,12 @@ run('the Characteristics view in a real browser', () => {
   it('says in words why a run that never stalls has no CLmax', async () => {
     const c = await cell('cl_max', '107');
     expect(await c.locator('.val').textContent()).toBe('—');
-    expect(await c.locator('.why').textContent()).toMatch(
+    // in a few words in the cell, in full on hover
+    expect(await c.locator('.why').textContent()).toBe('not reached (CL still rising)');
+    expect(await c.getAttribute('title')).toMatch(
       /^not reached: CL is still rising at the highest angle of the sweep \(α = 1\d\.\d\d°\); the sweep stops before the stall$/,
     );
-    expect(await (await cell('alpha_cl_max_deg', '107')).locator('.why').textContent()).toMatch(/^not reached/);
+    expect(await (await cell('alpha_cl_max_deg', '107')).locator('.why').textContent()).toBe('not reached (CL still rising)');
   });
 
   it('lists the sweep branches of a run with a return sweep, the fitted one marked, and its hysteresis loop', async () => {
@@ -162,6 +164,43 @@ run('the Characteristics view in a real browser', () => {
     const b107 = page.locator('tbody[data-branches="run-107-no-stall.csv"] td.missing');
     expect(await b107.locator('.why').textContent()).toBe('not reached (CL still rising)');
     expect(await b107.getAttribute('title')).toMatch(/^not reached: CL is still rising/);
+  });
+
+  it('prints the characteristics with their uncertainty and method, and the branches of a return sweep', async () => {
+    await page.locator('tbody[data-run="run-108-return-sweep.csv"] .run-row .run-name').click();
+    await page.emulateMedia({ media: 'print' });
+    try {
+      const sheet = page.locator('.print-summary');
+      await sheet.waitFor();
+      expect(await sheet.locator('h1').textContent()).toContain('Run 108');
+      const clmax = await sheet.locator('[data-fit="cl_max"]').textContent();
+      expect(clmax).toMatch(/Maximum lift CLmax \(parabola through the peak\)\s*0\.8\d+ ± 0\.00\d\d/);
+      expect(await sheet.locator('table.branches tbody tr').count()).toBe(2);
+      expect(await sheet.locator('table.branches tbody tr').first().textContent()).toContain('1 of 2 (fitted)');
+      expect(await sheet.locator('table.points thead').textContent()).toContain('Re [10⁶]');
+      await page.screenshot({ path: join(ARTIFACTS, 'fits-print-summary.png'), fullPage: true });
+    } finally {
+      await page.emulateMedia({ media: 'screen' });
+    }
+    await showView(page, 'Characteristics');
+  });
+
+  it('writes the point table with units in every header, symbols for the blockage terms, and values rounded to their uncertainty', async () => {
+    await page.locator('tbody[data-run="run-101-clean.csv"] .run-row .run-name').click();
+    await showView(page, 'Run detail');
+    const table = page.getByRole('table', { name: 'Points of run 101' });
+    const heads = (await table.locator('thead tr').nth(1).locator('th').allTextContents()).map((h) => h.trim());
+    expect(heads.slice(0, 11)).toEqual(['point', 'samples', 'α [deg]', 'CL [–]', 'CD [–]', 'Cm [–]', 'L/D [–]', 'q [Pa]', 'V [m/s]', 'Mach [–]', 'Re [10⁶]']);
+    expect(heads).toEqual(expect.arrayContaining(['u(CL) [–]', 'u(α) [deg]', 'ε_sb [–]', 'ε_wb [–]', 'T₀ [°C]']));
+    const cells = (await table.locator('tbody tr').first().locator('td').allTextContents()).map((c) => c.trim());
+    // CL to the place of u(CL)'s second significant digit (GUM §7.2.6): u(CL) "0.0034" → CL with 4 decimals
+    const uCl = cells[heads.indexOf('u(CL) [–]')]!;
+    expect(uCl).toMatch(/^0\.00\d\d$/);
+    expect(cells[heads.indexOf('CL [–]')]).toMatch(/^-?\d\.\d{4}$/);
+    for (const c of cells) expect(c).not.toContain('\u2212');
+    expect(await overflowOf(page)).toBe(0);
+    await page.screenshot({ path: join(ARTIFACTS, 'fits-point-table-1024x700.png') });
+    await showView(page, 'Characteristics');
   });
 
   it('fits 1024×700 without sideways scrolling (the wide table scrolls in its own box), and at 1400×900', async () => {

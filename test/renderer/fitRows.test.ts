@@ -82,6 +82,7 @@ describe('CLmax: the reason in words when there is none', () => {
       expect(c.text).toBe('—');
       expect(c.value).toBeNull();
       expect(c.reason).toMatch(/^not reached: CL is still rising at the highest angle of the sweep \(α = \d+\.\d\d°\); the sweep stops before the stall$/);
+      expect(c.short).toBe('not reached (CL still rising)');
       expect(cellTitle(c)).toBe(c.reason);
     }
     // the lift curve is still fitted below the last point

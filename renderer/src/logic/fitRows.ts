@@ -39,6 +39,8 @@ export interface FitRowSpec {
   /** Patterns of engine warnings that explain a null here, and the reason when none is found. */
   explainedBy: RegExp[];
   fallback: (kind: '2d' | '3d', result?: ReductionResult) => string;
+  /** The reason in a few words for a narrow cell, when the full one is long (it then goes to the hover). */
+  fallbackShort?: (result: ReductionResult) => string | null;
   /** Own text for the value (instead of the number formatting). */
   show?: (result: ReductionResult) => string | null;
 }
@@ -147,10 +149,10 @@ export const FIT_ROWS: readonly FitRowSpec[] = [
     note: (r) => clMaxMethodText(r.fit.cl_max_method),
     hint: (r) => clMaxMethodText(r.fit.cl_max_method, true),
     explainedBy: [],
-    fallback: (_k, r) => clMaxNullReason(r),
+    fallback: (_k, r) => clMaxNullReason(r), fallbackShort: (r) => (r.fit.cl_max_reason ? clMaxReasonShort(r.fit.cl_max_reason) : null),
   },
-  { key: 'alpha_cl_max_deg', group: 'maximum', label: 'α at CLmax', unit: 'deg', decimals: 2, combined: 'alpha_cl_max_u_deg', explainedBy: [], fallback: (_k, r) => clMaxNullReason(r) },
-  { key: 'alpha_stall_deg', group: 'maximum', label: 'Stall angle (first drop after the peak)', unit: 'deg', decimals: 2, explainedBy: [], fallback: (_k, r) => clMaxNullReason(r) },
+  { key: 'alpha_cl_max_deg', group: 'maximum', label: 'α at CLmax', unit: 'deg', decimals: 2, combined: 'alpha_cl_max_u_deg', explainedBy: [], fallback: (_k, r) => clMaxNullReason(r), fallbackShort: (r) => (r.fit.cl_max_reason ? clMaxReasonShort(r.fit.cl_max_reason) : null) },
+  { key: 'alpha_stall_deg', group: 'maximum', label: 'Stall angle (first drop after the peak)', unit: 'deg', decimals: 2, explainedBy: [], fallback: (_k, r) => clMaxNullReason(r), fallbackShort: (r) => (r.fit.cl_max_reason ? clMaxReasonShort(r.fit.cl_max_reason) : null) },
   { key: 'cd0', group: 'polar', label: 'CD0 in CD = CD0 + k·CL²', unit: '–', decimals: 5, random: 'cd0_stderr', combined: 'cd0_u', explainedBy: [LIFT_FIT], fallback: () => 'polar not fitted' },
   { key: 'k_induced', group: 'polar', label: 'k in CD = CD0 + k·CL²', unit: '–', decimals: 4, random: 'k_induced_stderr', combined: 'k_induced_u', explainedBy: [LIFT_FIT], fallback: () => 'polar not fitted' },
   {
@@ -194,8 +196,7 @@ export const FIT_ROWS: readonly FitRowSpec[] = [
   {
     key: 'hysteresis_max_delta_cl',
     group: 'sweep',
-    detail: true,
-    label: 'largest ΔCL, rising − return',
+    label: 'Hysteresis: largest ΔCL, rising − return',
     unit: '–',
     decimals: 4,
     note: (r) => (r.fit.hysteresis_alpha_at_max_deg === null ? null : `at α = ${fixed(r.fit.hysteresis_alpha_at_max_deg, 2)}°`),
@@ -236,6 +237,8 @@ export interface FitCell {
   value: number | boolean | [number, number] | null;
   /** Why there is no value (only when value is null). */
   reason: string | null;
+  /** The same in a few words, where the reason is long. */
+  short?: string;
   /** Standard uncertainty (k = 1) shown after "±". */
   u?: number;
   /** How the value was found, in a few words ("parabola through the peak"). */
@@ -308,7 +311,12 @@ export function uncertaintyBreakdown(spec: FitRowSpec, result: ReductionResult):
 
 export function fitCell(spec: FitRowSpec, result: ReductionResult): FitCell {
   const value = result.fit[spec.key] as number | boolean | [number, number] | null;
-  if (value === null || value === undefined) return { text: DASH, value: null, reason: nullReason(spec, result) };
+  if (value === null || value === undefined) {
+    const cell: FitCell = { text: DASH, value: null, reason: nullReason(spec, result) };
+    const short = spec.fallbackShort?.(result);
+    if (short && short !== cell.reason) cell.short = short;
+    return cell;
+  }
   const uRaw = (spec.combined ? result.fit[spec.combined] : null) ?? (spec.random ? result.fit[spec.random] : null);
   const u = typeof uRaw === 'number' && Number.isFinite(uRaw) && uRaw > 0 ? uRaw : undefined;
   const text = spec.show?.(result) ?? formatFitValue(spec, value, u);

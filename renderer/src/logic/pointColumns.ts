@@ -12,6 +12,8 @@ export interface PointColumn {
   key: keyof PointResult;
   header: string;
   group: ColumnGroup;
+  /** What the header's symbol stands for (hover). */
+  title?: string;
   /** Text shown in the cell. */
   show(p: PointResult): string;
   /** Value copied to the clipboard / written to exports, in the unit of the header. */
@@ -101,8 +103,8 @@ export const POINT_TABLE: readonly PointColumn[] = [
   num('p_static_pa', 'p', 'flow', 'pressure'),
   celsius('t_total_k', 'T₀'),
   num('rh_pct', 'RH', 'flow', 'rh'),
-  num('eps_solid', BLOCKAGE_SYMBOLS.eps_solid.symbol, 'blockage', 'epsilon'),
-  num('eps_wake', BLOCKAGE_SYMBOLS.eps_wake.symbol, 'blockage', 'epsilon'),
+  { ...num('eps_solid', BLOCKAGE_SYMBOLS.eps_solid.symbol, 'blockage', 'epsilon'), title: BLOCKAGE_SYMBOLS.eps_solid.title },
+  { ...num('eps_wake', BLOCKAGE_SYMBOLS.eps_wake.symbol, 'blockage', 'epsilon'), title: BLOCKAGE_SYMBOLS.eps_wake.title },
   count('line', 'line', 'blockage'),
 ];
 
