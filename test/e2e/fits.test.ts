@@ -182,6 +182,17 @@ run('the Characteristics view in a real browser', () => {
     } finally {
       await page.emulateMedia({ media: 'screen' });
     }
+    // a single sweep of 15 points still prints on one A4 page with its uncertainties and notes
+    await page.locator('tbody[data-run="run-101-clean.csv"] .run-row .run-name').click();
+    await page.emulateMedia({ media: 'print' });
+    try {
+      await expect.poll(() => page.locator('.print-summary h1').textContent()).toContain('Run 101');
+      await page.screenshot({ path: join(ARTIFACTS, 'fits-print-summary-101.png'), fullPage: true });
+      const pdf = await page.pdf({ format: 'A4' });
+      expect((pdf.toString('latin1').match(/\/Type\s*\/Page[^s]/g) ?? []).length).toBe(1);
+    } finally {
+      await page.emulateMedia({ media: 'screen' });
+    }
     await showView(page, 'Characteristics');
   });
 
