@@ -45,7 +45,7 @@ run('upflow, repeats and balance in a real browser', () => {
 
   it('shows the pair’s upflow with its uncertainty and applies it to the setup in one click', async () => {
     const value = page.getByTestId('upflow-value');
-    await expect.poll(() => value.textContent()).toMatch(/^0\.35\d° ± 0\.00\d°/);
+    await expect.poll(() => value.textContent()).toMatch(/^0\.35\d+° ± 0\.00\d+°/);
     await page.getByRole('button', { name: /^Apply 0\.35\d° to setup/ }).click();
     await expect.poll(() => page.locator('.upflow-part .flash').textContent()).toMatch(/flow\.upflow_deg = 0\.35\d+° written to setup "KM-7 wing"/);
   });

@@ -12,6 +12,7 @@ import { nextTick } from 'vue';
 import AnalysisView from '../../renderer/src/components/AnalysisView.vue';
 import { APP } from '../../renderer/src/state/context.ts';
 import { repeatBand, residualPlots, upflowFromRuns, withUpflow, balanceTable } from '../../renderer/src/logic/flowAnalysis.ts';
+import { degreesWithUncertainty } from '../../renderer/src/logic/numberFormat.ts';
 import { parseBalance } from '../../core/balance/document.ts';
 import { charts } from './chartMock.ts';
 import { appContext, openedSample, sample } from './support.ts';
@@ -56,7 +57,8 @@ describe('upflow from a chosen pair', () => {
     await flushPromises();
     const cli = JSON.parse((await runCli('upflow', join(SAMPLES, PAIR[0]!), join(SAMPLES, PAIR[1]!), '--setup', join(SAMPLES, 'setup-3d.json'))).stdout);
     const shown = w.find('[data-testid="upflow-value"]').text();
-    expect(shown).toContain(`${cli.upflow_deg.toFixed(3)}° ± ${cli.upflow_u_deg.toFixed(3)}°`);
+    // rounded to the place of the uncertainty's second significant digit (GUM §7.2.6)
+    expect(shown).toContain(degreesWithUncertainty(cli.upflow_deg, cli.upflow_u_deg, 3));
     const setupName = ctx.wb.runOf(PAIR[0]!)!.setup!;
     const button = w.findAll('button').find((b) => b.text().startsWith('Apply'))!;
     expect(button.text()).toBe(`Apply ${cli.upflow_deg.toFixed(3)}° to setup "${setupName}"`);
@@ -67,7 +69,7 @@ describe('upflow from a chosen pair', () => {
     expect((ctx.wb.state.campaign.setups[setupName] as { flow: { upflow_deg: number } }).flow.upflow_deg).toBeCloseTo(cli.upflow_deg, 4);
     expect(w.find('.upflow-part .flash').text()).toMatch(/written to setup/);
     // applied to both runs of that setup, the same pair measures the same upflow (it cancels), and says so
-    expect(w.find('[data-testid="upflow-value"]').text()).toContain(`${cli.upflow_deg.toFixed(3)}°`);
+    expect(Number.parseFloat(w.find('[data-testid="upflow-value"]').text())).toBeCloseTo(cli.upflow_deg, 3);
     expect(w.find('.upflow-part').text()).toMatch(/it cancels/);
   });
   it('takes out half the difference when the two runs’ setups apply different upflows (logic)', async () => {

@@ -210,12 +210,15 @@ describe('characteristics', () => {
   it('puts the runs side by side, with "—" and the reason where a value does not apply', async () => {
     const ctx = await sampleContext();
     const w = mountIn(FitsView, ctx);
-    const headers = w.findAll('thead th').map((h) => h.text());
+    const headers = w.findAll('.fits-table thead th').map((h) => h.text());
     expect(headers).toEqual(['Characteristic', 'Unit', '101 · clean', '102 · flap 10', '103 · flap 20', '104 · clean', '201 · 2D section (2D)']);
     const oswald = w.find('tr[data-fit="oswald_e"]');
     const cells = oswald.findAll('td.num');
     expect(cells[4]!.text()).toBe('— not defined for a 2D section');
-    expect(cells[0]!.text()).toBe(ctx.wb.state.entries['run-101-clean.csv']!.result!.fit.oswald_e!.toFixed(3));
+    // value ± standard uncertainty, both to the uncertainty's second significant digit (GUM §7.2.6), and its source
+    const f101 = ctx.wb.state.entries['run-101-clean.csv']!.result!.fit;
+    expect(cells[0]!.find('.val').text()).toBe(`${f101.oswald_e!.toFixed(4)} ± ${f101.oswald_e_u!.toFixed(4)}`);
+    expect(cells[0]!.find('.how').text()).toBe('polar through CL = 0');
     expect(w.find('tr[data-fit="cl_alpha_per_deg"] td.unit').text()).toBe('1/deg');
     expect(w.find('.caution').text()).toMatch(/certified data and licensed practice govern/);
   });
@@ -235,12 +238,12 @@ describe('point table', () => {
     const text = (w.emitted('copy')![0] as string[])[0]!;
     const lines = text.trimEnd().split('\n');
     expect(lines.length).toBe(4);
-    expect(lines[0]!.split('\t').slice(0, 4)).toEqual(['point', 'samples', 'α [deg]', 'CL']);
+    expect(lines[0]!.split('\t').slice(0, 4)).toEqual(['point', 'samples', 'α [deg]', 'CL [–]']);
     expect(lines[0]).toContain('CL (measured)');
     expect(Number(lines[1]!.split('\t')[3])).toBe(points[1]!.cl);
     // as measured: the value copied is the uncorrected one, at full precision
     const header = lines[0]!.split('\t');
-    expect(Number(lines[1]!.split('\t')[header.indexOf('CL (measured)')])).toBe(points[1]!.cl_uncorrected);
+    expect(Number(lines[1]!.split('\t')[header.indexOf('CL (measured) [–]')])).toBe(points[1]!.cl_uncorrected);
   });
 });
 

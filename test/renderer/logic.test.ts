@@ -12,7 +12,7 @@ import { readRunText } from '../../core/formats/runFile.ts';
 import { ASSIGNMENT_LABELS, choiceProblems, choicesFromDocument, columnMapDocument, initialChoices, mappingFrom, needsMapping, type CellChoice } from '../../renderer/src/logic/columnMapping.ts';
 import { deltas, interpolate, curveOf } from '../../renderer/src/logic/delta.ts';
 import { fitHeader, fitRows, fitsCsvExport, pointsCsvExport } from '../../renderer/src/logic/exportTables.ts';
-import { fitCell, FIT_ROWS, fitRowsFor } from '../../renderer/src/logic/fitRows.ts';
+import { fitCell, FIT_ROWS, fitRowsFor, FOLDED } from '../../renderer/src/logic/fitRows.ts';
 import { fixed, millions, significant } from '../../renderer/src/logic/numberFormat.ts';
 import { assignStyles, colourOf, configurationOrder, RUN_COLOURS, styleFor } from '../../renderer/src/logic/palette.ts';
 import { columnsWithValues } from '../../renderer/src/logic/pointColumns.ts';
@@ -169,7 +169,7 @@ describe('fitted characteristics rows', () => {
     const rising = reduceSample('rising.csv', firstRows('run-101-clean.csv', 8), SETUP_3D);
     const clmax = fitCell(FIT_ROWS.find((r) => r.key === 'cl_max')!, rising);
     expect(clmax.text).toBe('—');
-    expect(clmax.reason).toMatch(/no peak was reached/);
+    expect(clmax.reason).toMatch(/^not reached: CL is still rising at the highest angle of the sweep/);
   });
 
   it('says why a 2D section has no Oswald efficiency, and shows values with their units', () => {
@@ -177,7 +177,7 @@ describe('fitted characteristics rows', () => {
     const e = fitCell(FIT_ROWS.find((x) => x.key === 'oswald_e')!, r);
     expect(e).toEqual({ text: '—', value: null, reason: 'not defined for a 2D section' });
     const slope = fitCell(FIT_ROWS.find((x) => x.key === 'cl_alpha_per_deg')!, r);
-    expect(slope.text).toBe(r.fit.cl_alpha_per_deg!.toFixed(5));
+    expect(slope.text).toBe(`${r.fit.cl_alpha_per_deg!.toFixed(5)} ± ${r.fit.cl_alpha_u_per_deg!.toFixed(5)}`);
     expect(FIT_ROWS.find((x) => x.key === 'cl_alpha_per_deg')!.unit).toBe('1/deg');
     const range = fitCell(FIT_ROWS.find((x) => x.key === 'linear_range_deg')!, r);
     expect(range.text).toBe(`${r.fit.linear_range_deg![0].toFixed(2)} to ${r.fit.linear_range_deg![1].toFixed(2)}`);
@@ -186,7 +186,7 @@ describe('fitted characteristics rows', () => {
   it('lists every key of the engine fit, known ones labelled', () => {
     const r = reduceSample('run-201-section.csv', sample('run-201-section.csv'), SETUP_2D);
     const rows = fitRowsFor({ ...r.fit, future_key: 1 } as never);
-    expect(rows.map((x) => x.key)).toEqual(expect.arrayContaining(Object.keys(r.fit)));
+    expect([...rows.map((x) => x.key), ...FOLDED]).toEqual(expect.arrayContaining(Object.keys(r.fit)));
     expect(rows.find((x) => x.key === ('future_key' as never))!.label).toBe('future_key');
   });
 });

@@ -7,6 +7,7 @@
 import type { FitResult } from '../../../core/index.ts';
 import type { PointResult, ReductionResult } from '../../../core/index.ts';
 import { bracket as bracketIn } from '../../../core/index.ts';
+import { uncertainty } from './numberFormat.ts';
 
 export interface Curve {
   alpha: number[];
@@ -170,7 +171,7 @@ export function fitDeltas(run: ReductionResult, baseline: ReductionResult): FitD
       const ub = uClAtPeak(baseline.points);
       note =
         ur !== null && ub !== null
-          ? `no standard error from the fit; u(CL) at the highest points: ${ur.toFixed(4)} (run), ${ub.toFixed(4)} (baseline)`
+          ? `no standard error from the fit; u(CL) at the highest points: ${uncertainty(ur)} (run), ${uncertainty(ub)} (baseline)`
           : 'no standard error from the fit';
     }
     return { key: spec.key, label: spec.label, unit: spec.unit, decimals: spec.decimals, run: a, baseline: b, delta, u, note };

@@ -9,6 +9,7 @@ import { attempt, type Notice } from '../../../core/index.ts';
 import { DEFAULT_LIFT_OFF_FACTOR, LIFT_OFF_RANGE, projectStallSpeed, type Projection, type ProjectionInput } from '../../../core/index.ts';
 import type { ReductionResult } from '../../../core/index.ts';
 import { FIT_ROWS, nullReason } from './fitRows.ts';
+import { fixed } from './numberFormat.ts';
 
 export type TemperatureMode = 'temperature' | 'isa-deviation';
 
@@ -150,7 +151,7 @@ function temperatureMessage(key: DraftKey, message: string, trial: ProjectionInp
   if (key !== 'isaDeviation' || trial.isaDeviationC === undefined || !Number.isFinite(trial.isaDeviationC)) return message;
   const H = trial.pressureAltitudeM ?? 0;
   const t = isaAtmosphere(H).T - 273.15 + trial.isaDeviationC;
-  return `the outside air temperature this gives, ${t.toFixed(1)} °C: ${message}`;
+  return `the outside air temperature this gives, ${fixed(t, 1)} °C: ${message}`;
 }
 
 export interface RunToProject {

@@ -3,7 +3,8 @@
  * only display conversions are kelvin → °C and Reynolds number in millions, done here.
  */
 import type { PointResult } from '../../../core/index.ts';
-import { fixed, millions, significant } from './numberFormat.ts';
+import { BLOCKAGE_SYMBOLS } from './factorNames.ts';
+import { columnHeader, fixed, formatQuantity, QUANTITY, valueForUncertainty, type Quantity } from './numberFormat.ts';
 
 export type ColumnGroup = 'corrected' | 'uncertainty' | 'measured' | 'flow' | 'blockage';
 
@@ -11,66 +12,100 @@ export interface PointColumn {
   key: keyof PointResult;
   header: string;
   group: ColumnGroup;
+  /** What the header's symbol stands for (hover). */
+  title?: string;
   /** Text shown in the cell. */
   show(p: PointResult): string;
   /** Value copied to the clipboard / written to exports, in the unit of the header. */
   value(p: PointResult): number | string | null;
 }
 
-function num(key: keyof PointResult, header: string, group: ColumnGroup, decimals: number): PointColumn {
+/**
+ * A column of one quantity, at that quantity's screen resolution (numberFormat.ts), its unit in the header.
+ * Where the point carries the value's standard uncertainty (`u`), the value is rounded to the place of the
+ * uncertainty's second significant digit instead (GUM §7.2.6), as the report exports round it.
+ */
+function num(key: keyof PointResult, symbol: string, group: ColumnGroup, quantity: Quantity, u?: keyof PointResult): PointColumn {
   return {
     key,
-    header,
+    header: columnHeader(symbol, QUANTITY[quantity].unit),
     group,
-    show: (p) => fixed(p[key] as number | null, decimals),
+    show: (p) => {
+      const uv = u ? (p[u] as number | null) : null;
+      return uv === null || uv === undefined
+        ? formatQuantity(quantity, p[key] as number | null)
+        : valueForUncertainty(p[key] as number | null, uv, QUANTITY[quantity].decimals ?? 4);
+    },
     value: (p) => p[key] as number | null,
   };
 }
 
-/** A column shown to a number of significant digits (uncertainties, blockage terms). */
-function sig(key: keyof PointResult, header: string, group: ColumnGroup, digits: number): PointColumn {
-  return { key, header, group, show: (p) => significant(p[key] as number | null, digits), value: (p) => p[key] as number | null };
+/** A standard uncertainty: two significant digits (GUM §7.2.6), in the unit of its quantity. */
+function unc(key: keyof PointResult, symbol: string, of: Quantity): PointColumn {
+  return {
+    key,
+    header: columnHeader(symbol, QUANTITY[of].unit),
+    group: 'uncertainty',
+    show: (p) => formatQuantity('uncertainty', p[key] as number | null),
+    value: (p) => p[key] as number | null,
+  };
 }
 
-function reynolds(key: 'reynolds' | 'reynolds_uncorrected', header: string, group: ColumnGroup): PointColumn {
-  return { key, header, group, show: (p) => millions(p[key]), value: (p) => (p[key] === null ? null : p[key]! / 1e6) };
+function reynolds(key: 'reynolds' | 'reynolds_uncorrected', group: ColumnGroup): PointColumn {
+  return {
+    key,
+    header: columnHeader('Re', QUANTITY.reynolds.unit),
+    group,
+    show: (p) => formatQuantity('reynolds', p[key]),
+    value: (p) => (p[key] === null ? null : p[key]! / 1e6),
+  };
 }
 
-function celsius(key: 't_static_k' | 't_total_k', header: string): PointColumn {
-  return { key, header, group: 'flow', show: (p) => fixed(p[key] - 273.15, 2), value: (p) => p[key] - 273.15 };
+function celsius(key: 't_static_k' | 't_total_k', symbol: string): PointColumn {
+  return {
+    key,
+    header: columnHeader(symbol, QUANTITY.temperatureC.unit),
+    group: 'flow',
+    show: (p) => formatQuantity('temperatureC', p[key] - 273.15),
+    value: (p) => p[key] - 273.15,
+  };
+}
+
+function count(key: 'samples' | 'line', header: string, group: ColumnGroup): PointColumn {
+  return { key, header, group, show: (p) => fixed(p[key], 0), value: (p) => p[key] };
 }
 
 export const POINT_TABLE: readonly PointColumn[] = [
   { key: 'point', header: 'point', group: 'corrected', show: (p) => p.point, value: (p) => p.point },
-  num('samples', 'samples', 'corrected', 0),
-  num('alpha_deg', 'α [deg]', 'corrected', 3),
-  num('cl', 'CL', 'corrected', 4),
-  num('cd', 'CD', 'corrected', 5),
-  num('cm', 'Cm', 'corrected', 4),
-  num('ld', 'L/D', 'corrected', 2),
-  num('q_pa', 'q [Pa]', 'corrected', 1),
-  num('v_mps', 'V [m/s]', 'corrected', 2),
-  num('mach', 'Mach', 'corrected', 4),
-  reynolds('reynolds', 'Re [10⁶]', 'corrected'),
-  sig('u_alpha_deg', 'u(α) [deg]', 'uncertainty', 2),
-  sig('u_cl', 'u(CL)', 'uncertainty', 2),
-  sig('u_cd', 'u(CD)', 'uncertainty', 2),
-  sig('u_cm', 'u(Cm)', 'uncertainty', 2),
-  sig('u_q_pa', 'u(q) [Pa]', 'uncertainty', 2),
-  num('alpha_uncorrected_deg', 'α [deg]', 'measured', 3),
-  num('cl_uncorrected', 'CL', 'measured', 4),
-  num('cd_uncorrected', 'CD', 'measured', 5),
-  num('cm_uncorrected', 'Cm', 'measured', 4),
-  num('q_uncorrected_pa', 'q [Pa]', 'measured', 1),
-  num('v_uncorrected_mps', 'V [m/s]', 'measured', 2),
-  reynolds('reynolds_uncorrected', 'Re [10⁶]', 'measured'),
-  num('rho_kgm3', 'ρ [kg/m³]', 'flow', 4),
-  num('p_static_pa', 'p [Pa]', 'flow', 0),
-  celsius('t_total_k', 'T₀ [°C]'),
-  num('rh_pct', 'RH [%]', 'flow', 1),
-  sig('eps_solid', 'ε solid', 'blockage', 3),
-  sig('eps_wake', 'ε wake', 'blockage', 3),
-  num('line', 'line', 'blockage', 0),
+  count('samples', 'samples', 'corrected'),
+  num('alpha_deg', 'α', 'corrected', 'alpha', 'u_alpha_deg'),
+  num('cl', 'CL', 'corrected', 'cl', 'u_cl'),
+  num('cd', 'CD', 'corrected', 'cd', 'u_cd'),
+  num('cm', 'Cm', 'corrected', 'cm', 'u_cm'),
+  num('ld', 'L/D', 'corrected', 'ld'),
+  num('q_pa', 'q', 'corrected', 'q', 'u_q_pa'),
+  num('v_mps', 'V', 'corrected', 'v', 'u_v_mps'),
+  num('mach', 'Mach', 'corrected', 'mach'),
+  reynolds('reynolds', 'corrected'),
+  unc('u_alpha_deg', 'u(α)', 'alpha'),
+  unc('u_cl', 'u(CL)', 'cl'),
+  unc('u_cd', 'u(CD)', 'cd'),
+  unc('u_cm', 'u(Cm)', 'cm'),
+  unc('u_q_pa', 'u(q)', 'q'),
+  num('alpha_uncorrected_deg', 'α', 'measured', 'alpha'),
+  num('cl_uncorrected', 'CL', 'measured', 'cl'),
+  num('cd_uncorrected', 'CD', 'measured', 'cd'),
+  num('cm_uncorrected', 'Cm', 'measured', 'cm'),
+  num('q_uncorrected_pa', 'q', 'measured', 'q'),
+  num('v_uncorrected_mps', 'V', 'measured', 'v'),
+  reynolds('reynolds_uncorrected', 'measured'),
+  num('rho_kgm3', 'ρ', 'flow', 'rho'),
+  num('p_static_pa', 'p', 'flow', 'pressure'),
+  celsius('t_total_k', 'T₀'),
+  num('rh_pct', 'RH', 'flow', 'rh'),
+  { ...num('eps_solid', BLOCKAGE_SYMBOLS.eps_solid.symbol, 'blockage', 'epsilon'), title: BLOCKAGE_SYMBOLS.eps_solid.title },
+  { ...num('eps_wake', BLOCKAGE_SYMBOLS.eps_wake.symbol, 'blockage', 'epsilon'), title: BLOCKAGE_SYMBOLS.eps_wake.title },
+  count('line', 'line', 'blockage'),
 ];
 
 /** Columns with at least one value in these points (uncertainties only exist with a setup's uncertainty block). */

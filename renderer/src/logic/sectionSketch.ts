@@ -3,6 +3,7 @@
  * boundaries (solid walls drawn full, free jet boundaries dashed), corner fillets, and the model's span
  * to scale (a half model from its reflection wall). Pure: the component only draws what this returns.
  */
+import { compact, fixed as toDecimals } from './numberFormat.ts';
 
 export type Side = 'floor' | 'ceiling' | 'left' | 'right';
 export type Kind = 'solid' | 'free';
@@ -47,7 +48,7 @@ const LEFT = 50;
 
 const num = (v: number | null) => (v !== null && Number.isFinite(v) && v > 0 ? v : null);
 const kindOf = (v: string | undefined, fallback: Kind): Kind => (v === 'free' ? 'free' : v === 'solid' ? 'solid' : fallback);
-const fmt = (m: number) => `${Number(m.toPrecision(3))} m`;
+const fmt = (m: number) => `${compact(m, 3)} m`;
 
 /** The sketch for the form's current values; never throws on half-typed input. */
 export function sectionSketch(inp: SketchInput): Sketch {
@@ -78,7 +79,7 @@ export function sectionSketch(inp: SketchInput): Sketch {
     const scale = VIEW / D;
     const model =
       s !== null && inp.kind !== '2d'
-        ? { x1: cx - (s * scale) / 2, y1: cy, x2: cx + (s * scale) / 2, y2: cy, label: `span ${fmt(s)} = ${(s / D).toFixed(2)} D` }
+        ? { x1: cx - (s * scale) / 2, y1: cy, x2: cx + (s * scale) / 2, y2: cy, label: `span ${fmt(s)} = ${toDecimals(s / D, 2)} D` }
         : null;
     return {
       viewBox: `${-LEFT} 0 ${VIEW + 2 * PAD + LEFT} ${VIEW + 2 * PAD}`,
@@ -136,7 +137,7 @@ export function sectionSketch(inp: SketchInput): Sketch {
         y1: cy,
         x2: cx + half,
         y2: cy,
-        label: inp.kind === '2d' ? 'wing spanning the width' : `span ${fmt(s)} = ${(s / B).toFixed(2)} B`,
+        label: inp.kind === '2d' ? 'wing spanning the width' : `span ${fmt(s)} = ${toDecimals(s / B, 2)} B`,
       };
     }
   }
