@@ -102,14 +102,16 @@ run('uncertainties and the full-scale estimate in a real browser', () => {
     const toggle = page.locator('.plot-toolbar .error-bar-toggle input');
     expect(await toggle.isChecked()).toBe(true);
     expect(await page.locator('.plot-toolbar .error-bar-toggle').getAttribute('title')).toMatch(/k = 1/);
-    // zoom the lift curve to its peak, where bars of a few thousandths of CL become visible
-    const surface = page.locator('[data-plot="cl-alpha"] .plot-surface');
-    const box = (await surface.boundingBox())!;
-    // the box spans α ≈ 8° to 17° and CL ≈ 0.9 to 1.2 on the plot's round-valued axes: the flapped run's peak
-    await page.mouse.move(box.x + box.width * 0.6, box.y + box.height * 0.1);
-    await page.mouse.down();
-    await page.mouse.move(box.x + box.width * 0.9, box.y + box.height * 0.3, { steps: 6 });
-    await page.mouse.up();
+    // zoom the lift curve to the flapped run's peak (typed ranges: the same view whatever headroom the axes keep),
+    // where bars of a few thousandths of CL become visible
+    const panel = page.locator('[data-plot="cl-alpha"]');
+    await panel.getByRole('button', { name: 'Ranges…' }).click();
+    const form = panel.getByRole('form', { name: /Axis ranges/ });
+    await form.getByLabel('α from').fill('9');
+    await form.getByLabel('α to').fill('18');
+    await form.getByLabel('CL from').fill('0.95');
+    await form.getByLabel('CL to').fill('1.2');
+    await form.getByRole('button', { name: 'Apply' }).click();
     await expect.poll(() => page.locator('[data-plot="cl-alpha"]').getAttribute('data-zoomed')).toBe('yes');
     const ids = ['cl-alpha', 'cd-cl', 'ld-alpha'];
     await expect.poll(() => page.locator('[data-plot="ld-alpha"]').getAttribute('data-error-bars')).toBe('shown');
