@@ -4,6 +4,7 @@ import type { PlotPoint } from '../logic/errorBars.ts';
 import type { SeriesStyle } from '../logic/palette.ts';
 import { branchName, arrowSegments, markKey, markNotes, segmentFalls, type KeyEntry, type SeriesMarks, type SweepInfo } from '../logic/plotMarks.ts';
 import type { Range } from '../logic/zoom.ts';
+import { readOutText } from '../logic/numberFormat.ts';
 import { FALLING_LINE_PX, FIT_LINE_ALPHA, FIT_LINE_PX, RISING_LINE_PX, withAlpha } from './markGlyphs.ts';
 import { FOOTER_LINE_PX, type DatasetRole, type MarksOptions } from './plugins.ts';
 
@@ -128,10 +129,9 @@ export function keyLegendItem(k: KeyEntry): LegendItem {
   return { ...base, pointStyle: 'triangle', rotation: 180, strokeStyle: KEY_GREY, fillStyle: KEY_GREY, lineWidth: 1 };
 }
 
-/** "0.5123 ± 0.0031" for a read-out, the uncertainty only where the point has one, then the unit if any. */
+/** "0.5123 ± 0.0031" for a read-out, the uncertainty only where the point has one, then the unit if any (the window's one number format). */
 export function readOut(value: number, u: number | undefined, decimals: number, unit = ''): string {
-  const text = u === undefined ? value.toFixed(decimals) : `${value.toFixed(decimals)} ± ${u.toFixed(decimals)}`;
-  return unit ? `${text} ${unit}` : text;
+  return readOutText(value, u, decimals, unit);
 }
 
 /** The unit in an axis title ("α [deg]" → "deg"); none for a ratio ("[–]", "[-]") or no brackets. */
