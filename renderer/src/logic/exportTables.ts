@@ -3,7 +3,7 @@
  * CSV is core's report table (core/formats/reportTable.ts: trade names, a units row, numbers to the
  * digits they support); the sheets keep full precision under a number format.
  */
-import { commentLine, provenanceLines as coreProvenanceLines, reportPointsCsv, toCsv, type Cell } from '../../../core/index.ts';
+import { commentLine, pointTableComments, reportPointsCsv, toCsv, type Cell } from '../../../core/index.ts';
 import { POINT_COLUMNS } from '../../../core/index.ts';
 import type { FitResult } from '../../../core/index.ts';
 import type { ReductionResult } from '../../../core/index.ts';
@@ -18,12 +18,13 @@ export function provenanceCsv(p: ExportProvenance): string {
 }
 
 /**
- * The point table of one run: the export's own lines, the run's provenance as the command line writes
- * it, then the report table (header, units row, rounded numbers).
+ * The point table of one run: the export's own lines, then the `#` lines the command line writes above
+ * the same table (run, configuration, provenance, rounding rule), then the report table (header, units
+ * row, numbers rounded as the command line rounds them).
  */
 export function pointsCsvExport(p: ExportProvenance, result: ReductionResult): string {
   const record = p.runs[0]?.record;
-  return reportPointsCsv(result, [...exportProvenanceLines({ ...p, runs: [] }), CAUTION, ...(record ? coreProvenanceLines(record) : [])]);
+  return reportPointsCsv(result, [...exportProvenanceLines({ ...p, runs: [] }), CAUTION, ...pointTableComments(result, record)]);
 }
 
 export interface FitSource {
