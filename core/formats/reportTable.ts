@@ -237,6 +237,8 @@ export interface TableColumn<R> {
   /** The value's standard uncertainty (same unit); the value is then rounded to its place (GUM §7.2.6). */
   u?: (row: R) => number | null | undefined;
   count?: true;
+  /** A value the user typed: written as given (shortest form), only cut to seven significant digits. */
+  given?: true;
 }
 
 /** One cell of a report table: text as text, numbers rounded by the report rule ("" when absent). */
@@ -244,6 +246,8 @@ export function tableCell<R>(col: TableColumn<R>, row: R): { text: string; numbe
   const v = col.value(row);
   if (typeof v === 'string') return { text: v, number: false };
   if (col.count) return { text: countNumber(v), number: true };
+  if (col.given)
+    return { text: v === null || v === undefined || !Number.isFinite(v) ? '' : tidy(String(Number(v.toPrecision(MAX_SIGNIFICANT)))), number: true };
   return { text: reportNumber(v, col.decimals, col.u ? (col.u(row) ?? null) : null), number: true };
 }
 
