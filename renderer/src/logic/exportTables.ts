@@ -7,7 +7,7 @@ import { commentLine, pointTableComments, reportPointsCsv, reportTableCsv, ROUND
 import { POINT_COLUMNS } from '../../../core/index.ts';
 import type { FitResult } from '../../../core/index.ts';
 import type { ReductionResult } from '../../../core/index.ts';
-import { CAUTION, exportProvenanceLines, type ExportProvenance } from './provenance.ts';
+import { CAUTION, exportProvenanceLines, VALUES_NOTE, type ExportProvenance } from './provenance.ts';
 import { KNOT_MPS, type Projection } from '../../../core/index.ts';
 import type { FullScaleRow, StallChange } from './fullScale.ts';
 import { deltas, dragAtMatchedLift, fitDeltas, incomparable, type DeltaRow, type FitDelta } from './delta.ts';
@@ -236,14 +236,22 @@ export function deltaDescription(d: DeltaExport): string[] {
     lines.push(
       "u(delta) = sqrt(u_run^2 + u_baseline^2), standard uncertainty (k = 1), the two runs taken as independent, the baseline's u interpolated like its value",
     );
-  for (const r of d.refused) lines.push(`not compared: ${runName(r.run)}: ${r.reason}`);
+  for (const r of d.refused) lines.push(`not compared: ${r.run.file}: ${r.reason}`);
   lines.push(ROUNDING_NOTE);
   return lines;
 }
 
+/**
+ * The provenance lines of a table that is not a point table: the note on `*_uncorrected` names is about
+ * the point table's columns, and these tables state their basis themselves.
+ */
+export function tableProvenanceLines(p: ExportProvenance): string[] {
+  return exportProvenanceLines(p).filter((l) => l !== VALUES_NOTE);
+}
+
 /** The differences as a report CSV: what it is, the provenance, then the table (header, units row, rounded numbers). */
 export function deltaCsvExport(p: ExportProvenance, d: DeltaExport): string {
-  return reportTableCsv(deltaColumns(d.rows), d.rows, [...deltaDescription(d), ...exportProvenanceLines(p), CAUTION]);
+  return reportTableCsv(deltaColumns(d.rows), d.rows, [...deltaDescription(d), ...tableProvenanceLines(p), CAUTION]);
 }
 
 // --- the full-scale estimate ------------------------------------------------------------------------
@@ -264,6 +272,13 @@ export interface FullScaleExport {
   baseline: string | null;
 }
 
+/** How the fit found CLmax (core/fits/clMax.ts), in words. */
+const CL_MAX_METHOD: Record<string, string> = {
+  parabola: 'parabola through the highest points',
+  'measured peak': 'highest measured point',
+  'smoothed peak': 'peak of the smoothed curve',
+};
+
 /** Where a run's CLmax came from, in words: the run, its basis, the sweep branch and the method. */
 export function clMaxSource(name: string, result: ReductionResult | null): string {
   if (!result) return '';
@@ -273,7 +288,8 @@ export function clMaxSource(name: string, result: ReductionResult | null): strin
   const branch = f.branch_direction
     ? `${f.branch_direction === 'up' ? 'rising' : 'falling'} sweep branch${f.branch !== null ? ` ${f.branch + 1}` : ''}`
     : 'the sweep';
-  return `fit of run ${name}, ${basis}, ${branch}, ${f.cl_max_method ?? 'peak'}`;
+  const method = CL_MAX_METHOD[f.cl_max_method ?? ''] ?? f.cl_max_method ?? 'highest point';
+  return `fit of run ${name}, ${basis}, ${branch}, ${method}`;
 }
 
 type FsRow = FullScaleExportRow & { air: Projection };
@@ -344,5 +360,5 @@ export function fullScaleDescription(x: FullScaleExport): string[] {
 /** The full-scale table as a report CSV: the cautions first, then what it is, the provenance, the table. */
 export function fullScaleCsvExport(prov: ExportProvenance, x: FullScaleExport): string {
   const rows = fullScaleRows(x);
-  return reportTableCsv(fullScaleColumns(rows), rows, [...fullScaleCautions(x), ...fullScaleDescription(x), ...exportProvenanceLines(prov), CAUTION]);
+  return reportTableCsv(fullScaleColumns(rows), rows, [...fullScaleCautions(x), ...fullScaleDescription(x), ...tableProvenanceLines(prov), CAUTION]);
 }

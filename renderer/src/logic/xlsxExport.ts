@@ -23,6 +23,7 @@ import {
   fullScaleColumns,
   fullScaleDescription,
   fullScaleRows,
+  tableProvenanceLines,
   type DeltaExport,
   type FitSource,
   type FullScaleExport,
@@ -171,7 +172,7 @@ export function deltaSheets(p: ExportProvenance, d: DeltaExport): Sheet<Blob>[] 
       columns: fitHeader.map((h) => ({ width: Math.max(12, h.length + 2) })),
       stickyRowsCount: 1,
     },
-    { sheet: sheetName('Notes', used), ...linesSheet([...deltaDescription(d), ...exportProvenanceLines(p), CAUTION]) },
+    { sheet: sheetName('Notes', used), ...linesSheet([...deltaDescription(d), ...tableProvenanceLines(p), CAUTION]) },
   ];
 }
 
@@ -185,7 +186,7 @@ export function fullScaleSheets(p: ExportProvenance, x: FullScaleExport): Sheet<
   const rows = fullScaleRows(x);
   return [
     { sheet: sheetName('Full-scale estimate', used), ...tableSheet(fullScaleColumns(rows), rows, fullScaleCautions(x)) },
-    { sheet: sheetName('Notes', used), ...linesSheet([...fullScaleCautions(x), ...fullScaleDescription(x), ...exportProvenanceLines(p), CAUTION]) },
+    { sheet: sheetName('Notes', used), ...linesSheet([...fullScaleCautions(x), ...fullScaleDescription(x), ...tableProvenanceLines(p), CAUTION]) },
   ];
 }
 
