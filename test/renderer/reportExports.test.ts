@@ -19,7 +19,7 @@ import DeltaView from '../../renderer/src/components/DeltaView.vue';
 import FullScaleView from '../../renderer/src/components/FullScaleView.vue';
 import { deltas, dragAtMatchedLift } from '../../renderer/src/logic/delta.ts';
 import { FULL_SCALE_HEAD, pointsCsvExport } from '../../renderer/src/logic/exportTables.ts';
-import { figureLayout, MIN_LAYOUT, sizeProblem } from '../../renderer/src/logic/figureSize.ts';
+import { figureLayout, fitLayout, MIN_LAYOUT, MIN_PLOT_HEIGHT, sizeProblem } from '../../renderer/src/logic/figureSize.ts';
 import { SECTION_REASON } from '../../renderer/src/logic/fullScale.ts';
 import { APP } from '../../renderer/src/state/context.ts';
 import { charts } from './chartMock.ts';
@@ -335,6 +335,19 @@ describe('figure sizes', () => {
     expect(px).toEqual({ width: 1280, height: 720, mm: null, pixelRatio: 1, printedPt: null });
   });
 
+  it('enlarges a layout in its proportions until the plot keeps its least height, the physical size unchanged', () => {
+    const base = figureLayout({ width: 160, height: 110, unit: 'mm' });
+    // 300 px around the plot at any width: the plot needs 540 px in all
+    const fitted = fitLayout(base, () => 300);
+    expect(fitted.height).toBeGreaterThanOrEqual(300 + MIN_PLOT_HEIGHT);
+    expect(fitted.width / fitted.height).toBeCloseTo(base.width / base.height, 2);
+    expect(fitted.mm).toEqual({ width: 160, height: 110 });
+    expect(fitted.printedPt!).toBeLessThan(base.printedPt!);
+    expect(fitted.width * fitted.pixelRatio).toBeCloseTo((160 / 25.4) * 300, 6);
+    // room enough: the same layout
+    expect(fitLayout(base, () => 100)).toBe(base);
+  });
+
   it('refuses a typed size out of range, naming it', () => {
     expect(sizeProblem({ width: 10, height: 100, unit: 'mm' })).toBe('The width must be 30 to 600 mm, not 10.');
     expect(sizeProblem({ width: 800, height: Number.NaN, unit: 'px' })).toBe('The height must be a number of px.');
@@ -349,7 +362,13 @@ describe('figure sizes', () => {
     const file = lastExport(ctx, '.svg');
     expect(file.name).toBe('KM-7-wing-flap-study-invented-demonstration-campaign-cl-alpha-160x110mm.svg');
     const layout = figureLayout({ width: 160, height: 110, unit: 'mm' });
-    expect(String(file.data)).toMatch(new RegExp(`^<svg [^>]*width="160mm" height="110mm" viewBox="0 0 ${layout.width} ${layout.height}"`));
+    const m = /^<svg [^>]*width="160mm" height="110mm" viewBox="0 0 (\d+) (\d+)"/.exec(String(file.data))!;
+    // five runs' provenance under the legend: the drawing is laid out larger, in the same proportions
+    expect(Number(m[1])).toBeGreaterThan(layout.width);
+    expect(Number(m[1]) / Number(m[2])).toBeCloseTo(160 / 110, 2);
+    expect(ctx.wb.state.banners.at(-1)!.text).toMatch(
+      /^Figure Lift curve: drawn at \d+ × \d+ px to leave the plot room beside the provenance of 5 runs; at 160 × 110 mm its small type prints at [\d.]+ pt\.$/,
+    );
     // a typed size out of range: nothing saved, the problem said
     ctx.exports.figure.custom.width = 5;
     const before = ctx.host.exported.length;

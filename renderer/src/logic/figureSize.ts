@@ -91,3 +91,32 @@ export function sizeText(size: FigureSize): string {
 export function sizeStem(size: FigureSize): string {
   return `${size.width}x${size.height}${size.unit}`;
 }
+
+/** The least height of the plot area itself, px: below it the curves cannot be read. */
+export const MIN_PLOT_HEIGHT = 240;
+
+/**
+ * A layout enlarged (proportions kept) until the plot area keeps MIN_PLOT_HEIGHT under what the drawing
+ * puts around it. `around(width)` is the height the title, axes, legend and provenance block take at a
+ * layout width (the provenance wraps into fewer lines on a wider layout). The physical size stays; the
+ * type prints smaller, and `printedPt` says how small.
+ */
+export function fitLayout(layout: FigureLayout, around: (width: number) => number): FigureLayout {
+  let { width, height } = layout;
+  for (let i = 0; i < 6; i++) {
+    const need = around(width) + MIN_PLOT_HEIGHT;
+    if (height >= need) break;
+    const k = need / height;
+    width = Math.round(width * k);
+    height = Math.ceil(height * k);
+  }
+  if (width === layout.width) return layout;
+  const mm = layout.mm;
+  return {
+    width,
+    height,
+    mm,
+    pixelRatio: mm ? ((mm.width / 25.4) * PRINT_DPI) / width : 1,
+    printedPt: mm ? (12 * (mm.width / width) * 72) / 25.4 : null,
+  };
+}

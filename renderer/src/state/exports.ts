@@ -20,12 +20,12 @@ import {
   type FitSource,
   type FullScaleExport,
 } from '../logic/exportTables.ts';
-import { DEFAULT_PRESET, FIGURE_PRESETS, figureLayout, sizeProblem, sizeStem, type FigureSize } from '../logic/figureSize.ts';
+import { DEFAULT_PRESET, FIGURE_PRESETS, figureLayout, fitLayout, sizeProblem, sizeStem, type FigureSize } from '../logic/figureSize.ts';
 import { checkInputs, projectRuns, stallChanges } from '../logic/fullScale.ts';
 import { PLOTS, plotSpec, type PlotId } from '../logic/plotSpecs.ts';
 import { exportProvenanceLines, figureProvenance, provenanceFooter } from '../logic/provenance.ts';
 import { factorLine } from '../logic/factorNames.ts';
-import { svgFigure } from '../charts/svgFigure.ts';
+import { svgFigure, wrapLines } from '../charts/svgFigure.ts';
 import type { Host } from '../host/hostAccess.ts';
 import type { PlotLimits } from './plotLimits.ts';
 import { overlaySeries, seriesLabel } from './plotSeries.ts';
@@ -253,11 +253,21 @@ export function createExports(wb: Workbench, host: Host, limits: PlotLimits, doc
     guarded('SVG export', async () => {
       if (!size) return;
       if (wb.shownRuns.value.length === 0) return nothing('Plot SVG');
-      const layout = figureLayout(size);
       const spec = plotSpec(id);
       const series = overlaySeries(wb, spec, wb.state.basis);
       const basis = wb.state.basis === 'corrected' ? 'free-air corrected' : 'as measured in the tunnel';
       const prov = await wb.provenance(wb.shownRuns.value);
+      const provenance = figureProvenance(prov, (r) => factorLine(r.factors));
+      const base = figureLayout(size);
+      // a size in mm keeps its physical size over a larger drawing when the plot would be squeezed out;
+      // svgFigure's frame: 44 px above the plot, 56 below it for the x axis, 20 per legend row of three
+      // runs, 16 per provenance line (12 px type, about 7 px a character) and 12 below them
+      const layout = !base.mm ? base : fitLayout(base, (w) => 44 + 56 + Math.ceil(series.length / 3) * 20 + wrapLines(provenance, Math.floor((w - 48) / 7)).length * 16 + 12);
+      if (layout !== base)
+        wb.say(
+          'info',
+          `Figure ${plotSpec(id).title}: drawn at ${layout.width} × ${layout.height} px to leave the plot room beside the provenance of ${series.length} runs; at ${size.width} × ${size.height} mm its small type prints at ${layout.printedPt!.toFixed(1)} pt.`,
+        );
       const svg = svgFigure({
         title: `${spec.title}, ${spec.y.title.split(' ')[0]} vs ${spec.x.title.split(' ')[0]} (${basis})${layout.width < 900 ? '' : ` · ${wb.state.campaign.name}`}`,
         xTitle: spec.x.title,
@@ -267,7 +277,7 @@ export function createExports(wb: Workbench, host: Host, limits: PlotLimits, doc
         width: layout.width,
         height: layout.height,
         mm: layout.mm,
-        provenance: figureProvenance(prov, (r) => factorLine(r.factors)),
+        provenance,
       });
       await host.saveExport(figureName(id, size, 'svg'), svg, 'image/svg+xml');
     });
