@@ -72,6 +72,7 @@ run('report exports of the comparison, the full-scale estimate and figures at a 
     await page.getByLabel('Baseline run', { exact: true }).selectOption('run-101-clean.csv');
     await page.locator('.delta-table tbody tr').first().waitFor();
     expect(await overflowOf(page)).toBe(0);
+    await page.screenshot({ path: join(ARTIFACTS, 'exports-baseline-1024x700.png') });
     const { d, bytes } = await download(page, () => page.getByRole('button', { name: 'Differences CSV' }).click(), 'exports-differences.csv');
     expect(d.suggestedFilename()).toBe('KM-7-wing-flap-study-invented-demonstration-campaign-differences-against-101.csv');
     const text = bytes.toString('utf8');
@@ -115,6 +116,8 @@ run('report exports of the comparison, the full-scale estimate and figures at a 
     await page.getByLabel('Pressure altitude [m]').fill('1500');
     await page.locator('[data-air="rho"]').waitFor();
     expect(await overflowOf(page)).toBe(0);
+    await page.getByRole('button', { name: 'Full-scale CSV' }).scrollIntoViewIfNeeded();
+    await page.screenshot({ path: join(ARTIFACTS, 'exports-full-scale-1024x700.png') });
     const { d, bytes } = await download(page, () => page.getByRole('button', { name: 'Full-scale CSV' }).click(), 'exports-full-scale.csv');
     expect(d.suggestedFilename()).toBe('KM-7-wing-flap-study-invented-demonstration-campaign-full-scale-estimate.csv');
     const text = bytes.toString('utf8');
