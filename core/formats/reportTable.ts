@@ -135,26 +135,10 @@ function rounded(value: number | null | undefined, digits: Digits, u?: number | 
   if (fromU !== null) d = fromU;
   d = Math.min(d, MAX_SIGNIFICANT - 1 - e);
   if (e >= MAX_SIGNIFICANT) return tidy(value.toPrecision(Math.max(1, Math.min(MAX_SIGNIFICANT, e + 1 + d))));
-  if (d >= 0) return fixedText(value, Math.min(d, 100));
+  if (d >= 0) return tidy(value.toFixed(Math.min(d, 100)));
   // round to tens, hundreds…: the digits after are zeros that carry no information
   const step = pow10(-d);
   return tidy(String(Math.round(value / step) * step));
-}
-
-/**
- * `value.toFixed(d)` for the at most seven significant digits written here, built from the rounded
- * integer |value|·10^d (several times faster than toFixed, which matters at a million rows; ties round
- * away from zero as toFixed does). Never "-0" or "-0.000".
- */
-function fixedText(value: number, d: number): string {
-  const scaled = Math.round(Math.abs(value) * pow10(d));
-  if (d > 40 || !Number.isSafeInteger(scaled)) return tidy(value.toFixed(d));
-  let text = String(scaled);
-  if (d > 0) {
-    if (text.length <= d) text = '0'.repeat(d - text.length + 1) + text;
-    text = `${text.slice(0, text.length - d)}.${text.slice(text.length - d)}`;
-  }
-  return value < 0 && scaled !== 0 ? `-${text}` : text;
 }
 
 /** A count or line number: the integer as it is (no rounding to seven digits); anything else as a 7-digit number. */
@@ -178,12 +162,12 @@ export function reportCells(p: PointResult): (string | number)[] {
   });
 }
 
+const REPORT_DIGITS: readonly Digits[] = REPORT_COLUMNS.map((col) => parseDigits(col.decimals));
+
 /**
  * One point's cells as CSV text in REPORT_COLUMNS order: text (the point label) through the CSV writer,
  * numbers rounded by the report rule. The command line's CSV rows (its header keeps the contract's names).
  */
-const REPORT_DIGITS: readonly Digits[] = REPORT_COLUMNS.map((col) => parseDigits(col.decimals));
-
 export function reportCsvRow(p: PointResult): string {
   const cells = new Array<string>(REPORT_COLUMNS.length);
   for (let i = 0; i < REPORT_COLUMNS.length; i++) {
