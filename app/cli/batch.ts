@@ -11,7 +11,19 @@ import { availableParallelism } from 'node:os';
 import { basename, dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import writeXlsxFile from 'write-excel-file/node';
-import { escapeFormula, pointsCsv, POINT_COLUMNS, toCsv, type Cell, type Provenance, type ReductionResult } from '../../core/index.ts';
+import {
+  commentLine,
+  csvLine,
+  escapeFormula,
+  pointsCsv,
+  POINT_COLUMNS,
+  reportCsvRow,
+  ROUNDING_NOTE,
+  toCsv,
+  type Cell,
+  type Provenance,
+  type ReductionResult,
+} from '../../core/index.ts';
 import { writeFileAtomic } from '../files/atomic.ts';
 
 export interface BatchOptions {
@@ -158,13 +170,24 @@ export async function batchReduce(o: BatchOptions, say: (l: string) => void): Pr
       r.warnings.length,
     ];
   });
-  await writeFileAtomic(join(o.outDir, 'points.csv'), toCsv(pointHead, pointRows));
+  await writeFileAtomic(join(o.outDir, 'points.csv'), combinedPointsCsv(pointHead, done));
   await writeFileAtomic(join(o.outDir, 'fits.csv'), toCsv(fitHead, fitRows));
   await writeFileAtomic(join(o.outDir, 'points.xlsx'), await workbook('Points', pointHead, pointRows));
   await writeFileAtomic(join(o.outDir, 'fits.xlsx'), await workbook('Fits', fitHead, fitRows));
   const failed = outcomes.length - done.length;
   say(`wrote ${done.length} run tables, points.csv/.xlsx and fits.csv/.xlsx to ${o.outDir}${failed ? `; ${failed} run(s) failed` : ''}`);
   return failed > 0 ? 1 : 0;
+}
+
+/** Every point of every run as CSV: the rounding rule as a `#` line, the header, then each run's points rounded as in its own table. */
+function combinedPointsCsv(head: readonly string[], done: readonly Outcome[]): string {
+  let text = `${commentLine(ROUNDING_NOTE)}\n${csvLine(head)}\n`;
+  for (const x of done) {
+    const r = x.doc!;
+    const lead = csvLine([r.run.name, r.run.configuration, String(r.run['source_file'] ?? basename(x.run))]);
+    for (const p of r.points) text += `${lead},${reportCsvRow(p)}\n`;
+  }
+  return text;
 }
 
 async function workbook(name: string, head: string[], rows: Cell[][]): Promise<Buffer> {

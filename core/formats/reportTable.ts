@@ -14,6 +14,10 @@ import { commentLine } from './csvWriter.ts';
 
 export const MAX_SIGNIFICANT = 7;
 
+/** The rounding rule in one line, written as a `#` line above every table rounded by it. */
+export const ROUNDING_NOTE =
+  "numbers: rounded to the place of the standard uncertainty's second significant digit where there is one (GUM 7.2.6), else to the quantity's resolution; never more than 7 significant digits";
+
 export interface ReportColumn {
   key: keyof PointResult;
   /** Name as a test engineer writes it, ASCII so every spreadsheet and reader shows it. */
@@ -24,6 +28,8 @@ export interface ReportColumn {
   decimals: number | `sig:${number}`;
   /** Column holding this value's standard uncertainty (same unit), if any. */
   u?: keyof PointResult;
+  /** A count or a line number: written as the integer it is, whatever its number of digits. */
+  count?: true;
 }
 
 const c = (key: keyof PointResult, header: string, unit: string, decimals: ReportColumn['decimals'], u?: keyof PointResult): ReportColumn => ({
@@ -33,11 +39,12 @@ const c = (key: keyof PointResult, header: string, unit: string, decimals: Repor
   decimals,
   ...(u ? { u } : {}),
 });
+const count = (key: keyof PointResult, header: string): ReportColumn => ({ key, header, unit: '-', decimals: 0, count: true });
 
 /** The command line's point columns (POINT_COLUMNS), in the same order, with report names and units. */
 export const REPORT_COLUMNS: readonly ReportColumn[] = [
   c('point', 'point', '-', 0),
-  c('samples', 'samples', '-', 0),
+  count('samples', 'samples'),
   c('alpha_deg', 'alpha', 'deg', 3, 'u_alpha_deg'),
   c('cl', 'CL', '-', 4, 'u_cl'),
   c('cd', 'CD', '-', 5, 'u_cd'),
@@ -80,14 +87,20 @@ export const REPORT_COLUMNS: readonly ReportColumn[] = [
   c('u_cl', 'u(CL)', '-', 'sig:2'),
   c('u_cd', 'u(CD)', '-', 'sig:2'),
   c('u_cm', 'u(Cm)', '-', 'sig:2'),
-  c('line', 'file line', '-', 0),
+  count('line', 'file line'),
 ];
+
+/** Powers of ten from 1e-40 to 1e40, looked up rather than computed: the writer calls this for every cell. */
+const POW10 = Array.from({ length: 81 }, (_, i) => Number(`1e${i - 40}`));
+const pow10 = (n: number): number => (n >= -40 && n <= 40 ? POW10[n + 40]! : 10 ** n);
 
 /** Decimal exponent of a finite non-zero number (floor(log10 |x|)), exact at powers of ten. */
 function exponentOf(x: number): number {
-  const e = Math.floor(Math.log10(Math.abs(x)));
-  // log10 can land a hair below an exact power of ten
-  return Math.abs(x) >= 10 ** (e + 1) ? e + 1 : e;
+  const a = Math.abs(x);
+  const e = Math.floor(Math.log10(a));
+  // log10 can land a hair either side of an exact power of ten
+  if (a >= pow10(e + 1)) return e + 1;
+  return a < pow10(e) ? e - 1 : e;
 }
 
 /** Digits after the point that put the uncertainty's second significant digit last (GUM §7.2.6). */
@@ -96,25 +109,42 @@ export function decimalsFromUncertainty(u: number): number | null {
   return 1 - exponentOf(u);
 }
 
+/** `decimals` of a column parsed once: fixed digits after the point, or significant digits. */
+interface Digits {
+  fixed: number;
+  sig: number | null;
+}
+function parseDigits(decimals: number | `sig:${number}`): Digits {
+  return typeof decimals === 'string' ? { fixed: 0, sig: Number(decimals.slice(4)) } : { fixed: decimals, sig: null };
+}
+
 /**
  * A number as text with `decimals` digits after the point, but never more than seven significant
  * digits; beyond seven integer digits it switches to exponent form. "" for null and non-finite.
  */
 export function reportNumber(value: number | null | undefined, decimals: number | `sig:${number}`, u?: number | null): string {
+  return rounded(value, parseDigits(decimals), u);
+}
+
+function rounded(value: number | null | undefined, digits: Digits, u?: number | null): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return '';
   if (value === 0) return '0';
   const e = exponentOf(value);
-  let d: number;
-  if (typeof decimals === 'string') d = Math.min(MAX_SIGNIFICANT, Number(decimals.slice(4))) - 1 - e;
-  else d = decimals;
+  let d = digits.sig === null ? digits.fixed : Math.min(MAX_SIGNIFICANT, digits.sig) - 1 - e;
   const fromU = u === null || u === undefined ? null : decimalsFromUncertainty(u);
   if (fromU !== null) d = fromU;
   d = Math.min(d, MAX_SIGNIFICANT - 1 - e);
   if (e >= MAX_SIGNIFICANT) return tidy(value.toPrecision(Math.max(1, Math.min(MAX_SIGNIFICANT, e + 1 + d))));
   if (d >= 0) return tidy(value.toFixed(Math.min(d, 100)));
   // round to tens, hundreds…: the digits after are zeros that carry no information
-  const step = 10 ** -d;
+  const step = pow10(-d);
   return tidy(String(Math.round(value / step) * step));
+}
+
+/** A count or line number: the integer as it is (no rounding to seven digits); anything else as a 7-digit number. */
+export function countNumber(value: number | null | undefined): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return '';
+  return Number.isInteger(value) ? String(value) : reportNumber(value, `sig:${MAX_SIGNIFICANT}`);
 }
 
 function tidy(text: string): string {
@@ -127,8 +157,26 @@ export function reportCells(p: PointResult): (string | number)[] {
   return REPORT_COLUMNS.map((col) => {
     const v = p[col.key] as number | string | null;
     if (typeof v === 'string') return v;
+    if (col.count) return countNumber(v);
     return reportNumber(v, col.decimals, col.u ? (p[col.u] as number | null) : null);
   });
+}
+
+const REPORT_DIGITS: readonly Digits[] = REPORT_COLUMNS.map((col) => parseDigits(col.decimals));
+
+/**
+ * One point's cells as CSV text in REPORT_COLUMNS order: text (the point label) through the CSV writer,
+ * numbers rounded by the report rule. The command line's CSV rows (its header keeps the contract's names).
+ */
+export function reportCsvRow(p: PointResult): string {
+  const cells = new Array<string>(REPORT_COLUMNS.length);
+  for (let i = 0; i < REPORT_COLUMNS.length; i++) {
+    const col = REPORT_COLUMNS[i]!;
+    const v = p[col.key] as number | string | null;
+    cells[i] = typeof v === 'string' ? csvCell(v) : col.count ? countNumber(v) : rounded(v, REPORT_DIGITS[i]!, col.u ? (p[col.u] as number | null) : null);
+  }
+  // one join makes a flat string; appending cell by cell left ropes that the collector spent most of the time on
+  return cells.join(',');
 }
 
 /**
@@ -160,5 +208,41 @@ export function reportPointsCsv(result: ReductionResult, comments: readonly stri
     const cells = reportCells(p);
     lines.push(reportLine(idx.map((i) => ({ text: String(cells[i]), number: REPORT_COLUMNS[i]!.key !== 'point' }))));
   }
+  return lines.join('\n') + '\n';
+}
+
+/** A column of a report table of any rows: trade-word header, unit, digits, and how to read it from a row. */
+export interface TableColumn<R> {
+  header: string;
+  /** "-" for a ratio, "" for a text column. */
+  unit: string;
+  decimals: number | `sig:${number}`;
+  value: (row: R) => number | string | null | undefined;
+  /** The value's standard uncertainty (same unit); the value is then rounded to its place (GUM §7.2.6). */
+  u?: (row: R) => number | null | undefined;
+  count?: true;
+  /** A value the user typed: written as given (shortest form), only cut to seven significant digits. */
+  given?: true;
+}
+
+/** One cell of a report table: text as text, numbers rounded by the report rule ("" when absent). */
+export function tableCell<R>(col: TableColumn<R>, row: R): { text: string; number: boolean } {
+  const v = col.value(row);
+  if (typeof v === 'string') return { text: v, number: false };
+  if (col.count) return { text: countNumber(v), number: true };
+  if (col.given)
+    return { text: v === null || v === undefined || !Number.isFinite(v) ? '' : tidy(String(Number(v.toPrecision(MAX_SIGNIFICANT)))), number: true };
+  return { text: reportNumber(v, col.decimals, col.u ? (col.u(row) ?? null) : null), number: true };
+}
+
+/**
+ * A report CSV of any rows, written like the point table: raw `# ` lines, the header row, the units row,
+ * one line per row, numbers rounded by the report rule and text cells quoted and formula-escaped.
+ */
+export function reportTableCsv<R>(columns: readonly TableColumn<R>[], rows: readonly R[], comments: readonly string[] = []): string {
+  const lines = comments.map(commentLine);
+  lines.push(reportLine(columns.map((col) => ({ text: col.header, number: false }))));
+  lines.push(reportLine(columns.map((col) => ({ text: col.unit, number: true }))));
+  for (const r of rows) lines.push(reportLine(columns.map((col) => tableCell(col, r))));
   return lines.join('\n') + '\n';
 }

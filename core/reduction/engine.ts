@@ -6,7 +6,8 @@ import { attempt, InputError, type Outcome } from '../contract/messages.ts';
 import { reduce, reduceBases, type ReductionResult, type PointResult } from './pipeline.ts';
 import { RunFileReader, type ColumnMapping, type GroupingOptions, type RunData } from '../formats/runFile.ts';
 import { parseSetup, type SetupResult } from '../setup/schema.ts';
-import { commentLine, csvCell, csvLine, type Cell } from '../formats/csvWriter.ts';
+import { commentLine, csvLine } from '../formats/csvWriter.ts';
+import { reportCsvRow, ROUNDING_NOTE } from '../formats/reportTable.ts';
 import { provenanceLines, type Provenance } from '../formats/provenance.ts';
 import { SETUP_MAX_BYTES, setupTooLarge } from '../formats/limits.ts';
 import type { SampleTransform } from '../formats/sampleTransform.ts';
@@ -78,11 +79,26 @@ export const POINT_COLUMNS: readonly (keyof PointResult)[] = [
   'eps_solid', 'eps_wake', 'u_q_pa', 'u_v_mps', 'u_alpha_deg', 'u_cl', 'u_cd', 'u_cm', 'line',
 ];
 
-/** The point table of a result as CSV, headed by `# ` provenance lines when given. */
+/**
+ * The point table of a result as CSV, headed by `# ` lines (pointTableComments): the contract's column
+ * names (POINT_COLUMNS), no units row, and each number rounded by the report rule
+ * (core/formats/reportTable.ts: to the place of its uncertainty's second significant digit where the
+ * point has one, else to the quantity's resolution, never past seven significant digits), so the
+ * command line's CSV and the window's report table carry the same numbers.
+ */
 export function pointsCsv(result: ReductionResult, provenance?: Provenance): string {
   let text = '';
   for (const chunk of pointsCsvChunks(result, provenance)) text += chunk;
   return text;
+}
+
+/**
+ * The `#` lines above a point table: the run's name and configuration (`# key: value` metadata a
+ * run-file reader takes back), the provenance when given, and the rounding rule.
+ */
+export function pointTableComments(result: ReductionResult, provenance?: Provenance): string[] {
+  const meta = [`run: ${result.run.name}`, ...(result.run.configuration !== null ? [`configuration: ${result.run.configuration}`] : [])];
+  return [...meta, ...(provenance ? provenanceLines(provenance) : []), ROUNDING_NOTE];
 }
 
 /** Rows per chunk of `pointsCsvChunks`. */
@@ -90,25 +106,20 @@ const ROWS_PER_CHUNK = 2048;
 
 /**
  * `pointsCsv` in pieces of a few thousand lines, for hosts that write a large table as it is made:
- * a million-point table is about 450 million characters, near the longest string a JavaScript engine
- * holds, so it is never built whole there.
+ * a million-point table is several hundred million characters, near the longest string a JavaScript
+ * engine holds, so it is never built whole there.
  */
 export function* pointsCsvChunks(result: ReductionResult, provenance?: Provenance): Generator<string> {
   // comment lines (not CSV cells), skipped by `comment='#'` readers such as pandas and our own reader,
-  // escaped with the cells' formula rule for spreadsheets that split them at commas; the run's name and
-  // configuration first, as `# key: value` metadata a run-file reader takes back
-  const meta = [`run: ${result.run.name}`, ...(result.run.configuration !== null ? [`configuration: ${result.run.configuration}`] : [])];
-  const lines = provenance ? meta.concat(provenanceLines(provenance)) : meta;
-  yield lines.map(commentLine).join('\n') + '\n';
+  // escaped with the cells' formula rule for spreadsheets that split them at commas
+  yield pointTableComments(result, provenance).map(commentLine).join('\n') + '\n';
   yield csvLine(POINT_COLUMNS as string[]) + '\n';
   const points = result.points;
   for (let start = 0; start < points.length; start += ROWS_PER_CHUNK) {
-    let block = '';
     const end = Math.min(points.length, start + ROWS_PER_CHUNK);
-    for (let i = start; i < end; i++) {
-      const p = points[i]!;
-      block += POINT_COLUMNS.map((k) => csvCell(p[k] as Cell)).join(',') + '\n';
-    }
-    yield block;
+    const rows = new Array<string>(end - start);
+    // REPORT_COLUMNS lists POINT_COLUMNS in the same order (checked by the report table's tests)
+    for (let i = start; i < end; i++) rows[i - start] = reportCsvRow(points[i]!);
+    yield rows.join('\n') + '\n';
   }
 }

@@ -187,8 +187,16 @@ describe('batch reduction', () => {
     expect(fits).toHaveLength(4);
     expect(fits[1]).toMatch(/^101,clean,run-101-clean\.csv,ok,15,/);
     expect(fits[2]).toMatch(/^broken,,broken\.csv,failed: /);
-    const points = readFileSync(join(out, 'points.csv'), 'utf8').trim().split('\n');
+    const pointsText = readFileSync(join(out, 'points.csv'), 'utf8');
+    const points = pointsText
+      .trim()
+      .split('\n')
+      .filter((l) => !l.startsWith('#'));
     expect(points).toHaveLength(1 + 30);
+    // numbers rounded as in each run's own table: the rows of points.csv are the per-run rows behind run, configuration, file
+    expect(pointsText.split('\n')[0]).toMatch(/^# numbers: rounded to the place of the standard uncertainty's second significant digit/);
+    const own = perRun.filter((l) => l !== '' && !l.startsWith('#')).slice(1);
+    expect(points.filter((l) => l.startsWith('102,flap 10,run-102-flap10.csv,')).map((l) => l.split(',').slice(3).join(','))).toEqual(own);
     const sheets = await readXlsxFile(join(out, 'points.xlsx'));
     expect(sheets[0]!.data.length).toBe(31);
     expect(sheets[0]!.data[1]!.slice(0, 2)).toEqual(['101', 'clean']);

@@ -4,6 +4,9 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import Papa from 'papaparse';
+import { POINT_COLUMNS } from '../../core/reduction/engine.ts';
+import { ROUNDING_NOTE } from '../../core/formats/reportTable.ts';
 import { runCli } from '../support/cli.ts';
 
 const ROOT = resolve(__dirname, '../..');
@@ -63,6 +66,36 @@ describe('sweepbook reduce (command line, docs/data-format.md §8)', () => {
     expect(all.slice(0, 2)).toEqual(['# run: 201', '# configuration: 2D section, clean']);
     expect(all[2]).toMatch(/^# tool: sweepbook \d+\.\d+\.\d+$/);
     expect(all.some((l) => l.startsWith('# run: run-201-section.csv sha256 '))).toBe(true);
+    expect(all).toContain(`# ${ROUNDING_NOTE}`);
+  });
+
+  it("writes the CSV's numbers rounded by the report rule, each within half a unit in its last place of the JSON's", async () => {
+    const args = [S('run-101-clean.csv'), '--setup', S('setup-3d.json'), '--tare', S('windoff-tare.csv')];
+    const csv = await runCli('reduce', ...args, '--format', 'csv');
+    const json = await runCli('reduce', ...args);
+    expect(csv.code, csv.stderr).toBe(0);
+    const doc = JSON.parse(json.stdout) as { points: Record<string, number | string | null>[] };
+    const [header, ...rows] = Papa.parse<string[]>(csv.stdout, { comments: '#', skipEmptyLines: true }).data;
+    expect(header).toEqual([...POINT_COLUMNS]);
+    expect(rows).toHaveLength(doc.points.length);
+    let compared = 0;
+    rows.forEach((row, i) =>
+      row.forEach((cell, j) => {
+        const ref = doc.points[i]![header![j]!];
+        if (typeof ref === 'string' || ref === null || ref === undefined) return expect(cell).toBe(ref ?? '');
+        const mantissa = cell.replace(/^-/, '').replace(/e.*$/i, '');
+        // at most 7 significant digits, except counts and line numbers, written whole
+        if (!['samples', 'line'].includes(header![j]!)) expect(mantissa.replace('.', '').replace(/^0+/, '').length, cell).toBeLessThanOrEqual(7);
+        const decimals = mantissa.includes('.') ? mantissa.split('.')[1]!.length : 0;
+        const trailingZeros = decimals === 0 ? (/0+$/.exec(mantissa)?.[0].length ?? 0) : 0;
+        const scale = /e/i.test(cell) ? 10 ** Number(cell.split(/e/i)[1]) : 1;
+        // rounded to the last digit written (tens, hundreds… when an integer ends in zeros)
+        const place = 10 ** (trailingZeros - decimals) * scale;
+        expect(Math.abs(Number(cell) - ref), `${header![j]} point ${i}: ${cell} vs ${ref}`).toBeLessThanOrEqual(place / 2 + Math.abs(ref) * 1e-12);
+        compared++;
+      }),
+    );
+    expect(compared).toBeGreaterThan(30 * rows.length);
   });
 
   it('is reproducible: with SOURCE_DATE_EPOCH set, two reductions give byte-identical JSON and CSV', async () => {

@@ -4,7 +4,7 @@
  */
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
-import { decimalsFromUncertainty, MAX_SIGNIFICANT, REPORT_COLUMNS, reportNumber, reportPointsCsv } from '../../core/formats/reportTable.ts';
+import { countNumber, decimalsFromUncertainty, MAX_SIGNIFICANT, REPORT_COLUMNS, reportNumber, reportPointsCsv } from '../../core/formats/reportTable.ts';
 import { commentLine } from '../../core/formats/csvWriter.ts';
 import { POINT_COLUMNS, readSetup, reduceRun } from '../../core/reduction/engine.ts';
 import { readRunText } from '../../core/formats/runFile.ts';
@@ -59,6 +59,13 @@ describe('report numbers', () => {
     for (const v of [1e-9, 0.000123456789, 1.23456789, 987654.321, 12345678.9, -0.0098765432]) {
       for (const d of [0, 3, 9, 'sig:9'] as const) expect(significantDigits(reportNumber(v, d)), `${v} ${d}`).toBeLessThanOrEqual(MAX_SIGNIFICANT);
     }
+  });
+
+  it('writes counts and line numbers as the integers they are, past seven digits too', () => {
+    expect(countNumber(12_345_678)).toBe('12345678');
+    expect(countNumber(3)).toBe('3');
+    expect(countNumber(null)).toBe('');
+    expect(REPORT_COLUMNS.filter((c) => c.count).map((c) => c.key)).toEqual(['samples', 'line']);
   });
 
   it('uses significant digits for sig:N columns (Reynolds number to four)', () => {

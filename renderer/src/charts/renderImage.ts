@@ -6,7 +6,8 @@ import type { ChartConfiguration } from 'chart.js';
 import { Chart } from './chartSetup.ts';
 import { errorBars, paperFooter, plotMarks, rangeBars } from './plugins.ts';
 
-export function renderPng(config: ChartConfiguration<'scatter'>, width: number, height: number, doc: Document = document): string {
+/** `pixelRatio`: device pixels per CSS px of the image (a print resolution); the layout stays width × height CSS px. */
+export function renderPng(config: ChartConfiguration<'scatter'>, width: number, height: number, doc: Document = document, pixelRatio = 1): string {
   const canvas = doc.createElement('canvas');
   canvas.width = width;
   canvas.height = height;
@@ -19,7 +20,7 @@ export function renderPng(config: ChartConfiguration<'scatter'>, width: number, 
   doc.body.appendChild(canvas);
   const chart = new Chart(canvas, {
     ...config,
-    options: { ...config.options, responsive: false, devicePixelRatio: 1, animation: false },
+    options: { ...config.options, responsive: false, devicePixelRatio: pixelRatio, animation: false },
     plugins: [paperFooter, rangeBars, errorBars, plotMarks],
   });
   try {

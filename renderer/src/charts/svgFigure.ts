@@ -19,6 +19,8 @@ export interface SvgFigureOptions {
   limits?: { x?: Range; y?: Range };
   width: number;
   height: number;
+  /** Physical size for the width/height attributes (the drawing stays laid out in px by its viewBox). */
+  mm?: { width: number; height: number } | null;
   /** Provenance lines, drawn at 12 px below the legend. */
   provenance: readonly string[];
 }
@@ -154,7 +156,7 @@ export function svgFigure(o: SvgFigureOptions): string {
   const py = (y: number) => plot.bottom - ((y - yr.min) / (yr.max - yr.min)) * (plot.bottom - plot.top);
   const parts: string[] = [];
   parts.push(
-    `<svg xmlns="http://www.w3.org/2000/svg" width="${o.width}" height="${o.height}" viewBox="0 0 ${o.width} ${o.height}" font-family="DejaVu Sans, Arial, sans-serif">`,
+    `<svg xmlns="http://www.w3.org/2000/svg" width="${o.mm ? `${o.mm.width}mm` : o.width}" height="${o.mm ? `${o.mm.height}mm` : o.height}" viewBox="0 0 ${o.width} ${o.height}" font-family="DejaVu Sans, Arial, sans-serif">`,
   );
   parts.push(`<rect width="100%" height="100%" fill="#ffffff"/>`);
   parts.push(`<text x="${o.width / 2}" y="26" text-anchor="middle" font-size="17" font-weight="bold">${esc(o.title)}</text>`);
