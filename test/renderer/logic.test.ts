@@ -371,7 +371,32 @@ describe('exports', () => {
     expect(rows[0]![from]).toBe(result.fit.linear_range_deg![0]);
     expect(rows[0]![header.indexOf('cl_alpha_per_deg')]).toBe(result.fit.cl_alpha_per_deg);
     expect(rows.map((r) => r[3])).toEqual(['corrected', 'as measured']);
-    expect(fitsCsvExport(prov, sources)).toContain(`,${result.fit.cd0},`);
+  });
+
+  it('writes the fit summary CSV like the point table: trade-word header, units row, values rounded to their uncertainty, read by a comment-skipping reader', async () => {
+    const sources = [{ name: '101', configuration: 'clean', file: 'run-101-clean.csv', result, asMeasured: result }];
+    const csv = fitsCsvExport(prov, sources);
+    const Papa = (await import('papaparse')).default;
+    const parsed = Papa.parse<string[]>(csv, { comments: '#', skipEmptyLines: true });
+    expect(parsed.errors).toEqual([]);
+    const [header, units, ...rows] = parsed.data;
+    expect(header!.slice(0, 4)).toEqual(['run', 'configuration', 'file', 'basis']);
+    expect(header).toEqual(expect.arrayContaining(['dCL/dalpha', 'alpha0', 'CLmax', 'CLmax method', 'CD0', 'u(CD0)', 'Oswald e']));
+    expect(header!.some((h) => /_deg|_per_|_u$/.test(h))).toBe(false); // no code names
+    expect(units![header!.indexOf('alpha0')]).toBe('deg');
+    expect(units![header!.indexOf('dCL/dalpha')]).toBe('1/deg');
+    expect(rows.map((r) => r[3])).toEqual(['corrected', 'as measured']);
+    const fit = result.fit;
+    // GUM §7.2.6: u to two significant digits, the value to the same place
+    const u = Number(rows[0]![header!.indexOf('u(CD0)')]);
+    expect(Math.abs(u - fit.cd0_u!) / fit.cd0_u!).toBeLessThan(0.05);
+    const cd0 = rows[0]![header!.indexOf('CD0')]!;
+    const place = 10 ** -(u.toString().split('.')[1] ?? '').length;
+    expect(Math.abs(Number(cd0) - fit.cd0!)).toBeLessThanOrEqual(place / 2 + 1e-15);
+    expect(rows[0]![header!.indexOf('CLmax method')]).toBe(fit.cl_max_method ?? '');
+    expect(rows[0]![header!.indexOf('linear range from')]).not.toBe('');
+    for (const r of rows) for (const cell of r.slice(4)) if (/^-?[\d.]+(e-?\d+)?$/.test(cell)) expect(cell.replace(/^-/, '').replace(/e.*$/, '').replace('.', '').replace(/^0+/, '').length, cell).toBeLessThanOrEqual(7);
+    expect(rows.flat().filter((c) => /\d\.\d{9,}/.test(c))).toEqual([]); // no float noise in the table
   });
 
   it('names workbook sheets within the spreadsheet limits and uniquely', () => {

@@ -72,9 +72,115 @@ export function fitRows(sources: readonly FitSource[]): { header: string[]; rows
   return { header, rows };
 }
 
+/** One row of the fit summary CSV: a run on one basis. */
+interface FitExportRow {
+  source: FitSource;
+  basis: string;
+  fit: FitResult;
+}
+
+type FitNumberKey = { [K in keyof FitResult]: FitResult[K] extends number | null ? K : never }[keyof FitResult];
+type FitTextKey = { [K in keyof FitResult]: FitResult[K] extends string | null ? K : never }[keyof FitResult];
+
+const num = (header: string, unit: string, decimals: number | `sig:${number}`, key: FitNumberKey, uKey?: FitNumberKey): TableColumn<FitExportRow> => ({
+  header,
+  unit,
+  decimals,
+  value: (r) => r.fit[key],
+  ...(uKey ? { u: (r: FitExportRow) => r.fit[uKey] } : {}),
+});
+const uOf = (header: string, unit: string, key: FitNumberKey): TableColumn<FitExportRow> => ({
+  header: `u(${header})`,
+  unit,
+  decimals: 'sig:2',
+  value: (r) => r.fit[key],
+});
+const text = (header: string, key: FitTextKey): TableColumn<FitExportRow> => ({ header, unit: '', decimals: 0, value: (r) => r.fit[key] ?? '' });
+const rangeEnd = (header: string, key: 'linear_range_deg' | 'polar_range_deg' | 'hysteresis_alpha_range_deg', end: 0 | 1): TableColumn<FitExportRow> => ({
+  header,
+  unit: 'deg',
+  decimals: 2,
+  value: (r) => (r.fit[key] as readonly [number, number] | null | undefined)?.[end] ?? null,
+});
+
+/**
+ * The fit summary's columns in the trade's words with their units (ASCII, like the point table's
+ * `alpha`, `CL`); u(…) is the combined standard uncertainty (k = 1) and rounds its value (GUM §7.2.6).
+ */
+const FIT_COLUMNS: readonly TableColumn<FitExportRow>[] = [
+  { header: 'run', unit: '', decimals: 0, value: (r) => r.source.name },
+  { header: 'configuration', unit: '', decimals: 0, value: (r) => r.source.configuration ?? '' },
+  { header: 'file', unit: '', decimals: 0, value: (r) => r.source.file },
+  { header: 'basis', unit: '', decimals: 0, value: (r) => r.basis },
+  num('dCL/dalpha', '1/deg', 5, 'cl_alpha_per_deg', 'cl_alpha_u_per_deg'),
+  uOf('dCL/dalpha', '1/deg', 'cl_alpha_u_per_deg'),
+  num('alpha0', 'deg', 2, 'alpha_zero_lift_deg', 'alpha_zero_lift_u_deg'),
+  uOf('alpha0', 'deg', 'alpha_zero_lift_u_deg'),
+  rangeEnd('linear range from', 'linear_range_deg', 0),
+  rangeEnd('linear range to', 'linear_range_deg', 1),
+  { header: 'linear range points', unit: '-', decimals: 0, count: true, value: (r) => r.fit.linear_range_points },
+  text('linear range chosen by', 'linear_range_source'),
+  num('linear tolerance CL', '-', 4, 'linear_tolerance_cl'),
+  num('CL scatter', '-', 'sig:2', 'noise_cl'),
+  num('CLmax', '-', 4, 'cl_max', 'cl_max_u'),
+  uOf('CLmax', '-', 'cl_max_u'),
+  num('alpha at CLmax', 'deg', 2, 'alpha_cl_max_deg', 'alpha_cl_max_u_deg'),
+  uOf('alpha at CLmax', 'deg', 'alpha_cl_max_u_deg'),
+  text('CLmax method', 'cl_max_method'),
+  text('no CLmax because', 'cl_max_reason'),
+  num('stall alpha', 'deg', 2, 'alpha_stall_deg'),
+  num('CD0', '-', 5, 'cd0', 'cd0_u'),
+  uOf('CD0', '-', 'cd0_u'),
+  num('k', '-', 4, 'k_induced', 'k_induced_u'),
+  uOf('k', '-', 'k_induced_u'),
+  num('Oswald e', '-', 3, 'oswald_e', 'oswald_e_u'),
+  uOf('Oswald e', '-', 'oswald_e_u'),
+  text('Oswald e from', 'oswald_e_source'),
+  num('CDmin', '-', 5, 'cd_min'),
+  num('CL at CDmin', '-', 4, 'cl_min_drag'),
+  num("k'", '-', 4, 'k_induced_cambered'),
+  rangeEnd('polar range from', 'polar_range_deg', 0),
+  rangeEnd('polar range to', 'polar_range_deg', 1),
+  num('L/D max', '-', 2, 'ld_max', 'ld_max_u'),
+  uOf('L/D max', '-', 'ld_max_u'),
+  num('CL at L/D max', '-', 4, 'cl_at_ld_max'),
+  num('dCm/dalpha', '1/deg', 5, 'cm_alpha_per_deg'),
+  num('dCm/dCL', '-', 4, 'cm_cl_slope'),
+  num('x_ac aft of ref / c', '-', 4, 'x_ac_aft_of_ref_c'),
+  {
+    header: 'fitted sweep branch',
+    unit: '-',
+    decimals: 0,
+    count: true,
+    value: (r) => (r.fit.branch === null || r.fit.branch === undefined ? null : r.fit.branch + 1),
+  },
+  {
+    header: 'branch direction',
+    unit: '',
+    decimals: 0,
+    value: (r) => (r.fit.branch_direction === 'down' ? 'alpha falling' : r.fit.branch_direction === 'up' ? 'alpha rising' : ''),
+  },
+  rangeEnd('hysteresis alpha from', 'hysteresis_alpha_range_deg', 0),
+  rangeEnd('hysteresis alpha to', 'hysteresis_alpha_range_deg', 1),
+  num('hysteresis max delta CL', '-', 4, 'hysteresis_max_delta_cl'),
+  num('alpha at max delta CL', 'deg', 2, 'hysteresis_alpha_at_max_deg'),
+  { header: 'weighted fit', unit: '', decimals: 0, value: (r) => (r.fit.weighted ? 'yes' : 'no') },
+];
+
+/**
+ * The fit summary as a report CSV, written like the point table (raw `#` lines, trade-word header, units
+ * row, numbers to the digits their uncertainty supports, never past seven significant digits): one row per
+ * run and basis, corrected first, then as measured when corrections were on.
+ */
 export function fitsCsvExport(p: ExportProvenance, sources: readonly FitSource[]): string {
-  const { header, rows } = fitRows(sources);
-  return provenanceCsv(p) + toCsv(header, rows);
+  const rows: FitExportRow[] = [];
+  for (const s of sources) {
+    const on = s.result.corrections.enabled;
+    rows.push({ source: s, basis: on ? 'corrected' : 'as measured (corrections off)', fit: s.result.fit });
+    if (on) rows.push({ source: s, basis: 'as measured', fit: s.asMeasured.fit });
+  }
+  const note = 'u(...): combined standard uncertainty (k = 1), random and systematic parts; the value is rounded to its place';
+  return reportTableCsv(FIT_COLUMNS, rows, [...exportProvenanceLines(p), CAUTION, note, ROUNDING_NOTE]);
 }
 
 /** Point table rows for a sheet: header then one row per point, nulls as empty cells. */
