@@ -147,8 +147,10 @@ export function createCampaignState(host: Host) {
 
   // ---- lookups ------------------------------------------------------------------------------------
 
+  // by file name: every row, style and plot looks runs up, and a search of a list of thousands each time adds up
+  const runIndex = computed(() => new Map(state.campaign.runs.map((r) => [r.file, r])));
   function runOf(file: string): CampaignRun | undefined {
-    return state.campaign.runs.find((r) => r.file === file);
+    return runIndex.value.get(file);
   }
   function displayName(file: string): string {
     const e = state.entries[file];

@@ -22,7 +22,13 @@ export function sessionOf(base: CampaignState): KeptSession {
  * Start keeping; returns `flushed()`, resolving once what is shown now has been handed over. The
  * document's `data-kept` attribute says "pending" or "kept" (tests and the curious can wait on it).
  */
-export function startSessionKeeper(base: CampaignState, host: Host, doc: Document | null = typeof document === 'undefined' ? null : document) {
+export function startSessionKeeper(
+  base: CampaignState,
+  host: Host,
+  doc: Document | null = typeof document === 'undefined' ? null : document,
+  /** Resolves when no run is being read: keeping copies every file into storage, which waits until then. */
+  idle: () => Promise<void> = () => Promise.resolve(),
+) {
   let timer: ReturnType<typeof setTimeout> | undefined;
   let last = Promise.resolve();
   const mark = (v: string) => doc?.documentElement.setAttribute('data-kept', v);
@@ -32,9 +38,21 @@ export function startSessionKeeper(base: CampaignState, host: Host, doc: Documen
     timer = undefined;
     const session = sessionOf(base);
     last = host.keepSession!(session).then(
-      () => (timer === undefined ? mark('kept') : undefined),
+      () => (timer === undefined && !waiting ? mark('kept') : undefined),
       () => mark('failed'),
     );
+  };
+  // copying a thousand files into storage while they are being read would slow the opening down: the
+  // keep waits until the runs have been read, then takes the campaign as it is by then
+  let waiting = false;
+  const keepWhenIdle = () => {
+    timer = undefined;
+    if (waiting) return;
+    waiting = true;
+    void idle().then(() => {
+      waiting = false;
+      if (timer === undefined) keep();
+    });
   };
   const stop = watch(
     () => {
@@ -44,14 +62,14 @@ export function startSessionKeeper(base: CampaignState, host: Host, doc: Documen
     () => {
       mark('pending');
       if (timer !== undefined) clearTimeout(timer);
-      timer = setTimeout(keep, KEEP_DELAY_MS);
+      timer = setTimeout(keepWhenIdle, KEEP_DELAY_MS);
     },
     { immediate: true },
   );
   return {
     flushed: async () => {
-      if (timer !== undefined) {
-        clearTimeout(timer);
+      if (timer !== undefined || waiting) {
+        if (timer !== undefined) clearTimeout(timer);
         keep();
       }
       await last;
