@@ -3,7 +3,7 @@
  * has — file inputs, dropped files, downloads, fetch for the bundled sample and local storage for the
  * recent list. Files are held in memory as Blobs under opaque ids; nothing here ever sees a path.
  */
-import type { ChosenFile, OpenedCampaign, SweepbookHost } from '../../../core/index.ts';
+import { campaignPathProblem, type ChosenFile, type OpenedCampaign, type SweepbookHost } from '../../../core/index.ts';
 import type { HostExtras, KeptSession, OpenedRun, RestoredSession } from './hostAccess.ts';
 import { getJson, openKeptStore, putJson, type KeptStore } from './keptStore.ts';
 
@@ -31,7 +31,10 @@ interface RecentEntry {
   savedAt: string;
 }
 
-/** Names of the files a campaign refers to (runs and tares), read without validating the campaign. */
+/**
+ * Names of the files a campaign refers to (runs, tares, and balance files its setups name by path),
+ * read without validating the campaign.
+ */
 export function filesNamedBy(campaignText: string): string[] {
   let json: unknown;
   try {
@@ -39,13 +42,15 @@ export function filesNamedBy(campaignText: string): string[] {
   } catch {
     return [];
   }
-  const c = json as { runs?: { file?: unknown; tare?: unknown }[]; tares?: { file?: unknown }[] };
+  const c = json as { runs?: { file?: unknown; tare?: unknown }[]; tares?: { file?: unknown }[]; setups?: Record<string, { balance?: { calibration?: unknown } }> };
   const names = new Set<string>();
   for (const r of Array.isArray(c.runs) ? c.runs : []) {
     if (typeof r?.file === 'string') names.add(r.file);
     if (typeof r?.tare === 'string') names.add(r.tare);
   }
   for (const t of Array.isArray(c.tares) ? c.tares : []) if (typeof t?.file === 'string') names.add(t.file);
+  const setups = c.setups !== null && typeof c.setups === 'object' ? Object.values(c.setups) : [];
+  for (const s of setups) if (typeof s?.balance?.calibration === 'string') names.add(s.balance.calibration);
   return [...names];
 }
 
@@ -149,11 +154,7 @@ export function createBrowserHost(win: Window): SweepbookHost & HostExtras {
   }
 
   const digests = new Map<string, string>();
-  async function digestOf(id: string): Promise<string> {
-    let d = digests.get(id);
-    if (!d) digests.set(id, (d = await sha256(id)));
-    return d;
-  }
+  const digestOf = (id: string): Promise<string> => sha256(id);
 
   async function keepNow(session: KeptSession): Promise<void> {
     const s = await store();
@@ -178,9 +179,14 @@ export function createBrowserHost(win: Window): SweepbookHost & HostExtras {
   }
 
   async function sha256(id: string): Promise<string> {
+    const known = digests.get(id);
+    if (known) return known;
     const subtle = win.crypto?.subtle;
     if (!subtle) throw new Error('SHA-256 needs a secure context: open the page as http://127.0.0.1 or http://localhost');
-    return hex(await subtle.digest('SHA-256', await blobOf(id).arrayBuffer()));
+    // remembered: keeping the session needs the same digest, and a chosen file's bytes never change
+    const d = hex(await subtle.digest('SHA-256', await blobOf(id).arrayBuffer()));
+    digests.set(id, d);
+    return d;
   }
 
   /**
@@ -190,6 +196,12 @@ export function createBrowserHost(win: Window): SweepbookHost & HostExtras {
   async function resolveCampaign(id: string, name: string, text: string, available: Map<string, ChosenFile>): Promise<OpenedCampaign> {
     const runs: OpenedRun[] = [];
     for (const file of filesNamedBy(text)) {
+      // the same rule as the desktop window: a campaign may not point outside its own folder
+      const refused = campaignPathProblem(file);
+      if (refused) {
+        runs.push({ file, id: null, sha256: null, refused });
+        continue;
+      }
       const chosen = available.get(baseName(file));
       runs.push({ file, id: chosen?.id ?? null, sha256: null, size: chosen?.size });
     }

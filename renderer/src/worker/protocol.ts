@@ -31,8 +31,21 @@ export interface ChannelStats {
   points: { key: string; line: number; n: number; mean: number[]; std: number[] }[];
 }
 
+/**
+ * What a run's setup decides about reading it (not only reducing it): a balance calibration turns raw
+ * bridge outputs into loads sample by sample, and the grouping tolerance forms points from rows without
+ * a point column. The worker validates the setup; a calibration named by path comes with the text of
+ * the balance file the host found for it.
+ */
+export interface ReadProfile {
+  setupName: string;
+  setup: unknown;
+  /** The balance file a `balance.calibration` path names, as found beside the campaign. */
+  balance: { name: string; text: string } | null;
+}
+
 export type ToWorker =
-  | { type: 'begin'; id: number; key: string; file: string; mapping: ColumnMapping | null; mappings: Record<string, ColumnMapping> }
+  | { type: 'begin'; id: number; key: string; file: string; mapping: ColumnMapping | null; mappings: Record<string, ColumnMapping>; profile?: ReadProfile | null }
   | { type: 'chunk'; id: number; text: string }
   | { type: 'end'; id: number }
   | { type: 'reduce'; id: number; key: string; setupName: string; setup: unknown; tareKey: string | null }
