@@ -73,6 +73,28 @@ export class EngineClient {
     return done;
   }
 
+  /**
+   * Read a file the page holds as a Blob: the worker reads, decodes and parses it (and hashes it when
+   * `hash`), so the page does no file reading. Resolves like `read`, with `sha256` where worked out.
+   */
+  readBlob(key: string, file: string, blob: Blob, options: ReadOptions & { hash: boolean }): Promise<ReadReply> {
+    const id = this.nextId++;
+    const acks = { waiting: [] as (() => void)[], inFlight: 0, chars: 0, dead: false, onProgress: options.onProgress };
+    const done = new Promise<ReadReply>((resolve, reject) => this.pending.set(id, { resolve: resolve as (v: never) => void, reject, acks }));
+    this.transport.post({
+      type: 'readBlob',
+      id,
+      key,
+      file,
+      blob,
+      mapping: plain(options.mapping),
+      mappings: plain(options.mappings),
+      profile: plain(options.profile ?? null),
+      hash: options.hash,
+    });
+    return done;
+  }
+
   reduce(key: string, setupName: string, setup: unknown, tareKey: string | null): Promise<ReduceReply> {
     const id = this.nextId++;
     const done = new Promise<ReduceReply>((resolve, reject) => this.pending.set(id, { resolve: resolve as (v: never) => void, reject }));
@@ -96,6 +118,9 @@ export class EngineClient {
         a.waiting.shift()?.();
         return;
       }
+      case 'progress':
+        p.acks?.onProgress?.(msg.chars);
+        return;
       case 'read':
         this.pending.delete(msg.id);
         (p.resolve as (v: ReadReply) => void)(msg.reply);

@@ -150,14 +150,6 @@ export function createRunLoader(base: CampaignState, host: Host, engine: EngineC
       e.asMeasured = null;
     });
     const id = e.fileId;
-    if (!e.sha256) {
-      const sha = await hashOf(id);
-      const note = checkHash(file, run.sha256, sha);
-      batch.later(() => {
-        e.sha256 = sha;
-        e.hashNote = note;
-      });
-    }
     const resolved = await profileOf(run);
     if (!resolved.ok) {
       batch.later(() => {
@@ -170,22 +162,36 @@ export function createRunLoader(base: CampaignState, host: Host, engine: EngineC
     let reply;
     try {
       workerKeys.add(RUN_KEY(file));
-      reply = await engine.read(RUN_KEY(file), baseName(file), (push) => host.readChunks(id, push), {
+      const options = {
         mapping: (run.mapping as ColumnMapping | null | undefined) ?? null,
         mappings: (state.campaign.mappings ?? {}) as Record<string, ColumnMapping>,
         profile: resolved.profile,
-        onProgress: (chars) =>
+        onProgress: (chars: number) =>
           batch.later(() => {
             e.charsRead = chars;
             if (size) e.progress = Math.min(1, chars / size);
           }),
-      });
+      };
+      // a host holding the file as a Blob hands it to the worker, which reads and hashes it off the page's thread
+      reply = host.blobOf
+        ? await engine.readBlob(RUN_KEY(file), baseName(file), host.blobOf(id), { ...options, hash: !e.sha256 })
+        : await engine.read(RUN_KEY(file), baseName(file), (push) => host.readChunks(id, push), options);
+      if (reply.sha256) host.noteDigest?.(id, reply.sha256);
     } catch (err) {
       batch.later(() => {
         e.status = 'failed';
         e.errors = [problem(err)];
       });
       return;
+    }
+    // hashed after reading: a host that reads a small file whole has its digest from that one read
+    if (!e.sha256) {
+      const sha = reply.sha256 ?? (await hashOf(id));
+      const note = checkHash(file, run.sha256, sha);
+      batch.later(() => {
+        e.sha256 = sha;
+        e.hashNote = note;
+      });
     }
     // a newer read of this file (a mapping applied, a setup changed) has overtaken this one
     if (generation !== generations.get(file)) return;

@@ -93,6 +93,9 @@ export class WorkerEngine {
         this.send({ type: 'read', id: msg.id, reply: this.finish(job) });
         return;
       }
+      case 'readBlob':
+        this.readBlob(msg).catch((err: unknown) => this.send({ type: 'crash', id: msg.id, message: err instanceof Error ? `${err.name}: ${err.message}` : String(err) }));
+        return;
       case 'reduce':
         this.send({ type: 'reduced', id: msg.id, reply: this.reduce(msg.key, msg.setupName, msg.setup, msg.tareKey) });
         return;
@@ -100,6 +103,38 @@ export class WorkerEngine {
         this.runs.delete(msg.key);
         return;
     }
+  }
+
+  /** A Blob read here in chunks of `BLOB_CHUNK` characters' worth of bytes, decoded, parsed, and hashed when it is one chunk. */
+  private async readBlob(msg: Extract<ToWorker, { type: 'readBlob' }>): Promise<void> {
+    this.dispatch({ type: 'begin', id: msg.id, key: msg.key, file: msg.file, mapping: msg.mapping, mappings: msg.mappings, profile: msg.profile });
+    const job = this.job(msg.id);
+    this.jobs.delete(msg.id);
+    let sha256: string | null = null;
+    try {
+      const blob = msg.blob;
+      const size = blob.size;
+      const decoder = new TextDecoder('utf-8');
+      let chars = 0;
+      for (let at = 0; at < size || (at === 0 && size === 0); at += BLOB_CHUNK) {
+        const bytes = await (size <= BLOB_CHUNK ? blob : blob.slice(at, Math.min(size, at + BLOB_CHUNK))).arrayBuffer();
+        if (msg.hash && size <= BLOB_CHUNK && globalThis.crypto?.subtle) sha256 = hex(await globalThis.crypto.subtle.digest('SHA-256', bytes));
+        // stream: true keeps a multi-byte character split across chunks for the next one
+        const text = decoder.decode(bytes, { stream: true });
+        this.feed(job, text, false);
+        chars += text.length;
+        if (size > BLOB_CHUNK) this.send({ type: 'progress', id: msg.id, chars });
+        if (size === 0) break;
+      }
+      const rest = decoder.decode();
+      if (rest.length > 0) this.feed(job, rest, false);
+    } catch (err) {
+      // the file went away or cannot be read (a Blob of a file on disk that has changed)
+      this.send({ type: 'read', id: msg.id, reply: { ok: false, errors: [{ file: msg.file, message: `could not be read: ${(err as Error).message}` }], header: null } });
+      return;
+    }
+    this.feed(job, '', true);
+    this.send({ type: 'read', id: msg.id, reply: { ...this.finish(job), sha256 } });
   }
 
   private job(id: number): ReadJob {
@@ -206,6 +241,13 @@ export class WorkerEngine {
     if (!both.ok) return both;
     return { ok: true, result: both.value.result, asMeasured: both.value.asMeasured, reducedAt: new Date().toISOString() };
   }
+}
+
+/** Bytes of a Blob read at a time: as the hosts' chunks. */
+const BLOB_CHUNK = 1 << 20;
+
+function hex(bytes: ArrayBuffer): string {
+  return Array.from(new Uint8Array(bytes), (b) => b.toString(16).padStart(2, '0')).join('');
 }
 
 /** Sample statistics of every point, as plain arrays (they cross to the interface by structured clone). */
