@@ -5,7 +5,7 @@
  * made within one interval land in one go, so the page redraws once per batch.
  */
 export interface CommitBatch {
-  /** Apply `change` with the next batch (at most `intervalMs` from now), in the order given. */
+  /** Apply `change` with the next batch (at most the interval from now), in the order given. */
   later(change: () => void): void;
   /** Apply every waiting change now. */
   flush(): void;
@@ -13,7 +13,8 @@ export interface CommitBatch {
   readonly waiting: number;
 }
 
-export function createCommitBatch(intervalMs = 100): CommitBatch {
+export function createCommitBatch(intervalMs: number | (() => number) = 100): CommitBatch {
+  const interval = typeof intervalMs === 'number' ? () => intervalMs : intervalMs;
   let pending: (() => void)[] = [];
   let timer: ReturnType<typeof setTimeout> | undefined;
   function flush(): void {
@@ -26,7 +27,7 @@ export function createCommitBatch(intervalMs = 100): CommitBatch {
   return {
     later(change) {
       pending.push(change);
-      timer ??= setTimeout(flush, intervalMs);
+      timer ??= setTimeout(flush, interval());
     },
     flush,
     get waiting() {

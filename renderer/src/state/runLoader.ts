@@ -20,8 +20,17 @@ import { RUN_KEY, TARE_KEY, type CampaignState } from './campaignState.ts';
 
 /** Runs read at once: enough to keep the page and the worker both busy, few enough to keep memory flat. */
 export const READS_IN_FLIGHT = 4;
-/** Longest wait before a finished run shows in the list. */
+/** Wait before a finished run shows in the list, for campaigns of up to 1,000 runs. */
 export const COMMIT_INTERVAL_MS = 100;
+
+/**
+ * The wait between batches grows with the campaign: each batch costs the page work in proportion to the
+ * number of runs (the list's counts, the styles, the plots' run list), so batches that grow as rarely
+ * keep that work a fixed share of the time: 100 ms up to 1,000 runs, 1 s from 10,000.
+ */
+export function commitInterval(runs: number): number {
+  return Math.min(1000, Math.max(COMMIT_INTERVAL_MS, runs / 10));
+}
 
 /** A file the campaign names besides its runs and tares (a balance file), as the host found it. */
 export interface NamedFile {
@@ -41,7 +50,7 @@ type Resolved = { ok: true; profile: ReadProfile | null; id: string } | { ok: fa
 export function createRunLoader(base: CampaignState, host: Host, engine: EngineClient) {
   const { state, say, problem, runOf } = base;
   const pool = createStepPool(READS_IN_FLIGHT, (err) => say('error', `Internal error while reading runs: ${problem(err)}`));
-  const batch = createCommitBatch(COMMIT_INTERVAL_MS);
+  const batch = createCommitBatch(() => commitInterval(state.campaign.runs.length));
   const tareReads = new Map<string, Promise<boolean>>();
   const reads = new Map<string, ReadRecord>();
   const generations = new Map<string, number>();
