@@ -2,7 +2,7 @@
  * Campaigns of N runs (default 1,000) opened in the window through the browser host, in Debian's
  * Chromium: seconds until every run is listed, until the last row shows after scrolling to the end,
  * a tab change while the runs are read, until every run is reduced, and the longest main-thread task
- * (the window's responsiveness). Run with `npx tsx test/bench/windowScale.ts [N …] [--list-only]`;
+ * (the window's responsiveness). Run with `npx tsx test/bench/windowScale.ts [N …] [--list-only] [--stay]`;
  * figures go to docs/performance.md by hand (what each figure measures is said there).
  */
 import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -53,7 +53,7 @@ export interface ScaleFigures {
 }
 
 /** Open a campaign of `n` runs in the page and measure it. */
-export async function measureOpening(page: Page, paths: string[], n: number, waitReduced: boolean): Promise<ScaleFigures> {
+export async function measureOpening(page: Page, paths: string[], n: number, waitReduced: boolean, stay = false): Promise<ScaleFigures> {
   await page.evaluate(() => {
     const w = window as unknown as { __long: number[] };
     w.__long = [];
@@ -84,10 +84,13 @@ export async function measureOpening(page: Page, paths: string[], n: number, wai
     { timeout: 600_000, polling: 20 },
   );
   const lastRow = (Date.now() - t0) / 1000;
+  // a tab change while the runs are read; with `stay` the view is changed back to the one the opening began on
+  const before = await page.locator('[role="tab"][aria-selected="true"]').textContent();
   const r0 = Date.now();
   await page.getByRole('tab', { name: 'Run detail' }).click();
   await page.locator('.view[data-view="detail"]').waitFor();
   const busyTab = (Date.now() - r0) / 1000;
+  if (stay && before) await page.getByRole('tab', { name: before.trim(), exact: true }).click();
   let reduced: number | null = null;
   if (waitReduced) {
     await page.waitForFunction((count) => document.querySelector('.runs-panel .panel-head .muted')?.textContent?.includes(`· ${count} shown`) ?? false, n, {
@@ -112,6 +115,8 @@ export async function measureOpening(page: Page, paths: string[], n: number, wai
 async function main() {
   const args = process.argv.slice(2);
   const waitReduced = !args.includes('--list-only') && !process.env['LIST_ONLY'];
+  // --stay: back to the Plots view after the tab change, so the plots draw while the runs reduce
+  const stay = args.includes('--stay');
   const sizes = args.filter((a) => /^\d+$/.test(a)).map(Number);
   if (sizes.length === 0) sizes.push(1000);
   const work = mkdtempSync(join(tmpdir(), 'sweepbook-scale-'));
@@ -135,9 +140,9 @@ async function main() {
       page.on('dialog', (d) => void d.accept());
       await page.goto(server.url);
       await page.locator('tbody[data-status="ready"]').first().waitFor({ timeout: 60_000 });
-      const f = await measureOpening(page, paths, n, waitReduced);
+      const f = await measureOpening(page, paths, n, waitReduced, stay);
       process.stdout.write(
-        `${n} runs: listed ${f.listed.toFixed(2)} s, last row after scrolling ${f.lastRow.toFixed(2)} s, tab change while reading ${f.busyTab.toFixed(2)} s` +
+        `${n} runs${stay ? ' (on the Plots view)' : ''}: listed ${f.listed.toFixed(2)} s, last row after scrolling ${f.lastRow.toFixed(2)} s, tab change while reading ${f.busyTab.toFixed(2)} s` +
           (f.reduced !== null ? `, all reduced ${f.reduced.toFixed(2)} s` : '') +
           `; longest main-thread task ${(f.longestTask * 1000).toFixed(0)} ms (${f.longTasks} tasks ≥ 50 ms, ${f.longTaskTotal.toFixed(2)} s in all)\n`,
       );
