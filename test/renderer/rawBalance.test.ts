@@ -13,7 +13,7 @@ import type { OpenedCampaign } from '../../core/contract/host.ts';
 import { filesNamedBy } from '../../renderer/src/host/browserHost.ts';
 import { EngineClient, type TextFeeder } from '../../renderer/src/engine/engineClient.ts';
 import { runCli } from '../support/cli.ts';
-import { appContext, fakeHost, inProcessTransport, sample, SAMPLES, type FakeHost } from './support.ts';
+import { appContext, fakeHost, inProcessTransport, sample, SAMPLES, sha256Hex, type FakeHost } from './support.ts';
 
 const RAW_SETUP = JSON.parse(sample('setup-3d-raw.json')) as Record<string, unknown>;
 const RUN = 'run-301-raw-outputs.csv';
@@ -125,6 +125,22 @@ describe('raw balance outputs in the window', () => {
     const cli = await cliResult();
     expect(Math.abs(e.result!.points[7]!.cl! - (cli.points[7]!['cl'] as number))).toBeLessThanOrEqual(1e-12);
     expect(e.result!.run.tare_file).toBe(TARE);
+  });
+
+  it("records the balance file in the run's provenance as the command line does: its matrices and its file's SHA-256", async () => {
+    const ctx = appContext();
+    ctx.host.nextCampaign = opened(ctx.host, rawCampaign(), ALL);
+    await ctx.wb.openCampaign();
+    const record = (await ctx.wb.provenance([RUN])).runs[0]!.record as unknown as { inputs: object[]; setup: { balance: { calibration: unknown } } };
+    const cli = JSON.parse(
+      (await runCli('reduce', join(SAMPLES, RUN), '--setup', join(SAMPLES, 'setup-3d-raw.json'), '--tare', join(SAMPLES, TARE))).stdout,
+    ) as {
+      provenance: { inputs: object[]; setup: { balance: { calibration: unknown } } };
+    };
+    const balanceInput = cli.provenance.inputs.find((i) => (i as { role: string }).role === 'balance');
+    expect(balanceInput).toMatchObject({ name: BALANCE, sha256: await sha256Hex(ALL[BALANCE]!) });
+    expect(record.inputs).toContainEqual(balanceInput);
+    expect(record.setup.balance.calibration).toEqual(cli.provenance.setup.balance.calibration);
   });
 
   it('names the balance file it cannot find, and reads the runs again once the file is imported', async () => {

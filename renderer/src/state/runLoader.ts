@@ -58,6 +58,8 @@ export function createRunLoader(base: CampaignState, host: Host, engine: EngineC
   /** Balance files (and any other file the campaign names beside runs and tares), by the path written in the setup. */
   const named = new Map<string, NamedFile>();
   const balanceTexts = new Map<string, Promise<{ name: string; text: string } | string>>();
+  /** Balance files read so far, by path: their text and SHA-256, for the provenance of the runs read through them. */
+  const balancesRead = new Map<string, { name: string; text: string; sha256: string | null }>();
 
   function enqueue(step: () => Promise<void>): Promise<void> {
     return pool.run(step);
@@ -110,7 +112,9 @@ export function createRunLoader(base: CampaignState, host: Host, engine: EngineC
         } catch (err) {
           return `the balance file "${path}" could not be read: ${problem(err)}`;
         }
-        return { name: baseName(path), text };
+        const found = { name: baseName(path), text };
+        balancesRead.set(path, { ...found, sha256: await hashOf(f.id) });
+        return found;
       })();
       balanceTexts.set(path, p);
     }
@@ -378,6 +382,7 @@ export function createRunLoader(base: CampaignState, host: Host, engine: EngineC
     for (const p of paths) {
       named.set(p, { id: chosen.id });
       balanceTexts.delete(p);
+      balancesRead.delete(p);
     }
     tareReads.clear();
     const setups = new Set(
@@ -405,6 +410,7 @@ export function createRunLoader(base: CampaignState, host: Host, engine: EngineC
     reads.clear();
     named.clear();
     balanceTexts.clear();
+    balancesRead.clear();
   }
 
   /** A tare chosen anew is read again on next use. */
@@ -433,6 +439,8 @@ export function createRunLoader(base: CampaignState, host: Host, engine: EngineC
     forgetRun,
     rememberNamed,
     offerNamedFile,
+    /** The balance file a setup names by path, as read for its runs (text and SHA-256), if it has been. */
+    balanceRead: (path: string) => balancesRead.get(path),
     /** Apply every change waiting for the next batch now. */
     flush: () => batch.flush(),
     /** Whether runs are being read or reduced. */

@@ -27,7 +27,7 @@ export function createWorkbench(host: Host, engine: EngineClient, options: Workb
   const loader = createRunLoader(base, host, engine);
   const files = createCampaignFiles(base, host, loader, ask);
   const edits = createRunEdits(base, host, engine, loader, ask);
-  const provenance = createProvenance(base);
+  const provenance = createProvenance(base, loader.balanceRead);
 
   let keeper: ReturnType<typeof startSessionKeeper> | null = null;
   /**
