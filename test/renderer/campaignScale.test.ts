@@ -135,6 +135,27 @@ describe('a campaign of many runs in the workbench', () => {
     expect(updates).toBeLessThan(n / 4);
   });
 
+  it('drops the reads still waiting for a campaign that another one has replaced', async () => {
+    const ctx = appContext();
+    ctx.host.nextCampaign = bigCampaign(ctx.host, 200);
+    let reads = 0;
+    const readChunks = ctx.host.readChunks.bind(ctx.host);
+    ctx.host.readChunks = (id, onChunk, chunkBytes) => {
+      reads++;
+      return readChunks(id, onChunk, chunkBytes);
+    };
+    const first = ctx.wb.openCampaign();
+    await vi.waitFor(() => expect(reads).toBeGreaterThan(0));
+    ctx.host.nextCampaign = bigCampaign(ctx.host, 3);
+    await ctx.wb.openCampaign();
+    await first;
+    await ctx.wb.settled();
+    expect(ctx.wb.state.campaign.runs).toHaveLength(3);
+    expect(Object.values(ctx.wb.state.entries).map((e) => e.status)).toEqual(['ready', 'ready', 'ready']);
+    // the few in flight finish, the rest of the first campaign's 200 are never read
+    expect(reads).toBeLessThan(3 + 2 * READS_IN_FLIGHT + 5);
+  });
+
   it('draws only the rows in sight of a long list; scrolling brings the last run into the page', async () => {
     const ctx = appContext();
     const n = 1000;

@@ -65,9 +65,13 @@ export function createRunLoader(base: CampaignState, host: Host, engine: EngineC
     return pool.run(step);
   }
 
+  // counts campaigns: steps queued for a campaign that has since been replaced are dropped
+  let epoch = 0;
+
   /** Read (and reduce) these runs; resolves with every change shown. */
   async function loadAll(files: readonly string[]): Promise<void> {
-    await Promise.all(files.map((file) => enqueue(() => loadRun(file))));
+    const mine = epoch;
+    await Promise.all(files.map((file) => enqueue(() => (mine === epoch ? loadRun(file) : Promise.resolve()))));
     batch.flush();
   }
 
@@ -368,7 +372,8 @@ export function createRunLoader(base: CampaignState, host: Host, engine: EngineC
   /** Reduce again every read run that uses this setup (or all runs); resolves with the results shown. */
   async function reReduce(filter: (r: CampaignRun) => boolean): Promise<void> {
     const files = state.campaign.runs.filter((r) => filter(r) && reads.has(r.file)).map((r) => r.file);
-    await Promise.all(files.map((f) => enqueue(() => reduceEntry(f))));
+    const mine = epoch;
+    await Promise.all(files.map((f) => enqueue(() => (mine === epoch ? reduceEntry(f) : Promise.resolve()))));
     batch.flush();
   }
 
@@ -403,6 +408,7 @@ export function createRunLoader(base: CampaignState, host: Host, engine: EngineC
 
   /** Forget every read file (a new campaign). */
   function reset(): void {
+    epoch++;
     batch.flush();
     for (const key of workerKeys) engine.forget(key);
     workerKeys.clear();
