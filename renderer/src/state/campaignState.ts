@@ -2,7 +2,7 @@
  * The state of the campaign being worked on, and what every part of it needs to look things up: the
  * campaign itself, what is known about each run and tare file, messages for the user, the view choices.
  */
-import { computed, reactive, watch, type ComputedRef } from 'vue';
+import { computed, reactive, shallowReactive, watch, type ComputedRef } from 'vue';
 import { emptyCampaign, serializeCampaign, type Campaign, type CampaignRun } from '../../../core/index.ts';
 import { formatNotice, InputError } from '../../../core/index.ts';
 import type { ReductionResult } from '../../../core/index.ts';
@@ -176,8 +176,25 @@ export function createCampaignState(host: Host) {
       configurations.value,
     ),
   );
+  // Each run's style kept in a reactive map, replaced only where it changed: a view that draws some runs
+  // then depends on those runs' styles alone, not on every run that becomes ready while a campaign of
+  // thousands is read (each batch would otherwise rebuild every plot, past their throttle). Synced
+  // before the page redraws (the watcher's default timing).
+  const styleCache = shallowReactive(new Map<string, SeriesStyle>());
+  const styleKey = (s: SeriesStyle) => `${s.colour} ${s.marker} ${s.dash.join(',')} ${s.filled}`;
+  watch(
+    styles,
+    (next) => {
+      for (const [file, s] of next) {
+        const old = styleCache.get(file);
+        if (!old || styleKey(old) !== styleKey(s)) styleCache.set(file, s);
+      }
+      for (const file of [...styleCache.keys()]) if (!next.has(file)) styleCache.delete(file);
+    },
+    { immediate: true },
+  );
   function styleOf(file: string): SeriesStyle {
-    const s = styles.value.get(file);
+    const s = styleCache.get(file);
     if (s) return s;
     // not reduced (yet): the configuration's marker in grey, holding no colour
     return { ...styleFor(0, Math.max(0, configurations.value.indexOf(configurationOf(file) ?? ''))), colour: UNREDUCED_GREY };
