@@ -11,6 +11,7 @@ import { describe, expect, it } from 'vitest';
 import { campaignFiles, parseCampaign, serializeCampaign, type Campaign } from '../../core/formats/campaign.ts';
 import type { OpenedCampaign } from '../../core/contract/host.ts';
 import { filesNamedBy } from '../../renderer/src/host/browserHost.ts';
+import type { KeptSession } from '../../renderer/src/host/hostAccess.ts';
 import { EngineClient, type TextFeeder } from '../../renderer/src/engine/engineClient.ts';
 import { runCli } from '../support/cli.ts';
 import { appContext, fakeHost, inProcessTransport, sample, SAMPLES, sha256Hex, type FakeHost } from './support.ts';
@@ -141,6 +142,24 @@ describe('raw balance outputs in the window', () => {
     expect(balanceInput).toMatchObject({ name: BALANCE, sha256: await sha256Hex(ALL[BALANCE]!) });
     expect(record.inputs).toContainEqual(balanceInput);
     expect(record.setup.balance.calibration).toEqual(cli.provenance.setup.balance.calibration);
+  });
+
+  it('keeps the balance file with the session, so a reload of the browser host finds it again', async () => {
+    const ctx = appContext();
+    const kept: KeptSession[] = [];
+    ctx.host.keepSession = async (session) => {
+      kept.push(session);
+    };
+    await ctx.wb.resumeSession();
+    ctx.host.nextCampaign = opened(ctx.host, rawCampaign(), ALL);
+    await ctx.wb.openCampaign();
+    await ctx.wb.sessionKept();
+    expect(
+      kept
+        .at(-1)!
+        .files.map((f) => f.file)
+        .sort(),
+    ).toEqual([BALANCE, RUN, TARE].sort());
   });
 
   it('names the balance file it cannot find, and reads the runs again once the file is imported', async () => {

@@ -445,6 +445,8 @@ export function createRunLoader(base: CampaignState, host: Host, engine: EngineC
     forgetRun,
     rememberNamed,
     offerNamedFile,
+    /** Balance files found for the setups, by the path the setups give, with the host's id of each (kept with the session). */
+    namedFiles: () => [...named].filter(([, f]) => f.id).map(([file, f]) => ({ file, id: f.id! })),
     /** The balance file a setup names by path, as read for its runs (text and SHA-256), if it has been. */
     balanceRead: (path: string) => balancesRead.get(path),
     /** Apply every change waiting for the next batch now. */

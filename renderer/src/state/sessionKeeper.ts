@@ -10,11 +10,15 @@ import type { CampaignState } from './campaignState.ts';
 
 export const KEEP_DELAY_MS = 150;
 
-export function sessionOf(base: CampaignState): KeptSession {
+/** Files the campaign names besides its runs and tares (balance files), with the host's id of each. */
+export type OtherFiles = () => { file: string; id: string }[];
+
+export function sessionOf(base: CampaignState, others: OtherFiles = () => []): KeptSession {
   const { state } = base;
   const files: KeptSession['files'] = [];
   for (const e of Object.values(state.entries)) if (e.fileId) files.push({ file: e.file, id: e.fileId });
   for (const t of Object.values(state.tares)) if (t.fileId) files.push({ file: t.file, id: t.fileId });
+  files.push(...others());
   return { campaignText: serializeCampaign(state.campaign), savedText: state.savedText, campaignFile: state.campaignFile, files };
 }
 
@@ -28,6 +32,7 @@ export function startSessionKeeper(
   doc: Document | null = typeof document === 'undefined' ? null : document,
   /** Resolves when no run is being read: keeping copies every file into storage, which waits until then. */
   idle: () => Promise<void> = () => Promise.resolve(),
+  others: OtherFiles = () => [],
 ) {
   let timer: ReturnType<typeof setTimeout> | undefined;
   let last = Promise.resolve();
@@ -36,7 +41,7 @@ export function startSessionKeeper(
 
   const keep = () => {
     timer = undefined;
-    const session = sessionOf(base);
+    const session = sessionOf(base, others);
     last = host.keepSession!(session).then(
       () => (timer === undefined && !waiting ? mark('kept') : undefined),
       () => mark('failed'),

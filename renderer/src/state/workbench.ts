@@ -36,7 +36,7 @@ export function createWorkbench(host: Host, engine: EngineClient, options: Workb
    */
   async function resumeSession(): Promise<boolean> {
     const restored = await files.restoreSession();
-    keeper ??= startSessionKeeper(base, host, undefined, loader.settled);
+    keeper ??= startSessionKeeper(base, host, undefined, loader.settled, loader.namedFiles);
     return restored;
   }
 
