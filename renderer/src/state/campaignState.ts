@@ -80,6 +80,9 @@ export interface WorkbenchState {
 
 export type ViewId = 'plots' | 'delta' | 'fits' | 'fullscale' | 'detail' | 'samples' | 'setup' | 'analysis'; // 'analysis': balance, upflow, repeatability
 
+/** Runs that hold their place in the order of colours: reduced, or on their way to it. */
+const PROSPECTIVE: ReadonlySet<RunStatus> = new Set<RunStatus>(['queued', 'reading', 'reducing', 'ready']);
+
 /** Swatch colour of a run that is not reduced; it holds none of the run colours. */
 export const UNREDUCED_GREY = '#A0A6AD';
 
@@ -171,7 +174,9 @@ export function createCampaignState(host: Host) {
   const styles = computed(() =>
     assignStyles(
       state.campaign.runs
-        .filter((r) => state.entries[r.file]?.status === 'ready')
+        // runs still on their way (waiting, reading, reducing) keep their place, unseen, so the colours of
+        // the runs before them do not shift each time one finishes out of order; a run that fails gives it up
+        .filter((r) => PROSPECTIVE.has(state.entries[r.file]?.status ?? 'missing'))
         .map((r) => ({ file: r.file, configuration: configurationOf(r.file), chosen: r.style })),
       configurations.value,
     ),
@@ -194,7 +199,7 @@ export function createCampaignState(host: Host) {
     { immediate: true },
   );
   function styleOf(file: string): SeriesStyle {
-    const s = styleCache.get(file);
+    const s = state.entries[file]?.status === 'ready' ? styleCache.get(file) : undefined;
     if (s) return s;
     // not reduced (yet): the configuration's marker in grey, holding no colour
     return { ...styleFor(0, Math.max(0, configurations.value.indexOf(configurationOf(file) ?? ''))), colour: UNREDUCED_GREY };
