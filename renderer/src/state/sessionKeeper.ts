@@ -18,7 +18,7 @@ export function sessionOf(base: CampaignState, others: OtherFiles = () => []): K
   const files: KeptSession['files'] = [];
   for (const e of Object.values(state.entries)) if (e.fileId) files.push({ file: e.file, id: e.fileId });
   for (const t of Object.values(state.tares)) if (t.fileId) files.push({ file: t.file, id: t.fileId });
-  files.push(...others());
+  for (const f of others()) files.push(f);
   return { campaignText: serializeCampaign(state.campaign), savedText: state.savedText, campaignFile: state.campaignFile, files };
 }
 
