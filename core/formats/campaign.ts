@@ -99,7 +99,7 @@ export function campaignPathProblem(file: string): string | undefined {
   return undefined;
 }
 
-/** Every run and tare file a campaign names, each once, in order of first mention (linear in their number). */
+/** Every run, tare and balance file a campaign names, each once, in order of first mention (linear in their number). */
 export function campaignFiles(c: Campaign): string[] {
   const seen = new Set<string>();
   const add = (f: string | null | undefined) => {
@@ -108,6 +108,11 @@ export function campaignFiles(c: Campaign): string[] {
   for (const r of c.runs) add(r.file);
   for (const r of c.runs) add(r.tare);
   for (const t of c.tares ?? []) add(t.file);
+  // balance files the setups name by path (relative to the campaign file, where the setups live)
+  for (const s of Object.values(c.setups)) {
+    const cal = (s as { balance?: { calibration?: unknown } }).balance?.calibration;
+    if (typeof cal === 'string') add(cal);
+  }
   return [...seen];
 }
 

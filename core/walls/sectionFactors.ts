@@ -38,6 +38,21 @@ const isPlainClosed = (s: RectImageSection) => s.spanLo === 'solid' && s.spanHi 
  * τ2 is taken at l = c/4 behind the quarter chord with the vortex span of the loading (πb/4 elliptic, b uniform).
  */
 export function sectionFactors(g: SectionFactorInput): SectionFactors {
+  // ---- remembered per geometry: the image sums take tens of milliseconds, and every run of a campaign
+  // (and every perturbed evaluation of its uncertainty) asks again for the same few geometries ----
+  const key = JSON.stringify(g);
+  const hit = remembered.get(key);
+  if (hit) return { ...hit };
+  const f = sectionFactorsByImages(g);
+  if (remembered.size >= REMEMBERED_MAX) remembered.clear();
+  remembered.set(key, f);
+  return { ...f };
+}
+const REMEMBERED_MAX = 256;
+const remembered = new Map<string, SectionFactors>();
+// ---- end of the remembered factors ----
+
+function sectionFactorsByImages(g: SectionFactorInput): SectionFactors {
   const p = imageProblem(g.tunnel, g.mounting, g.span);
   const l = g.chord / 4;
   const vortexSpan = g.loading === 'elliptic' ? (Math.PI / 4) * p.span : p.span;

@@ -1,12 +1,14 @@
 /**
- * A campaign of N runs (default 1,000) opened in the window through the browser host, in Debian's
- * Chromium: seconds until every run is listed, and until every run is reduced. Run with
- * `npx tsx test/bench/windowScale.ts [N]`; figures go to docs/performance.md by hand.
+ * Campaigns of N runs (default 1,000) opened in the window through the browser host, in Debian's
+ * Chromium: seconds until every run is listed, until the last row shows after scrolling to the end,
+ * a tab change while the runs are read, until every run is reduced, and the longest main-thread task
+ * (the window's responsiveness). Run with `npx tsx test/bench/windowScale.ts [N …] [--list-only] [--stay]`;
+ * figures go to docs/performance.md by hand (what each figure measures is said there).
  */
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { chromium } from 'playwright-core';
+import { chromium, type Page } from 'playwright-core';
 import { startStaticServer } from '../../app/serve/static.ts';
 import { buildRenderer, CHROMIUM, ROOT } from '../e2e/browserSetup.ts';
 
@@ -32,43 +34,121 @@ export function writeLargeCampaign(dir: string, n: number): string[] {
   return paths;
 }
 
+/** What one opening measured, in seconds. */
+export interface ScaleFigures {
+  runs: number;
+  /** Open… chosen until the list holds every run (its count says N) and the first screen of rows is drawn. */
+  listed: number;
+  /** Then scrolled to the end until the last run's row is drawn. */
+  lastRow: number;
+  /** A click on a tab while the runs are still being read, until the view shows. */
+  busyTab: number;
+  /** Until every run is reduced (the list says N shown), or null when not waited for. */
+  reduced: number | null;
+  /** Longest main-thread task (PerformanceObserver "longtask", ≥ 50 ms) from Open… to the last figure. */
+  longestTask: number;
+  /** Long tasks and their total, same span. */
+  longTasks: number;
+  longTaskTotal: number;
+}
+
+/** Open a campaign of `n` runs in the page and measure it. */
+export async function measureOpening(page: Page, paths: string[], n: number, waitReduced: boolean, stay = false): Promise<ScaleFigures> {
+  await page.evaluate(() => {
+    const w = window as unknown as { __long: number[] };
+    w.__long = [];
+  });
+  const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.getByRole('button', { name: 'Open…' }).click()]);
+  const t0 = Date.now();
+  await chooser.setFiles(paths);
+  await page.waitForFunction(
+    (count) =>
+      document.querySelector('.runs-panel')?.getAttribute('data-runs') === String(count) && document.querySelectorAll('.runs-table tbody[data-run]').length > 0,
+    n,
+    { timeout: 600_000, polling: 20 },
+  );
+  const listed = (Date.now() - t0) / 1000;
+  const last = `run-${String(1000 + n - 1)}.csv`;
+  await page.evaluate(() => {
+    const p = document.querySelector('.runs-panel')!;
+    p.scrollTop = p.scrollHeight;
+  });
+  // the spacers are estimates until rows are measured: keep scrolling to the end until the last row shows
+  await page.waitForFunction(
+    (file) => {
+      const p = document.querySelector('.runs-panel')!;
+      p.scrollTop = p.scrollHeight;
+      return document.querySelector(`.runs-table tbody[data-run="${file}"]`) !== null;
+    },
+    last,
+    { timeout: 600_000, polling: 20 },
+  );
+  const lastRow = (Date.now() - t0) / 1000;
+  // a tab change while the runs are read; with `stay` the view is changed back to the one the opening began on
+  const before = await page.locator('[role="tab"][aria-selected="true"]').textContent();
+  const r0 = Date.now();
+  await page.getByRole('tab', { name: 'Run detail' }).click();
+  await page.locator('.view[data-view="detail"]').waitFor();
+  const busyTab = (Date.now() - r0) / 1000;
+  if (stay && before) await page.getByRole('tab', { name: before.trim(), exact: true }).click();
+  let reduced: number | null = null;
+  if (waitReduced) {
+    await page.waitForFunction((count) => document.querySelector('.runs-panel .panel-head .muted')?.textContent?.includes(`· ${count} shown`) ?? false, n, {
+      timeout: 3_600_000,
+      polling: 200,
+    });
+    reduced = (Date.now() - t0) / 1000;
+  }
+  const long = await page.evaluate(() => (window as unknown as { __long: number[] }).__long);
+  return {
+    runs: n,
+    listed,
+    lastRow,
+    busyTab,
+    reduced,
+    longestTask: Math.max(0, ...long) / 1000,
+    longTasks: long.length,
+    longTaskTotal: long.reduce((a, b) => a + b, 0) / 1000,
+  };
+}
+
 async function main() {
-  const n = Number(process.argv[2] ?? 1000);
+  const args = process.argv.slice(2);
+  const waitReduced = !args.includes('--list-only') && !process.env['LIST_ONLY'];
+  // --stay: back to the Plots view after the tab change, so the plots draw while the runs reduce
+  const stay = args.includes('--stay');
+  const sizes = args.filter((a) => /^\d+$/.test(a)).map(Number);
+  if (sizes.length === 0) sizes.push(1000);
   const work = mkdtempSync(join(tmpdir(), 'sweepbook-scale-'));
   const site = join(work, 'renderer');
   buildRenderer(site);
-  const paths = writeLargeCampaign(work, n);
   const server = await startStaticServer({ root: site, extra: { '/sample-runs/': join(ROOT, 'sample-runs') } });
   const browser = await chromium.launch({ executablePath: CHROMIUM, headless: true, args: ['--no-sandbox', '--disable-gpu'] });
   try {
-    const page = await browser.newPage({ viewport: { width: 1400, height: 900 } });
-    await page.goto(server.url);
-    await page.locator('tbody[data-status="ready"]').first().waitFor({ timeout: 60_000 });
-    page.on('dialog', (d) => void d.accept());
-    if (process.env['TAB']) await page.getByRole('tab', { name: process.env['TAB'], exact: true }).click();
-    const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.getByRole('button', { name: 'Open…' }).click()]);
-    const t0 = Date.now();
-    await chooser.setFiles(paths);
-    await page.waitForFunction((count) => document.querySelectorAll('.runs-table tbody').length >= count, n, { timeout: 600_000, polling: 50 });
-    const listed = (Date.now() - t0) / 1000;
-    // responsiveness while the runs are being reduced: a click on a tab until the view shows
-    const r0 = Date.now();
-    await page.getByRole('tab', { name: 'Run detail' }).click();
-    await page.locator('.view[data-view="detail"]').waitFor();
-    const busyTab = (Date.now() - r0) / 1000;
-    process.stdout.write(`${n} runs: listed in ${listed.toFixed(2)} s; a tab change while reducing ${busyTab.toFixed(2)} s\n`);
-    if (process.env['LIST_ONLY']) return;
-    await page.waitForFunction((count) => document.querySelectorAll('.runs-table tbody[data-status="ready"]').length >= count, n, {
-      timeout: 600_000,
-      polling: 200,
-    });
-    const reduced = (Date.now() - t0) / 1000;
-    // responsiveness after opening: a click on a tab until the view shows
-    const c0 = Date.now();
-    await page.getByRole('tab', { name: 'Characteristics' }).click();
-    await page.locator('.view[data-view="fits"]').waitFor();
-    const tab = (Date.now() - c0) / 1000;
-    process.stdout.write(`${n} runs: listed in ${listed.toFixed(2)} s, all reduced in ${reduced.toFixed(2)} s, a tab change then ${tab.toFixed(2)} s\n`);
+    for (const n of sizes) {
+      const dir = join(work, `c${n}`);
+      mkdirSync(dir);
+      const paths = writeLargeCampaign(dir, n);
+      const page = await browser.newPage({ viewport: { width: 1400, height: 900 } });
+      await page.addInitScript(() => {
+        const w = window as unknown as { __long: number[] };
+        w.__long = [];
+        new PerformanceObserver((list) => {
+          for (const e of list.getEntries()) w.__long.push(e.duration);
+        }).observe({ type: 'longtask', buffered: true });
+      });
+      page.on('dialog', (d) => void d.accept());
+      await page.goto(server.url);
+      await page.locator('tbody[data-status="ready"]').first().waitFor({ timeout: 60_000 });
+      const f = await measureOpening(page, paths, n, waitReduced, stay);
+      process.stdout.write(
+        `${n} runs${stay ? ' (on the Plots view)' : ''}: listed ${f.listed.toFixed(2)} s, last row after scrolling ${f.lastRow.toFixed(2)} s, tab change while reading ${f.busyTab.toFixed(2)} s` +
+          (f.reduced !== null ? `, all reduced ${f.reduced.toFixed(2)} s` : '') +
+          `; longest main-thread task ${(f.longestTask * 1000).toFixed(0)} ms (${f.longTasks} tasks ≥ 50 ms, ${f.longTaskTotal.toFixed(2)} s in all)\n`,
+      );
+      await page.close();
+      rmSync(dir, { recursive: true, force: true });
+    }
   } finally {
     await browser.close();
     await server.close();

@@ -59,7 +59,7 @@ describe('workbench', () => {
     ctx.host.nextCampaign = { id: 'c9', name: 'broken.json', text: '{"format":"sweepbook-campaign"', runs: [], backupAvailable: true };
     await ctx.wb.openCampaign();
     expect(questions.length).toBe(1);
-    expect(questions[0]).toMatch(/^broken\.json: .*\n\nThe previous version of the campaign is kept beside it as a backup\. Open the backup instead\?/s);
+    expect(questions[0]).toMatch(/^broken\.json:1:31: not valid JSON .*\n\nThe previous version of the campaign is kept beside it as a backup\. Open the backup instead\?/s);
     expect(asked).toEqual(['c9']);
     expect(ctx.wb.state.campaign.runs.length).toBe(5);
     expect(ctx.wb.state.entries['run-101-clean.csv']!.status).toBe('ready');

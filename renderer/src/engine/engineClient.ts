@@ -3,7 +3,7 @@
  * file streams in, and back-pressure so a large file never piles up in the worker's message queue.
  */
 import type { ColumnMapping } from '../../../core/index.ts';
-import type { FromWorker, ReadReply, ReduceReply, ToWorker } from '../worker/protocol.ts';
+import type { FromWorker, ReadProfile, ReadReply, ReduceReply, ToWorker } from '../worker/protocol.ts';
 
 export interface Transport {
   post(msg: ToWorker): void;
@@ -16,6 +16,8 @@ const IN_FLIGHT = 3;
 export interface ReadOptions {
   mapping: ColumnMapping | null;
   mappings: Record<string, ColumnMapping>;
+  /** The run's setup where it decides how the run is read (balance calibration, grouping tolerance). */
+  profile?: ReadProfile | null;
   /** Called with the number of characters the worker has parsed so far. */
   onProgress?: (chars: number) => void;
 }
@@ -43,7 +45,15 @@ export class EngineClient {
     const acks = { waiting: [] as (() => void)[], inFlight: 0, chars: 0, dead: false, onProgress: options.onProgress };
     const done = new Promise<ReadReply>((resolve, reject) => this.pending.set(id, { resolve: resolve as (v: never) => void, reject, acks }));
     // plain copies: the campaign's objects may be reactive proxies, which cannot cross to a worker
-    this.transport.post({ type: 'begin', id, key, file, mapping: plain(options.mapping), mappings: plain(options.mappings) });
+    this.transport.post({
+      type: 'begin',
+      id,
+      key,
+      file,
+      mapping: plain(options.mapping),
+      mappings: plain(options.mappings),
+      profile: plain(options.profile ?? null),
+    });
     const push = async (text: string): Promise<void> => {
       if (acks.dead) throw new Error('the reduction worker stopped');
       if (text.length === 0) return;
@@ -60,6 +70,28 @@ export class EngineClient {
       return { ok: false, errors: [{ file, message: `could not be read: ${(err as Error).message}` }], header: null };
     }
     this.transport.post({ type: 'end', id });
+    return done;
+  }
+
+  /**
+   * Read a file the page holds as a Blob: the worker reads, decodes and parses it (and hashes it when
+   * `hash`), so the page does no file reading. Resolves like `read`, with `sha256` where worked out.
+   */
+  readBlob(key: string, file: string, blob: Blob, options: ReadOptions & { hash: boolean }): Promise<ReadReply> {
+    const id = this.nextId++;
+    const acks = { waiting: [] as (() => void)[], inFlight: 0, chars: 0, dead: false, onProgress: options.onProgress };
+    const done = new Promise<ReadReply>((resolve, reject) => this.pending.set(id, { resolve: resolve as (v: never) => void, reject, acks }));
+    this.transport.post({
+      type: 'readBlob',
+      id,
+      key,
+      file,
+      blob,
+      mapping: plain(options.mapping),
+      mappings: plain(options.mappings),
+      profile: plain(options.profile ?? null),
+      hash: options.hash,
+    });
     return done;
   }
 
@@ -86,6 +118,9 @@ export class EngineClient {
         a.waiting.shift()?.();
         return;
       }
+      case 'progress':
+        p.acks?.onProgress?.(msg.chars);
+        return;
       case 'read':
         this.pending.delete(msg.id);
         (p.resolve as (v: ReadReply) => void)(msg.reply);

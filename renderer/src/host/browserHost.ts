@@ -3,7 +3,7 @@
  * has — file inputs, dropped files, downloads, fetch for the bundled sample and local storage for the
  * recent list. Files are held in memory as Blobs under opaque ids; nothing here ever sees a path.
  */
-import type { ChosenFile, OpenedCampaign, SweepbookHost } from '../../../core/index.ts';
+import { campaignPathProblem, type ChosenFile, type OpenedCampaign, type SweepbookHost } from '../../../core/index.ts';
 import type { HostExtras, KeptSession, OpenedRun, RestoredSession } from './hostAccess.ts';
 import { getJson, openKeptStore, putJson, type KeptStore } from './keptStore.ts';
 
@@ -31,7 +31,10 @@ interface RecentEntry {
   savedAt: string;
 }
 
-/** Names of the files a campaign refers to (runs and tares), read without validating the campaign. */
+/**
+ * Names of the files a campaign refers to (runs, tares, and balance files its setups name by path),
+ * read without validating the campaign.
+ */
 export function filesNamedBy(campaignText: string): string[] {
   let json: unknown;
   try {
@@ -39,13 +42,15 @@ export function filesNamedBy(campaignText: string): string[] {
   } catch {
     return [];
   }
-  const c = json as { runs?: { file?: unknown; tare?: unknown }[]; tares?: { file?: unknown }[] };
+  const c = json as { runs?: { file?: unknown; tare?: unknown }[]; tares?: { file?: unknown }[]; setups?: Record<string, { balance?: { calibration?: unknown } }> };
   const names = new Set<string>();
   for (const r of Array.isArray(c.runs) ? c.runs : []) {
     if (typeof r?.file === 'string') names.add(r.file);
     if (typeof r?.tare === 'string') names.add(r.tare);
   }
   for (const t of Array.isArray(c.tares) ? c.tares : []) if (typeof t?.file === 'string') names.add(t.file);
+  const setups = c.setups !== null && typeof c.setups === 'object' ? Object.values(c.setups) : [];
+  for (const s of setups) if (typeof s?.balance?.calibration === 'string') names.add(s.balance.calibration);
   return [...names];
 }
 
@@ -63,11 +68,12 @@ export function createBrowserHost(win: Window): SweepbookHost & HostExtras {
   let counter = 0;
   let dirty = false;
 
-  const keep = (name: string, blob: Blob): ChosenFile => {
+  const keepUnsized = (name: string, blob: Blob): string => {
     const id = `b${++counter}`;
     files.set(id, { name, blob });
-    return { id, name, size: blob.size };
+    return id;
   };
+  const keep = (name: string, blob: Blob): ChosenFile => ({ id: keepUnsized(name, blob), name, size: blob.size });
   const blobOf = (id: string): Blob => {
     const f = files.get(id);
     if (!f) throw new Error(`no file with id "${id}" was chosen in this window`);
@@ -148,12 +154,8 @@ export function createBrowserHost(win: Window): SweepbookHost & HostExtras {
     }
   }
 
-  const digests = new Map<string, string>();
-  async function digestOf(id: string): Promise<string> {
-    let d = digests.get(id);
-    if (!d) digests.set(id, (d = await sha256(id)));
-    return d;
-  }
+  const digests = new Map<string, Promise<string>>();
+  const digestOf = (id: string): Promise<string> => sha256(id);
 
   async function keepNow(session: KeptSession): Promise<void> {
     const s = await store();
@@ -177,19 +179,36 @@ export function createBrowserHost(win: Window): SweepbookHost & HostExtras {
     for (const k of present) if (k.startsWith(FILE_PREFIX) && !wanted.has(k)) await s.delete(k);
   }
 
-  async function sha256(id: string): Promise<string> {
-    const subtle = win.crypto?.subtle;
-    if (!subtle) throw new Error('SHA-256 needs a secure context: open the page as http://127.0.0.1 or http://localhost');
-    return hex(await subtle.digest('SHA-256', await blobOf(id).arrayBuffer()));
+  function sha256(id: string): Promise<string> {
+    // remembered: keeping the session needs the same digest, and a chosen file's bytes never change
+    let d = digests.get(id);
+    if (!d) {
+      const subtle = win.crypto?.subtle;
+      if (!subtle) return Promise.reject(new Error('SHA-256 needs a secure context: open the page as http://127.0.0.1 or http://localhost'));
+      d = blobOf(id)
+        .arrayBuffer()
+        .then((bytes) => subtle.digest('SHA-256', bytes))
+        .then(hex);
+      digests.set(id, d);
+      // a failure is not remembered: the next call tries again
+      d.catch(() => digests.delete(id));
+    }
+    return d;
   }
 
   /**
    * Campaign text plus the run files chosen with it, matched by file name. Hashes are left to the loader,
    * which works them out as it reads each run, so a campaign of a thousand runs is listed at once.
    */
-  async function resolveCampaign(id: string, name: string, text: string, available: Map<string, ChosenFile>): Promise<OpenedCampaign> {
+  async function resolveCampaign(id: string, name: string, text: string, available: Map<string, { id: string; size?: number }>): Promise<OpenedCampaign> {
     const runs: OpenedRun[] = [];
     for (const file of filesNamedBy(text)) {
+      // the same rule as the desktop window: a campaign may not point outside its own folder
+      const refused = campaignPathProblem(file);
+      if (refused) {
+        runs.push({ file, id: null, sha256: null, refused });
+        continue;
+      }
       const chosen = available.get(baseName(file));
       runs.push({ file, id: chosen?.id ?? null, sha256: null, size: chosen?.size });
     }
@@ -209,6 +228,16 @@ export function createBrowserHost(win: Window): SweepbookHost & HostExtras {
 
     async readChunks(id, onChunk, chunkBytes = 1 << 20) {
       const blob = blobOf(id);
+      if (blob.size <= chunkBytes) {
+        // one read of a small file serves its text and its SHA-256 both (a campaign of thousands of
+        // small runs would otherwise read every file twice)
+        const bytes = await blob.arrayBuffer();
+        const subtle = win.crypto?.subtle;
+        if (subtle && !digests.has(id)) digests.set(id, subtle.digest('SHA-256', bytes).then(hex));
+        const text = new TextDecoder('utf-8').decode(bytes);
+        if (text.length > 0) await (onChunk(text) as unknown);
+        return;
+      }
       const decoder = new TextDecoder('utf-8');
       for (let at = 0; at < blob.size; at += chunkBytes) {
         const bytes = await blob.slice(at, Math.min(blob.size, at + chunkBytes)).arrayBuffer();
@@ -222,6 +251,13 @@ export function createBrowserHost(win: Window): SweepbookHost & HostExtras {
     },
 
     sha256,
+
+    blobOf,
+
+    /** The worker worked out a file's SHA-256 while reading it: remembered, so keeping the session does not hash it again. */
+    noteDigest(id: string, digest: string) {
+      if (!digests.has(id)) digests.set(id, Promise.resolve(digest));
+    },
 
     async openSampleCampaign() {
       const base = new URL(SAMPLE_FOLDER, doc.baseURI);
@@ -255,8 +291,10 @@ export function createBrowserHost(win: Window): SweepbookHost & HostExtras {
         if (jsons.length === 1) return { id: keep(jsons[0]!.name, jsons[0]!).id, name: jsons[0]!.name, text: await jsons[0]!.text(), runs: [] };
         throw new Error('choose the campaign file (.json) together with its run files; none of the chosen files is a Sweepbook campaign');
       }
-      const available = new Map<string, ChosenFile>();
-      for (const f of list) if (f !== campaignFile) available.set(f.name, keep(f.name, f));
+      // the files' sizes are not asked for here: for files on disk each is a round trip to the browser,
+      // seconds for thousands of runs before the list could show; the reader finds each size as it reads
+      const available = new Map<string, { id: string; size?: number }>();
+      for (const f of list) if (f !== campaignFile) available.set(f.name, { id: keepUnsized(f.name, f) });
       const id = keep(campaignFile.name, campaignFile).id;
       await remember({ id: campaignFile.name, name: campaignFile.name, text, savedAt: new Date().toISOString() });
       return resolveCampaign(id, campaignFile.name, text, available);
@@ -305,7 +343,7 @@ export function createBrowserHost(win: Window): SweepbookHost & HostExtras {
         const bytes = await s.get(FILE_PREFIX + f.digest);
         if (!bytes) continue;
         const chosen = keep(f.name, new Blob([bytes as BlobPart]));
-        digests.set(chosen.id, f.digest);
+        digests.set(chosen.id, Promise.resolve(f.digest));
         runs.push({ file: f.file, id: chosen.id, sha256: f.digest, size: chosen.size });
       }
       // files the campaign names but the store lost come back as "not found", to be located

@@ -22,6 +22,13 @@ export interface HostExtras {
   keepSession?(session: KeptSession): Promise<void>;
   /** File → Open Recent in a native menu (the Electron preload): the id to pass to openRecentCampaign. */
   onOpenRecent?(listener: (id: string) => void): () => void;
+  /**
+   * The Blob behind a chosen file (the browser host): handed to the reduction worker, which reads it
+   * off the page's thread. Hosts whose files live elsewhere (the desktop window) stream them with readChunks.
+   */
+  blobOf?(id: string): Blob;
+  /** A SHA-256 worked out elsewhere (the worker, while reading a Blob), remembered by the host. */
+  noteDigest?(id: string, digest: string): void;
   /** The campaign kept by keepSession, its files chosen again under new ids; null when nothing is kept. */
   restoreSession?(): Promise<RestoredSession | null>;
 }

@@ -2,15 +2,24 @@
  * Campaign files: new, open (reporting every missing or changed file by name), the bundled sample,
  * recent campaigns, save and save-as through the host. Unsaved changes are asked about first.
  */
-import { emptyCampaign, parseCampaign, serializeCampaign, type Campaign } from '../../../core/index.ts';
+import { campaignPathProblem, emptyCampaign, parseCampaign, parseJsonText, serializeCampaign, type Campaign } from '../../../core/index.ts';
 import type { OpenedCampaign } from '../../../core/index.ts';
 import type { Host, OpenedRun } from '../host/hostAccess.ts';
-import { newEntry, type CampaignState } from './campaignState.ts';
-import type { RunLoader } from './runLoader.ts';
+import { newEntry, type CampaignState, type RunEntry, type TareEntry } from './campaignState.ts';
+import { balancePathOf, type RunLoader } from './runLoader.ts';
+
+/**
+ * Read a campaign's text, or throw the reason it is refused: text that is not JSON is located by line
+ * and column (the campaign parser names only the JSON engine's message), anything else by its field.
+ */
+export function readCampaignText(name: string, text: string): Campaign {
+  parseJsonText(name, text);
+  return parseCampaign(name, text);
+}
 
 export function createCampaignFiles(base: CampaignState, host: Host, loader: RunLoader, ask: (question: string) => Promise<boolean>) {
   const { state, dirty, say, problem } = base;
-  const { enqueue, checkHash, loadRun } = loader;
+  const { checkHash } = loader;
 
   async function confirmDiscard(): Promise<boolean> {
     return !dirty.value || ask('The campaign has unsaved changes. Discard them?');
@@ -62,7 +71,7 @@ export function createCampaignFiles(base: CampaignState, host: Host, loader: Run
   async function adopt(opened: OpenedCampaign, options: { keepId: boolean }, mayOfferBackup = true): Promise<boolean> {
     let campaign: Campaign;
     try {
-      campaign = parseCampaign(opened.name, opened.text);
+      campaign = readCampaignText(opened.name, opened.text);
     } catch (err) {
       if (mayOfferBackup && (await offerBackup(opened, problem(err), options))) return true;
       say('error', `${problem(err)}${opened.backupAvailable ? ' A backup of the campaign exists beside it.' : ''} Nothing was changed.`);
@@ -72,7 +81,14 @@ export function createCampaignFiles(base: CampaignState, host: Host, loader: Run
     state.campaignId = options.keepId ? opened.id : null;
     state.campaignFile = opened.name;
     const found = new Map<string, OpenedRun>(opened.runs.map((r) => [r.file, r]));
+    // why a named file is not there: refused by the host (outside the campaign folder…) or simply missing
+    const whyMissing = (file: string): string => {
+      const why = found.get(file)?.refused ?? campaignPathProblem(file);
+      return why ? `${file} (refused: ${why})` : file;
+    };
     const missing: string[] = [];
+    // built whole and handed over at once: one change for the page however many runs there are
+    const entries: Record<string, RunEntry> = {};
     for (const run of campaign.runs) {
       const f = found.get(run.file);
       const e = newEntry(run.file, f?.id ?? null, f?.size ?? null);
@@ -80,21 +96,29 @@ export function createCampaignFiles(base: CampaignState, host: Host, loader: Run
         e.sha256 = f.sha256;
         e.hashNote = checkHash(run.file, run.sha256, f.sha256);
       }
-      state.entries[run.file] = e;
-      if (!f?.id) missing.push(run.file);
+      if (!f?.id && (f?.refused || campaignPathProblem(run.file))) e.errors = [`${whyMissing(run.file)}: the run stays in the campaign; Locate… points it to a file`];
+      entries[run.file] = e;
+      if (!f?.id) missing.push(whyMissing(run.file));
     }
+    state.entries = entries;
     const tareFiles = new Set<string>([...(campaign.tares ?? []).map((t) => t.file), ...campaign.runs.map((r) => r.tare).filter((t): t is string => !!t)]);
+    const tares: Record<string, TareEntry> = {};
     for (const file of tareFiles) {
       const f = found.get(file);
-      state.tares[file] = { file, fileId: f?.id ?? null, sha256: null, hashNote: null, status: f?.id ? 'reading' : 'missing', errors: [] };
-      if (!f?.id) missing.push(`${file} (tare)`);
+      tares[file] = { file, fileId: f?.id ?? null, sha256: null, hashNote: null, status: f?.id ? 'reading' : 'missing', errors: f?.refused ? [`refused: ${f.refused}`] : [] };
+      if (!f?.id) missing.push(`${whyMissing(file)} (tare)`);
     }
+    state.tares = tares;
+    // balance files named by the setups: found by the host beside the campaign like the runs
+    const balances = new Set(Object.values(campaign.setups).map(balancePathOf).filter((p): p is string => p !== undefined));
+    loader.rememberNamed([...balances].map((file) => ({ file, id: found.get(file)?.id ?? null, refused: found.get(file)?.refused ?? campaignPathProblem(file) })));
+    for (const file of balances) if (!found.get(file)?.id) missing.push(`${whyMissing(file)} (balance file)`);
     if (missing.length > 0) {
-      say('warning', `Not found beside the campaign: ${missing.join(', ')}. ${missing.length === 1 ? 'It stays' : 'They stay'} in the campaign; use Locate… or import the file with the same name.`);
+      const shown = missing.length > 12 ? [...missing.slice(0, 12), `and ${missing.length - 12} more`] : missing;
+      say('warning', `Not found beside the campaign: ${shown.join(', ')}. ${missing.length === 1 ? 'It stays' : 'They stay'} in the campaign; use Locate… or import the file with the same name.`);
     }
     state.currentRun = campaign.runs[0]?.file ?? null;
-    for (const run of campaign.runs) if (state.entries[run.file]!.fileId) enqueue(() => loadRun(run.file));
-    await loader.settled();
+    await loader.loadAll(campaign.runs.filter((r) => entries[r.file]!.fileId).map((r) => r.file));
     return true;
   }
 

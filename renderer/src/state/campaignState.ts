@@ -2,7 +2,7 @@
  * The state of the campaign being worked on, and what every part of it needs to look things up: the
  * campaign itself, what is known about each run and tare file, messages for the user, the view choices.
  */
-import { computed, reactive, watch, type ComputedRef } from 'vue';
+import { computed, reactive, shallowReactive, watch, type ComputedRef } from 'vue';
 import { emptyCampaign, serializeCampaign, type Campaign, type CampaignRun } from '../../../core/index.ts';
 import { formatNotice, InputError } from '../../../core/index.ts';
 import type { ReductionResult } from '../../../core/index.ts';
@@ -80,6 +80,9 @@ export interface WorkbenchState {
 
 export type ViewId = 'plots' | 'delta' | 'fits' | 'fullscale' | 'detail' | 'samples' | 'setup' | 'analysis'; // 'analysis': balance, upflow, repeatability
 
+/** Runs that hold their place in the order of colours: reduced, or on their way to it. */
+const PROSPECTIVE: ReadonlySet<RunStatus> = new Set<RunStatus>(['queued', 'reading', 'reducing', 'ready']);
+
 /** Swatch colour of a run that is not reduced; it holds none of the run colours. */
 export const UNREDUCED_GREY = '#A0A6AD';
 
@@ -147,8 +150,10 @@ export function createCampaignState(host: Host) {
 
   // ---- lookups ------------------------------------------------------------------------------------
 
+  // by file name: every row, style and plot looks runs up, and a search of a list of thousands each time adds up
+  const runIndex = computed(() => new Map(state.campaign.runs.map((r) => [r.file, r])));
   function runOf(file: string): CampaignRun | undefined {
-    return state.campaign.runs.find((r) => r.file === file);
+    return runIndex.value.get(file);
   }
   function displayName(file: string): string {
     const e = state.entries[file];
@@ -169,13 +174,32 @@ export function createCampaignState(host: Host) {
   const styles = computed(() =>
     assignStyles(
       state.campaign.runs
-        .filter((r) => state.entries[r.file]?.status === 'ready')
+        // runs still on their way (waiting, reading, reducing) keep their place, unseen, so the colours of
+        // the runs before them do not shift each time one finishes out of order; a run that fails gives it up
+        .filter((r) => PROSPECTIVE.has(state.entries[r.file]?.status ?? 'missing'))
         .map((r) => ({ file: r.file, configuration: configurationOf(r.file), chosen: r.style })),
       configurations.value,
     ),
   );
+  // Each run's style kept in a reactive map, replaced only where it changed: a view that draws some runs
+  // then depends on those runs' styles alone, not on every run that becomes ready while a campaign of
+  // thousands is read (each batch would otherwise rebuild every plot, past their throttle). Synced
+  // before the page redraws (the watcher's default timing).
+  const styleCache = shallowReactive(new Map<string, SeriesStyle>());
+  const styleKey = (s: SeriesStyle) => `${s.colour} ${s.marker} ${s.dash.join(',')} ${s.filled}`;
+  watch(
+    styles,
+    (next) => {
+      for (const [file, s] of next) {
+        const old = styleCache.get(file);
+        if (!old || styleKey(old) !== styleKey(s)) styleCache.set(file, s);
+      }
+      for (const file of [...styleCache.keys()]) if (!next.has(file)) styleCache.delete(file);
+    },
+    { immediate: true },
+  );
   function styleOf(file: string): SeriesStyle {
-    const s = styles.value.get(file);
+    const s = state.entries[file]?.status === 'ready' ? styleCache.get(file) : undefined;
     if (s) return s;
     // not reduced (yet): the configuration's marker in grey, holding no colour
     return { ...styleFor(0, Math.max(0, configurations.value.indexOf(configurationOf(file) ?? ''))), colour: UNREDUCED_GREY };

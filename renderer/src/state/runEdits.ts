@@ -9,12 +9,12 @@ import type { ColumnMapping } from '../../../core/index.ts';
 import type { EngineClient } from '../engine/engineClient.ts';
 import type { Host } from '../host/hostAccess.ts';
 import { baseName } from '../host/browserHost.ts';
-import { newEntry, RUN_KEY, type CampaignState } from './campaignState.ts';
+import { newEntry, type CampaignState } from './campaignState.ts';
 import type { RunLoader } from './runLoader.ts';
 
 export function createRunEdits(base: CampaignState, host: Host, engine: EngineClient, loader: RunLoader, ask: (question: string) => Promise<boolean>) {
   const { state, say, problem, runOf } = base;
-  const { enqueue, hashOf, checkHash, loadRun, reReduce } = loader;
+  const { hashOf, checkHash, reReduce } = loader;
 
   function defaultSetup(): string {
     const current = state.currentRun ? runOf(state.currentRun)?.setup : undefined;
@@ -26,6 +26,8 @@ export function createRunEdits(base: CampaignState, host: Host, engine: EngineCl
     const toLoad: string[] = [];
     for (const c of chosen) {
       if (/\.json$/i.test(c.name)) {
+        // a balance file a setup names and the campaign could not find: taken in, its runs read again
+        if (await loader.offerNamedFile(c)) continue;
         say('info', `${c.name} is not a run file: open campaigns with Open…, read setups in the Setup view.`);
         continue;
       }
@@ -53,7 +55,7 @@ export function createRunEdits(base: CampaignState, host: Host, engine: EngineCl
       toLoad.push(c.name);
     }
     if (toLoad.length > 0 && !state.currentRun) state.currentRun = toLoad[0]!;
-    await Promise.all(toLoad.map((file) => enqueue(() => loadRun(file))));
+    await loader.loadAll(toLoad);
   }
 
   async function importRuns(): Promise<void> {
@@ -80,7 +82,7 @@ export function createRunEdits(base: CampaignState, host: Host, engine: EngineCl
     if (i >= 0) state.campaign.runs.splice(i, 1);
     delete state.entries[file];
     state.unconfirmed = state.unconfirmed.filter((f) => f !== file);
-    engine.forget(RUN_KEY(file));
+    loader.forgetRun(file);
     if (state.campaign.baseline === file) state.campaign.baseline = null;
     if (state.currentRun === file) state.currentRun = state.campaign.runs[0]?.file ?? null;
   }
@@ -173,7 +175,7 @@ export function createRunEdits(base: CampaignState, host: Host, engine: EngineCl
     const again = state.campaign.runs
       .filter((r) => r.file === file || (state.entries[r.file]?.status === 'needs-mapping' && state.entries[r.file]?.header?.signature === signature))
       .map((r) => r.file);
-    await Promise.all(again.map((f) => enqueue(() => loadRun(f))));
+    await loader.loadAll(again);
   }
 
   /** Store a valid setup under a name and reduce its runs again. */

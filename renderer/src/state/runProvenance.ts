@@ -3,14 +3,17 @@
  * setup lives in the campaign rather than in a file of its own: it is named by campaign and key and
  * hashed as canonical JSON.
  */
-import { canonical, provenanceOf, type InputFile } from '../../../core/index.ts';
+import { attempt, canonical, parseBalance, provenanceOf, type InputFile } from '../../../core/index.ts';
 import { validateSetup } from '../../../core/index.ts';
 import { baseName } from '../host/browserHost.ts';
 import { sha256Text } from '../logic/hashText.ts';
 import { TOOL_VERSION, type ExportProvenance, type RunProvenance } from '../logic/provenance.ts';
 import type { Basis, CampaignState } from './campaignState.ts';
 
-export function createProvenance(base: CampaignState) {
+/** The balance file a setup names by path, as the runs were read through it (runLoader.ts). */
+export type BalanceRead = (path: string) => { name: string; text: string; sha256: string | null } | undefined;
+
+export function createProvenance(base: CampaignState, balanceRead: BalanceRead = () => undefined) {
   const { state, runOf, resultOf, configurationOf } = base;
 
   /**
@@ -31,6 +34,14 @@ export function createProvenance(base: CampaignState) {
         { role: 'run', name: baseName(file), sha256: e.sha256 ?? 'unavailable' },
       ];
       if (run.tare) inputs.push({ role: 'tare', name: baseName(run.tare), sha256: state.tares[run.tare]?.sha256 ?? 'unavailable' });
+      // a balance file named by path: recorded as the command line records it (its matrices, its file's hash)
+      const cal = setup.balance.calibration;
+      const read = cal !== null && 'path' in cal ? balanceRead(cal.path) : undefined;
+      if (read) {
+        const parsed = attempt(() => parseBalance(read.name, read.text));
+        if (parsed.ok) setup.balance.calibration = parsed.value;
+        inputs.push({ role: 'balance', name: read.name, sha256: read.sha256 ?? 'unavailable' });
+      }
       runs.push({
         name: result.run.name,
         configuration: configurationOf(file),

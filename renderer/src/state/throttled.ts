@@ -1,5 +1,6 @@
 /**
- * A value that follows its source at most once per `ms`, always ending on the latest: what the plots
+ * A value that follows its source at most once per `ms` (longer when updating it costs the page much),
+ * always ending on the latest: what the plots
  * draw from while hundreds of runs become ready one after another (each would otherwise rebuild every
  * plot's series with every run, work that grows with the square of the number of runs).
  */
@@ -9,13 +10,17 @@ export function throttled<T>(source: () => T, ms: number): Ref<T> {
   const out = shallowRef(source()) as Ref<T>;
   let timer: ReturnType<typeof setTimeout> | undefined;
   let last = 0;
+  // what the last update cost the page (its redraw runs right after it, before the next task): the
+  // next one waits at least five times that, so drawing thousands of runs takes at most a sixth of the time
+  let cost = 0;
   const stop = watch(source, () => {
     if (timer !== undefined) return;
-    const wait = Math.max(0, last + ms - Date.now());
+    const wait = Math.max(0, last + Math.max(ms, 5 * cost) - Date.now());
     const apply = () => {
       timer = undefined;
       last = Date.now();
       out.value = source();
+      setTimeout(() => (cost = Date.now() - last), 0);
     };
     // a lone change after a quiet spell (a tick in the run list) shows at once
     if (wait === 0) apply();

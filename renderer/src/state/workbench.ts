@@ -27,7 +27,7 @@ export function createWorkbench(host: Host, engine: EngineClient, options: Workb
   const loader = createRunLoader(base, host, engine);
   const files = createCampaignFiles(base, host, loader, ask);
   const edits = createRunEdits(base, host, engine, loader, ask);
-  const provenance = createProvenance(base);
+  const provenance = createProvenance(base, loader.balanceRead);
 
   let keeper: ReturnType<typeof startSessionKeeper> | null = null;
   /**
@@ -36,7 +36,7 @@ export function createWorkbench(host: Host, engine: EngineClient, options: Workb
    */
   async function resumeSession(): Promise<boolean> {
     const restored = await files.restoreSession();
-    keeper ??= startSessionKeeper(base, host);
+    keeper ??= startSessionKeeper(base, host, undefined, loader.settled, loader.namedFiles);
     return restored;
   }
 

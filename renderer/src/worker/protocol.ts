@@ -31,16 +31,49 @@ export interface ChannelStats {
   points: { key: string; line: number; n: number; mean: number[]; std: number[] }[];
 }
 
+/**
+ * What a run's setup decides about reading it (not only reducing it): a balance calibration turns raw
+ * bridge outputs into loads sample by sample, and the grouping tolerance forms points from rows without
+ * a point column. The worker validates the setup; a calibration named by path comes with the text of
+ * the balance file the host found for it.
+ */
+export interface ReadProfile {
+  setupName: string;
+  setup: unknown;
+  /** The balance file a `balance.calibration` path names, as found beside the campaign. */
+  balance: { name: string; text: string } | null;
+}
+
 export type ToWorker =
-  | { type: 'begin'; id: number; key: string; file: string; mapping: ColumnMapping | null; mappings: Record<string, ColumnMapping> }
+  | { type: 'begin'; id: number; key: string; file: string; mapping: ColumnMapping | null; mappings: Record<string, ColumnMapping>; profile?: ReadProfile | null }
   | { type: 'chunk'; id: number; text: string }
+  /**
+   * Read a file the page holds as a Blob (the browser host): the worker reads, decodes and hashes it
+   * itself, so a campaign of thousands of files costs the page no file reading at all.
+   */
+  | {
+      type: 'readBlob';
+      id: number;
+      key: string;
+      file: string;
+      blob: Blob;
+      mapping: ColumnMapping | null;
+      mappings: Record<string, ColumnMapping>;
+      profile?: ReadProfile | null;
+      /** Also work out the SHA-256 of the file's bytes (done for files of one chunk, else left to the host). */
+      hash: boolean;
+    }
   | { type: 'end'; id: number }
   | { type: 'reduce'; id: number; key: string; setupName: string; setup: unknown; tareKey: string | null }
   | { type: 'forget'; key: string };
 
-export type ReadReply =
+export type ReadReply = (
   | { ok: true; header: HeaderInfo; stats: ChannelStats; rows: number; mappingUsed: ColumnMapping | null }
-  | { ok: false; errors: Notice[]; header: HeaderInfo | null };
+  | { ok: false; errors: Notice[]; header: HeaderInfo | null }
+) & {
+  /** SHA-256 of the file's bytes, hex, when a `readBlob` asked for it and could work it out. */
+  sha256?: string | null;
+};
 
 export type ReduceReply =
   | { ok: true; result: ReductionResult; asMeasured: ReductionResult; reducedAt: string }
@@ -48,6 +81,8 @@ export type ReduceReply =
 
 export type FromWorker =
   | { type: 'ack'; id: number; chars: number }
+  /** Characters parsed so far of a `readBlob` (the progress bar). */
+  | { type: 'progress'; id: number; chars: number }
   | { type: 'read'; id: number; reply: ReadReply }
   | { type: 'reduced'; id: number; reply: ReduceReply }
   | { type: 'crash'; id: number; message: string };
