@@ -159,6 +159,8 @@ run('a campaign of a thousand runs, raw balance outputs and refused campaigns, i
     await page.getByRole('tab', { name: 'Run detail' }).click();
     const table = page.locator('.view[data-view="detail"] table').last();
     await table.waitFor();
+    // the run says how its loads were read
+    expect(await page.locator('.view[data-view="detail"] dl').textContent()).toMatch(/Balance\s*raw outputs through the balance file balance-b3\.json/);
     const { headers, cells } = await table.evaluate((t) => ({
       headers: Array.from(t.querySelectorAll('thead tr:last-child th')).map((h) => h.textContent?.trim() ?? ''),
       cells: Array.from(t.querySelectorAll('tbody tr')).map((tr) => Array.from(tr.querySelectorAll('td')).map((td) => td.textContent?.trim() ?? '')),

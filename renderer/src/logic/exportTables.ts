@@ -3,7 +3,7 @@
  * CSV is core's report table (core/formats/reportTable.ts: trade names, a units row, numbers to the
  * digits they support); the sheets keep full precision under a number format.
  */
-import { commentLine, pointTableComments, reportPointsCsv, reportTableCsv, ROUNDING_NOTE, toCsv, type Cell, type TableColumn } from '../../../core/index.ts';
+import { commentLine, pointTableComments, reportPointsCsv, reportTableCsv, ROUNDING_NOTE, type Cell, type TableColumn } from '../../../core/index.ts';
 import { POINT_COLUMNS } from '../../../core/index.ts';
 import type { FitResult } from '../../../core/index.ts';
 import type { ReductionResult } from '../../../core/index.ts';
