@@ -5,6 +5,7 @@
  * (the window's responsiveness). Run with `npx tsx test/bench/windowScale.ts [N …] [--list-only] [--stay]`;
  * figures go to docs/performance.md by hand (what each figure measures is said there).
  */
+import { execFileSync } from 'node:child_process';
 import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -112,16 +113,47 @@ export async function measureOpening(page: Page, paths: string[], n: number, wai
   };
 }
 
+interface CpuProfile {
+  nodes: { id: number; callFrame: { functionName: string; url: string; lineNumber: number }; hitCount?: number }[];
+  samples: number[];
+  timeDeltas: number[];
+}
+
+/** The 30 functions with the most self time in a CPU profile, as text. */
+function selfTimes(profile: CpuProfile): string {
+  const byId = new Map(profile.nodes.map((n) => [n.id, n]));
+  const self = new Map<string, number>();
+  profile.samples.forEach((id, i) => {
+    const f = byId.get(id)!.callFrame;
+    const name = `${f.functionName || '(anonymous)'} ${f.url.split('/').pop()}:${f.lineNumber + 1}`;
+    self.set(name, (self.get(name) ?? 0) + (profile.timeDeltas[i] ?? 0) / 1000);
+  });
+  return [...self]
+    .sort((a, b) => b[1] - a[1])
+    .slice(0, 30)
+    .map(([name, ms]) => `${ms.toFixed(0).padStart(7)} ms  ${name}\n`)
+    .join('');
+}
+
 async function main() {
   const args = process.argv.slice(2);
   const waitReduced = !args.includes('--list-only') && !process.env['LIST_ONLY'];
   // --stay: back to the Plots view after the tab change, so the plots draw while the runs reduce
   const stay = args.includes('--stay');
-  const sizes = args.filter((a) => /^\d+$/.test(a)).map(Number);
+  // --profile FILE: the main thread's CPU profile over the opening (Chromium's sampling profiler), an
+  // unminified build so functions keep their names; the heaviest functions by self time are printed
+  const profileAt = args.indexOf('--profile');
+  const profileFile = profileAt >= 0 ? args[profileAt + 1] : undefined;
+  const sizes = args.filter((a, i) => /^\d+$/.test(a) && i !== profileAt + 1).map(Number);
   if (sizes.length === 0) sizes.push(1000);
   const work = mkdtempSync(join(tmpdir(), 'sweepbook-scale-'));
   const site = join(work, 'renderer');
-  buildRenderer(site);
+  if (profileFile)
+    execFileSync(join(ROOT, 'node_modules/.bin/vite'), ['build', '--outDir', site, '--emptyOutDir', '--logLevel', 'warn', '--minify', 'false'], {
+      cwd: ROOT,
+      stdio: 'inherit',
+    });
+  else buildRenderer(site);
   const server = await startStaticServer({ root: site, extra: { '/sample-runs/': join(ROOT, 'sample-runs') } });
   const browser = await chromium.launch({ executablePath: CHROMIUM, headless: true, args: ['--no-sandbox', '--disable-gpu'] });
   try {
@@ -131,16 +163,35 @@ async function main() {
       const paths = writeLargeCampaign(dir, n);
       const page = await browser.newPage({ viewport: { width: 1400, height: 900 } });
       await page.addInitScript(() => {
-        const w = window as unknown as { __long: number[] };
+        const w = window as unknown as { __long: number[]; __longAt: [number, number][] };
         w.__long = [];
+        w.__longAt = [];
         new PerformanceObserver((list) => {
-          for (const e of list.getEntries()) w.__long.push(e.duration);
+          for (const e of list.getEntries()) {
+            w.__long.push(e.duration);
+            w.__longAt.push([e.startTime, e.duration]);
+          }
         }).observe({ type: 'longtask', buffered: true });
       });
       page.on('dialog', (d) => void d.accept());
       await page.goto(server.url);
       await page.locator('tbody[data-status="ready"]').first().waitFor({ timeout: 60_000 });
+      const cdp = profileFile ? await page.context().newCDPSession(page) : null;
+      if (cdp) {
+        await cdp.send('Profiler.enable');
+        await cdp.send('Profiler.setSamplingInterval', { interval: 200 });
+        await cdp.send('Profiler.start');
+      }
       const f = await measureOpening(page, paths, n, waitReduced, stay);
+      if (profileFile) {
+        const long = await page.evaluate(() => (window as unknown as { __longAt: [number, number][] }).__longAt);
+        process.stdout.write(`long tasks (start s: ms): ${long.map(([t, d]) => `${(t / 1000).toFixed(2)}: ${d.toFixed(0)}`).join(', ')}\n`);
+      }
+      if (cdp && profileFile) {
+        const { profile } = await cdp.send('Profiler.stop');
+        writeFileSync(profileFile, JSON.stringify(profile));
+        process.stdout.write(selfTimes(profile as unknown as CpuProfile));
+      }
       process.stdout.write(
         `${n} runs${stay ? ' (on the Plots view)' : ''}: listed ${f.listed.toFixed(2)} s, last row after scrolling ${f.lastRow.toFixed(2)} s, tab change while reading ${f.busyTab.toFixed(2)} s` +
           (f.reduced !== null ? `, all reduced ${f.reduced.toFixed(2)} s` : '') +
