@@ -9,7 +9,7 @@ import type { ReductionResult } from '../../core/reduction/pipeline.ts';
 import { readRunText } from '../../core/formats/runFile.ts';
 import { createDrawQueue } from '../../renderer/src/charts/drawQueue.ts';
 import { datasetsOf, type DatasetCache } from '../../renderer/src/charts/plotConfig.ts';
-import { legendEntries, LEGEND_MAX } from '../../renderer/src/logic/legendEntries.ts';
+import { legendEntries, LEGEND_MAX, namesText } from '../../renderer/src/logic/legendEntries.ts';
 import { styleFor } from '../../renderer/src/logic/palette.ts';
 import { plotSpec } from '../../renderer/src/logic/plotSpecs.ts';
 import { tickedOnTheWay } from '../../renderer/src/state/pendingRuns.ts';
@@ -171,5 +171,21 @@ describe('what an empty plot says while a campaign opens', () => {
     const entries = { a: { status: 'queued' }, b: { status: 'reading' }, c: { status: 'reducing' }, d: { status: 'ready' }, e: { status: 'failed' } } as const;
     expect(tickedOnTheWay(runs, entries)).toBe(2);
     expect(tickedOnTheWay([], {})).toBe(0);
+  });
+});
+
+describe('"Used by" of a setup in a big campaign', () => {
+  it('names every run up to the limit, and counts the rest, asking only for the names shown', () => {
+    const asked: string[] = [];
+    const nameOf = (f: string) => {
+      asked.push(f);
+      return f.toUpperCase();
+    };
+    expect(namesText([], nameOf)).toBe('no run');
+    expect(namesText(['a', 'b', 'c'], nameOf, 2)).toBe('A, B, C');
+    asked.length = 0;
+    const files = Array.from({ length: 1000 }, (_, i) => `r${i}`);
+    expect(namesText(files, nameOf, 3)).toBe('R0, R1, R2 and 997 more');
+    expect(asked).toEqual(['r0', 'r1', 'r2']);
   });
 });

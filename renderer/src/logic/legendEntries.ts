@@ -20,3 +20,16 @@ export function legendEntries<T>(series: readonly T[], max = LEGEND_MAX): Legend
   const more = series.length - limit;
   return { shown: series.slice(0, limit), more, moreText: `+ ${more} more runs` };
 }
+
+/**
+ * A list of run names in a sentence, the first `max` named and the rest counted ("101, 102 and 998
+ * more"): the setup's "Used by" line in a campaign of thousands. `nameOf` is asked only for the names
+ * shown, so the line does not depend on every run's name.
+ */
+export function namesText(files: readonly string[], nameOf: (file: string) => string, max = 12): string {
+  if (files.length === 0) return 'no run';
+  const limit = Math.max(1, Math.floor(max));
+  const shown = files.length <= limit + 1 ? files : files.slice(0, limit);
+  const names = shown.map(nameOf).join(', ');
+  return shown.length < files.length ? `${names} and ${files.length - shown.length} more` : names;
+}
