@@ -144,7 +144,7 @@ async function main() {
   // unminified build so functions keep their names; the heaviest functions by self time are printed
   const profileAt = args.indexOf('--profile');
   const profileFile = profileAt >= 0 ? args[profileAt + 1] : undefined;
-  const sizes = args.filter((a, i) => /^\d+$/.test(a) && i !== profileAt + 1).map(Number);
+  const sizes = args.filter((a, i) => /^\d+$/.test(a) && (profileAt < 0 || i !== profileAt + 1)).map(Number);
   if (sizes.length === 0) sizes.push(1000);
   const work = mkdtempSync(join(tmpdir(), 'sweepbook-scale-'));
   const site = join(work, 'renderer');

@@ -6,7 +6,8 @@
  */
 import { onBeforeUnmount, shallowRef, watch, type Ref } from 'vue';
 
-export function throttled<T>(source: () => T, ms: number): Ref<T> {
+export function throttled<T>(source: () => T, ms: number | (() => number)): Ref<T> {
+  const interval = typeof ms === 'number' ? () => ms : ms;
   const out = shallowRef(source()) as Ref<T>;
   let timer: ReturnType<typeof setTimeout> | undefined;
   let last = 0;
@@ -15,7 +16,7 @@ export function throttled<T>(source: () => T, ms: number): Ref<T> {
   let cost = 0;
   const stop = watch(source, () => {
     if (timer !== undefined) return;
-    const wait = Math.max(0, last + Math.max(ms, 5 * cost) - Date.now());
+    const wait = Math.max(0, last + Math.max(interval(), 5 * cost) - Date.now());
     const apply = () => {
       timer = undefined;
       last = Date.now();
