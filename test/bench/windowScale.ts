@@ -2,7 +2,7 @@
  * Campaigns of N runs (default 1,000) opened in the window through the browser host, in Debian's
  * Chromium: seconds until every run is listed, until the last row shows after scrolling to the end,
  * a tab change while the runs are read, until every run is reduced, and the longest main-thread task
- * (the window's responsiveness). Run with `npx tsx test/bench/windowScale.ts [N …] [--list-only] [--stay]`;
+ * (the window's responsiveness). Run with `npx tsx test/bench/windowScale.ts [N …] [--list-only] [--stay] [--profile FILE]`;
  * figures go to docs/performance.md by hand (what each figure measures is said there).
  */
 import { execFileSync } from 'node:child_process';
