@@ -46,6 +46,11 @@ export interface ScaleFigures {
   busyTab: number;
   /** Until every run is reduced (the list says N shown), or null when not waited for. */
   reduced: number | null;
+  /**
+   * With `stay`, once every run is reduced: an untick of the first run in the run list until all four
+   * plots have drawn without it, or null when not measured.
+   */
+  untick: number | null;
   /** Longest main-thread task (PerformanceObserver "longtask", ≥ 50 ms) from Open… to the last figure. */
   longestTask: number;
   /** Long tasks and their total, same span. */
@@ -100,6 +105,18 @@ export async function measureOpening(page: Page, paths: string[], n: number, wai
     });
     reduced = (Date.now() - t0) / 1000;
   }
+  let untick: number | null = null;
+  if (waitReduced && stay) {
+    const plotted = (count: number) =>
+      [...document.querySelectorAll('.plot-panel canvas')].every(
+        (c) => (JSON.parse((c as HTMLElement).dataset['drawn'] ?? '{"datasets":[]}') as { datasets: unknown[] }).datasets.length === count,
+      );
+    await page.waitForFunction(plotted, n, { timeout: 600_000, polling: 100 });
+    const u0 = Date.now();
+    await page.locator('.runs-table tbody[data-run] input[type="checkbox"]').first().uncheck();
+    await page.waitForFunction(plotted, n - 1, { timeout: 600_000, polling: 20 });
+    untick = (Date.now() - u0) / 1000;
+  }
   const long = await page.evaluate(() => (window as unknown as { __long: number[] }).__long);
   return {
     runs: n,
@@ -107,6 +124,7 @@ export async function measureOpening(page: Page, paths: string[], n: number, wai
     lastRow,
     busyTab,
     reduced,
+    untick,
     longestTask: Math.max(0, ...long) / 1000,
     longTasks: long.length,
     longTaskTotal: long.reduce((a, b) => a + b, 0) / 1000,
@@ -195,6 +213,7 @@ async function main() {
       process.stdout.write(
         `${n} runs${stay ? ' (on the Plots view)' : ''}: listed ${f.listed.toFixed(2)} s, last row after scrolling ${f.lastRow.toFixed(2)} s, tab change while reading ${f.busyTab.toFixed(2)} s` +
           (f.reduced !== null ? `, all reduced ${f.reduced.toFixed(2)} s` : '') +
+          (f.untick !== null ? `, one run unticked and all plots redrawn ${f.untick.toFixed(2)} s` : '') +
           `; longest main-thread task ${(f.longestTask * 1000).toFixed(0)} ms (${f.longTasks} tasks ≥ 50 ms, ${f.longTaskTotal.toFixed(2)} s in all)\n`,
       );
       await page.close();
