@@ -2,9 +2,10 @@
  * Campaigns of N runs (default 1,000) opened in the window through the browser host, in Debian's
  * Chromium: seconds until every run is listed, until the last row shows after scrolling to the end,
  * a tab change while the runs are read, until every run is reduced, and the longest main-thread task
- * (the window's responsiveness). Run with `npx tsx test/bench/windowScale.ts [N …] [--list-only] [--stay]`;
+ * (the window's responsiveness). Run with `npx tsx test/bench/windowScale.ts [N …] [--list-only] [--stay] [--profile FILE]`;
  * figures go to docs/performance.md by hand (what each figure measures is said there).
  */
+import { execFileSync } from 'node:child_process';
 import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -45,6 +46,11 @@ export interface ScaleFigures {
   busyTab: number;
   /** Until every run is reduced (the list says N shown), or null when not waited for. */
   reduced: number | null;
+  /**
+   * With `stay`, once every run is reduced: an untick of the first run in the run list until all four
+   * plots have drawn without it, or null when not measured.
+   */
+  untick: number | null;
   /** Longest main-thread task (PerformanceObserver "longtask", ≥ 50 ms) from Open… to the last figure. */
   longestTask: number;
   /** Long tasks and their total, same span. */
@@ -99,6 +105,18 @@ export async function measureOpening(page: Page, paths: string[], n: number, wai
     });
     reduced = (Date.now() - t0) / 1000;
   }
+  let untick: number | null = null;
+  if (waitReduced && stay) {
+    const plotted = (count: number) =>
+      [...document.querySelectorAll('.plot-panel canvas')].every(
+        (c) => (JSON.parse((c as HTMLElement).dataset['drawn'] ?? '{"datasets":[]}') as { datasets: unknown[] }).datasets.length === count,
+      );
+    await page.waitForFunction(plotted, n, { timeout: 600_000, polling: 100 });
+    const u0 = Date.now();
+    await page.locator('.runs-table tbody[data-run] input[type="checkbox"]').first().uncheck();
+    await page.waitForFunction(plotted, n - 1, { timeout: 600_000, polling: 20 });
+    untick = (Date.now() - u0) / 1000;
+  }
   const long = await page.evaluate(() => (window as unknown as { __long: number[] }).__long);
   return {
     runs: n,
@@ -106,10 +124,33 @@ export async function measureOpening(page: Page, paths: string[], n: number, wai
     lastRow,
     busyTab,
     reduced,
+    untick,
     longestTask: Math.max(0, ...long) / 1000,
     longTasks: long.length,
     longTaskTotal: long.reduce((a, b) => a + b, 0) / 1000,
   };
+}
+
+interface CpuProfile {
+  nodes: { id: number; callFrame: { functionName: string; url: string; lineNumber: number }; hitCount?: number }[];
+  samples: number[];
+  timeDeltas: number[];
+}
+
+/** The 30 functions with the most self time in a CPU profile, as text. */
+function selfTimes(profile: CpuProfile): string {
+  const byId = new Map(profile.nodes.map((n) => [n.id, n]));
+  const self = new Map<string, number>();
+  profile.samples.forEach((id, i) => {
+    const f = byId.get(id)!.callFrame;
+    const name = `${f.functionName || '(anonymous)'} ${f.url.split('/').pop()}:${f.lineNumber + 1}`;
+    self.set(name, (self.get(name) ?? 0) + (profile.timeDeltas[i] ?? 0) / 1000);
+  });
+  return [...self]
+    .sort((a, b) => b[1] - a[1])
+    .slice(0, 30)
+    .map(([name, ms]) => `${ms.toFixed(0).padStart(7)} ms  ${name}\n`)
+    .join('');
 }
 
 async function main() {
@@ -117,11 +158,20 @@ async function main() {
   const waitReduced = !args.includes('--list-only') && !process.env['LIST_ONLY'];
   // --stay: back to the Plots view after the tab change, so the plots draw while the runs reduce
   const stay = args.includes('--stay');
-  const sizes = args.filter((a) => /^\d+$/.test(a)).map(Number);
+  // --profile FILE: the main thread's CPU profile over the opening (Chromium's sampling profiler), an
+  // unminified build so functions keep their names; the heaviest functions by self time are printed
+  const profileAt = args.indexOf('--profile');
+  const profileFile = profileAt >= 0 ? args[profileAt + 1] : undefined;
+  const sizes = args.filter((a, i) => /^\d+$/.test(a) && (profileAt < 0 || i !== profileAt + 1)).map(Number);
   if (sizes.length === 0) sizes.push(1000);
   const work = mkdtempSync(join(tmpdir(), 'sweepbook-scale-'));
   const site = join(work, 'renderer');
-  buildRenderer(site);
+  if (profileFile)
+    execFileSync(join(ROOT, 'node_modules/.bin/vite'), ['build', '--outDir', site, '--emptyOutDir', '--logLevel', 'warn', '--minify', 'false'], {
+      cwd: ROOT,
+      stdio: 'inherit',
+    });
+  else buildRenderer(site);
   const server = await startStaticServer({ root: site, extra: { '/sample-runs/': join(ROOT, 'sample-runs') } });
   const browser = await chromium.launch({ executablePath: CHROMIUM, headless: true, args: ['--no-sandbox', '--disable-gpu'] });
   try {
@@ -131,19 +181,39 @@ async function main() {
       const paths = writeLargeCampaign(dir, n);
       const page = await browser.newPage({ viewport: { width: 1400, height: 900 } });
       await page.addInitScript(() => {
-        const w = window as unknown as { __long: number[] };
+        const w = window as unknown as { __long: number[]; __longAt: [number, number][] };
         w.__long = [];
+        w.__longAt = [];
         new PerformanceObserver((list) => {
-          for (const e of list.getEntries()) w.__long.push(e.duration);
+          for (const e of list.getEntries()) {
+            w.__long.push(e.duration);
+            w.__longAt.push([e.startTime, e.duration]);
+          }
         }).observe({ type: 'longtask', buffered: true });
       });
       page.on('dialog', (d) => void d.accept());
       await page.goto(server.url);
       await page.locator('tbody[data-status="ready"]').first().waitFor({ timeout: 60_000 });
+      const cdp = profileFile ? await page.context().newCDPSession(page) : null;
+      if (cdp) {
+        await cdp.send('Profiler.enable');
+        await cdp.send('Profiler.setSamplingInterval', { interval: 200 });
+        await cdp.send('Profiler.start');
+      }
       const f = await measureOpening(page, paths, n, waitReduced, stay);
+      if (profileFile) {
+        const long = await page.evaluate(() => (window as unknown as { __longAt: [number, number][] }).__longAt);
+        process.stdout.write(`long tasks (start s: ms): ${long.map(([t, d]) => `${(t / 1000).toFixed(2)}: ${d.toFixed(0)}`).join(', ')}\n`);
+      }
+      if (cdp && profileFile) {
+        const { profile } = await cdp.send('Profiler.stop');
+        writeFileSync(profileFile, JSON.stringify(profile));
+        process.stdout.write(selfTimes(profile as unknown as CpuProfile));
+      }
       process.stdout.write(
         `${n} runs${stay ? ' (on the Plots view)' : ''}: listed ${f.listed.toFixed(2)} s, last row after scrolling ${f.lastRow.toFixed(2)} s, tab change while reading ${f.busyTab.toFixed(2)} s` +
           (f.reduced !== null ? `, all reduced ${f.reduced.toFixed(2)} s` : '') +
+          (f.untick !== null ? `, one run unticked and all plots redrawn ${f.untick.toFixed(2)} s` : '') +
           `; longest main-thread task ${(f.longestTask * 1000).toFixed(0)} ms (${f.longTasks} tasks ≥ 50 ms, ${f.longTaskTotal.toFixed(2)} s in all)\n`,
       );
       await page.close();

@@ -110,7 +110,7 @@ run('the Plots view: sweep branches, CLmax and fitted lines', () => {
     expect(r107.last!.x).toBeCloseTo(back.points[28]!.alpha_deg!, 10);
     // the other runs are single rising sweeps: the two arrowheads are the return-sweep run's
     expect(lift.arrows).toBe(2);
-    expect((await drawn(page, 'cd-cl')).arrows).toBe(2);
+    await expect.poll(async () => (await drawn(page, 'cd-cl')).arrows).toBe(2);
     const key = page.locator('[data-plot="cl-alpha"] .legend-key');
     expect(await key.evaluateAll((els) => els.map((e) => e.getAttribute('data-key')))).toEqual(['return']);
     expect(await key.textContent()).toBe('return sweep (α falling)');
@@ -153,8 +153,9 @@ run('the Plots view: sweep branches, CLmax and fitted lines', () => {
     expect(line.last!.x).toBeCloseTo(hi, 10);
     expect(line.first!.y).toBeCloseTo(a * (lo - a0), 10);
     expect(line.last!.y).toBeCloseTo(a * (hi - a0), 10);
+    // each plot redraws in its own turn (charts/drawQueue.ts): the polar may follow the lift curve by a task
+    await expect.poll(async () => (await drawn(page, 'cd-cl')).datasets.filter((d) => d.role === 'fit').length).toBe(4);
     const polar = (await drawn(page, 'cd-cl')).datasets.filter((d) => d.role === 'fit');
-    expect(polar).toHaveLength(4);
     const p107 = polar.find((d) => d.label.startsWith('107 · clean'))!;
     expect(p107.n).toBe(25);
     expect(p107.first!.x).toBeCloseTo(back.fit.cd0! + back.fit.k_induced! * p107.first!.y ** 2, 10);

@@ -34,6 +34,7 @@ class Chart {
   update(): void {
     this.updates++;
   }
+  render(): void {}
   destroy(): void {
     this.destroyed = true;
   }

@@ -92,7 +92,8 @@ describe('plots', () => {
 
     ctx.wb.state.basis = 'measured';
     await nextTick();
-    expect(lift.updates).toBeGreaterThan(0);
+    // each chart redraws in a task of its own (charts/drawQueue.ts)
+    await vi.waitFor(() => expect(lift.updates).toBeGreaterThan(0));
     expect(lift.data.datasets[0]!.data[0]).toEqual({ x: r101.points[0]!.alpha_uncorrected_deg, y: r101.points[0]!.cl_uncorrected });
     expect(w.findAll('.legend li').map((li) => li.text()).slice(0, 2)).toEqual(['101 · clean', '103 · flap 20']);
   });
@@ -147,7 +148,7 @@ describe('uncertainties in the plots and the comparison', () => {
     expect(charts[1]!.data.datasets[0]!.data[2]).toEqual({ x: p.cd, y: p.cl, xu: p.u_cd, yu: p.u_cl });
     await toggle(w).setValue(false);
     expect(ctx.wb.state.errorBars).toBe(false);
-    expect(shown()).toEqual([false, false, false, false]);
+    await vi.waitFor(() => expect(shown()).toEqual([false, false, false, false]));
     expect(w.findAll('.plot-panel').map((f) => f.attributes('data-error-bars'))).toEqual(['off', 'off', 'off', 'off']);
   });
 

@@ -54,7 +54,8 @@ describe('marks in the Plots view', () => {
     expect(lift.data.datasets.map((d) => d.label)).toEqual(['101 · clean', '103 · flap 20', '107 · clean']);
     expect(rolesOf(lift)).toEqual(['run', 'run', 'run']);
     expect((lift.options['plugins'] as Plugins).plotMarks.arrows).toEqual([{ dataset: 2, segments: [11, 18] }]);
-    expect(lift.plugins).toEqual(['errorBars', 'plotMarks']);
+    // paintLater: the chart paints in a task after its update (ChartCanvas.vue)
+    expect(lift.plugins).toEqual(['errorBars', 'plotMarks', 'paintLater']);
     const keys = w.findAll('[data-plot="cl-alpha"] .legend-key');
     expect(keys.map((k) => k.attributes('data-key'))).toEqual(['return']);
     expect(w.find('[data-plot="cl-alpha"] .mark-notes').exists()).toBe(false);
@@ -67,13 +68,15 @@ describe('marks in the Plots view', () => {
     await w.find('input[aria-label="Mark CLmax"]').setValue(true);
     expect(plotMarks.clMax).toBe(true);
     const [lift, polar, moment] = charts;
-    expect(rolesOf(lift!)).toEqual(['run', 'run', 'run', 'clmax', 'clmax', 'clmax']);
+    // each chart redraws in a task of its own (charts/drawQueue.ts)
+    await vi.waitFor(() => expect(rolesOf(lift!)).toEqual(['run', 'run', 'run', 'clmax', 'clmax', 'clmax']));
     const r107 = ctx.wb.state.entries[RETURN]!.result!;
     expect(lift!.data.datasets[5]!.data).toEqual([{ x: r107.fit.alpha_cl_max_deg, y: r107.fit.cl_max }]);
     await w.find('input[aria-label="Show fitted lines"]').setValue(true);
     // redraws within 250 ms of the last are coalesced (ChartCanvas.vue)
     await vi.waitFor(() => expect(rolesOf(lift!)).toEqual(['run', 'run', 'run', 'fit', 'fit', 'fit', 'clmax', 'clmax', 'clmax']));
-    expect(rolesOf(polar!)).toEqual(['run', 'run', 'run', 'fit', 'fit', 'fit']);
+    // each chart redraws in its own turn: the polar may follow the lift curve by a task
+    await vi.waitFor(() => expect(rolesOf(polar!)).toEqual(['run', 'run', 'run', 'fit', 'fit', 'fit']));
     expect(rolesOf(moment!)).toEqual(['run', 'run', 'run']);
     expect(w.findAll('[data-plot="cl-alpha"] .legend-key').map((k) => k.attributes('data-key'))).toEqual(['return', 'clmax', 'fit']);
     // the as-measured basis has its own fit

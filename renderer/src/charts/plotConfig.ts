@@ -90,28 +90,45 @@ function clMaxDataset(s: Series): ChartDataset<'scatter'> {
   };
 }
 
+/**
+ * Datasets made for series, kept while the series object lives: a chart handed the same dataset object
+ * again keeps what it worked out from it, so a batch of newly reduced runs costs the chart those runs,
+ * not every run again. One cache per chart (Chart.js keeps its bookkeeping per chart and dataset).
+ */
+export type DatasetCache = WeakMap<Series, { run: ChartDataset<'scatter'>; fit?: ChartDataset<'scatter'>; clMax?: ChartDataset<'scatter'> }>;
+
+function cached(cache: DatasetCache | undefined, s: Series, part: 'run' | 'fit' | 'clMax', make: (s: Series) => ChartDataset<'scatter'>): ChartDataset<'scatter'> {
+  if (!cache) return make(s);
+  let entry = cache.get(s);
+  if (!entry) cache.set(s, (entry = { run: part === 'run' ? make(s) : dataset(s) }));
+  return (entry[part] ??= make(s));
+}
+
 /** Every dataset of a plot: the runs first (in series order), then the fitted lines, then the CLmax marks. */
-export function datasetsOf(series: readonly Series[]): { datasets: ChartDataset<'scatter'>[]; roles: DatasetRole[]; owner: number[]; marks: MarksOptions } {
+export function datasetsOf(
+  series: readonly Series[],
+  cache?: DatasetCache,
+): { datasets: ChartDataset<'scatter'>[]; roles: DatasetRole[]; owner: number[]; marks: MarksOptions } {
   const datasets: ChartDataset<'scatter'>[] = [];
   const roles: DatasetRole[] = [];
   const owner: number[] = [];
   const marks: MarksOptions = { roles, arrows: [], clMax: [] };
   series.forEach((s, i) => {
-    datasets.push(dataset(s));
+    datasets.push(cached(cache, s, 'run', dataset));
     roles.push('run');
     owner.push(i);
     if (s.sweep && s.joined !== false) marks.arrows.push({ dataset: datasets.length - 1, segments: arrowSegments(s.sweep.branchOf) });
   });
   series.forEach((s, i) => {
     if (!s.marks?.fitLine) return;
-    datasets.push(fitDataset(s));
+    datasets.push(cached(cache, s, 'fit', fitDataset));
     roles.push('fit');
     owner.push(i);
   });
   series.forEach((s, i) => {
     const m = s.marks?.clMax;
     if (!m) return;
-    datasets.push(clMaxDataset(s));
+    datasets.push(cached(cache, s, 'clMax', clMaxDataset));
     roles.push('clmax');
     owner.push(i);
     marks.clMax.push({ dataset: datasets.length - 1, xu: m.xu, yu: m.yu });
@@ -151,8 +168,9 @@ export function plotConfig(
   footer: string[] = [],
   canvasLegend = footer.length > 0,
   errorBars = false,
+  cache?: DatasetCache,
 ): ChartConfiguration<'scatter'> {
-  const { datasets, roles, owner, marks } = datasetsOf(series);
+  const { datasets, roles, owner, marks } = datasetsOf(series, cache);
   const key = markKey(series, series[0]?.plot ?? '');
   // an exported image says which marks could not be drawn, above its provenance
   const lines = canvasLegend ? [...markNotes(series), ...footer] : footer;
@@ -163,6 +181,8 @@ export function plotConfig(
       responsive: footer.length === 0,
       maintainAspectRatio: false,
       animation: false,
+      // not `parsing: false`: Chart.js then takes the points as sorted by x and, zoomed in, cuts a polar
+      // or a return sweep at the first point outside the range
       layout: { padding: { bottom: lines.length * FOOTER_LINE_PX + (lines.length ? 8 : 0), right: 8 } },
       // the nearest point of a run or a CLmax mark; fitted lines are never picked (plugins.ts)
       interaction: { mode: 'nearestPoint', intersect: false },

@@ -6,16 +6,17 @@
  */
 import { onBeforeUnmount, shallowRef, watch, type Ref } from 'vue';
 
-export function throttled<T>(source: () => T, ms: number): Ref<T> {
+export function throttled<T>(source: () => T, ms: number | (() => number)): Ref<T> {
+  const interval = typeof ms === 'number' ? () => ms : ms;
   const out = shallowRef(source()) as Ref<T>;
   let timer: ReturnType<typeof setTimeout> | undefined;
   let last = 0;
-  // what the last update cost the page (its redraw runs right after it, before the next task): the
-  // next one waits at least five times that, so drawing thousands of runs takes at most a sixth of the time
+  // what the last update cost the page (the charts' own redraws follow in tasks of their own and are
+  // paced by the draw queue): the next one waits at least five times that
   let cost = 0;
   const stop = watch(source, () => {
     if (timer !== undefined) return;
-    const wait = Math.max(0, last + Math.max(ms, 5 * cost) - Date.now());
+    const wait = Math.max(0, last + Math.max(interval(), 5 * cost) - Date.now());
     const apply = () => {
       timer = undefined;
       last = Date.now();
