@@ -18,7 +18,7 @@ import { reduceRun, readSetup, POINT_COLUMNS } from '../../core/reduction/engine
 import type { ReductionResult } from '../../core/reduction/pipeline.ts';
 import { readRunText } from '../../core/formats/runFile.ts';
 import { REPORT_COLUMNS } from '../../core/formats/reportTable.ts';
-import { ARTIFACTS, browserAvailable, openSession, ROOT, type Session } from './browserSetup.ts';
+import { ARTIFACTS, browserAvailable, openSession, ROOT, type Session, waitReady } from './browserSetup.ts';
 
 const SAMPLES = join(ROOT, 'sample-runs');
 const RUN_101 = join(SAMPLES, 'run-101-clean.csv');
@@ -45,9 +45,6 @@ async function runStatus(page: Page, file: string): Promise<string | null> {
   return page.locator(`tbody[data-run="${file}"]`).getAttribute('data-status');
 }
 
-async function waitReady(page: Page, file: string, timeout = 30_000) {
-  await page.locator(`tbody[data-run="${file}"][data-status="ready"]`).waitFor({ timeout });
-}
 
 /** Pixels of a canvas that are drawn (not transparent and not white), and how many are near a colour. */
 async function canvasInk(page: Page, selector: string, colour?: string): Promise<{ drawn: number; near: number }> {

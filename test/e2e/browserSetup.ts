@@ -81,3 +81,21 @@ export async function openSession(): Promise<Session> {
     },
   };
 }
+
+/** Wait until a run's row in the run list says it is reduced. */
+export async function waitReady(page: Page, file: string, timeout = 60_000): Promise<void> {
+  await page.locator(`tbody[data-run="${file}"][data-status="ready"]`).waitFor({ timeout });
+}
+
+/** Instrument standard uncertainties (k = 1) typed into the setup editor: invented for the tests. */
+export const UNCERTAINTY: Readonly<Record<string, string>> = {
+  dp_pitot_pa: '1.5',
+  p_static_pa: '20',
+  t_total_c: '0.2',
+  rh_pct: '2',
+  force_n: '0.3',
+  moment_nm: '0.02',
+  alpha_deg: '0.05',
+  area_rel: '0.002',
+  chord_rel: '0.002',
+};

@@ -10,12 +10,8 @@ import Papa from 'papaparse';
 import type { Download, Page } from 'playwright-core';
 import readXlsx from 'read-excel-file/node';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { ARTIFACTS, browserAvailable, openSession, type Session } from './browserSetup.ts';
+import { ARTIFACTS, browserAvailable, openSession, type Session, waitReady } from './browserSetup.ts';
 import { overflowOf, SAMPLE_RUNS, showView } from './screenshots.ts';
-
-async function waitReady(page: Page, file: string, timeout = 30_000) {
-  await page.locator(`tbody[data-run="${file}"][data-status="ready"]`).waitFor({ timeout });
-}
 
 async function download(page: Page, click: () => Promise<void>, keepAs: string): Promise<{ d: Download; bytes: Buffer }> {
   const [d] = await Promise.all([page.waitForEvent('download'), click()]);

@@ -11,27 +11,10 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { ARTIFACTS, browserAvailable, openSession, ROOT, type Session } from './browserSetup.ts';
+import { ARTIFACTS, browserAvailable, openSession, ROOT, type Session, waitReady, UNCERTAINTY } from './browserSetup.ts';
 import { overflowOf, SAMPLE_RUNS, showView } from './screenshots.ts';
 
 const SAMPLES = join(ROOT, 'sample-runs');
-
-/** Instrument standard uncertainties (k = 1) typed into the setup editor: invented for the test. */
-const UNCERTAINTY: Record<string, string> = {
-  dp_pitot_pa: '1.5',
-  p_static_pa: '20',
-  t_total_c: '0.2',
-  rh_pct: '2',
-  force_n: '0.3',
-  moment_nm: '0.02',
-  alpha_deg: '0.05',
-  area_rel: '0.002',
-  chord_rel: '0.002',
-};
-
-async function waitReady(page: Page, file: string, timeout = 60_000) {
-  await page.locator(`tbody[data-run="${file}"][data-status="ready"]`).waitFor({ timeout });
-}
 
 /** Run 101 cut after α = 10°, where CL is still rising: no stall in the file. */
 function noStallRun(): string {

@@ -12,7 +12,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readSetup, reduceRun } from '../../core/reduction/engine.ts';
 import type { ReductionResult } from '../../core/reduction/pipeline.ts';
 import { readRunText } from '../../core/formats/runFile.ts';
-import { ARTIFACTS, browserAvailable, openSession, ROOT, type Session } from './browserSetup.ts';
+import { ARTIFACTS, browserAvailable, openSession, ROOT, type Session, waitReady } from './browserSetup.ts';
 import { overflowOf, SAMPLE_RUNS, showView } from './screenshots.ts';
 
 const SAMPLES = join(ROOT, 'sample-runs');
@@ -27,10 +27,6 @@ interface Drawn {
 async function drawn(page: Page, plot: string): Promise<Drawn> {
   const text = await page.locator(`[data-plot="${plot}"] canvas`).getAttribute('data-drawn');
   return JSON.parse(text ?? '{"datasets":[],"arrows":0}') as Drawn;
-}
-
-async function waitReady(page: Page, file: string, timeout = 30_000) {
-  await page.locator(`tbody[data-run="${file}"][data-status="ready"]`).waitFor({ timeout });
 }
 
 async function importRun(page: Page, path: string, file: string) {

@@ -11,23 +11,11 @@ import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { CAUTIONS, projectStallSpeed, type Projection } from '../../core/fullscale/stallSpeed.ts';
-import { ARTIFACTS, browserAvailable, openSession, ROOT, type Session } from './browserSetup.ts';
+import { ARTIFACTS, browserAvailable, openSession, ROOT, type Session, waitReady, UNCERTAINTY } from './browserSetup.ts';
 
 const SAMPLES = join(ROOT, 'sample-runs');
 const RUNS = ['run-101-clean.csv', 'run-102-flap10.csv', 'run-103-flap20.csv', 'run-104-clean-timehistory.csv', 'run-201-section.csv'];
 
-/** Instrument standard uncertainties (k = 1) typed into the setup editor: invented for the test. */
-const UNCERTAINTY: Record<string, string> = {
-  dp_pitot_pa: '1.5',
-  p_static_pa: '20',
-  t_total_c: '0.2',
-  rh_pct: '2',
-  force_n: '0.3',
-  moment_nm: '0.02',
-  alpha_deg: '0.05',
-  area_rel: '0.002',
-  chord_rel: '0.002',
-};
 
 /** The aircraft and day typed into the full-scale estimate: invented. */
 const AIRCRAFT = { mass: '680', wingArea: '10.2', altitude: '1200', temperature: '32', rh: '70' };
@@ -36,9 +24,6 @@ function cli(args: string[]): string {
   return execFileSync(process.execPath, [join(ROOT, 'bin/sweepbook.js'), ...args], { cwd: ROOT, encoding: 'utf8', stdio: ['ignore', 'pipe', 'ignore'] });
 }
 
-async function waitReady(page: Page, file: string, timeout = 30_000) {
-  await page.locator(`tbody[data-run="${file}"][data-status="ready"]`).waitFor({ timeout });
-}
 
 /** Drawn pixels of a canvas (neither transparent nor white). */
 async function ink(page: Page, selector: string): Promise<number> {

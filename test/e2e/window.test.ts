@@ -12,14 +12,10 @@ import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startStaticServer } from '../../app/serve/static.ts';
 import { STORAGE_KEY_PATH } from '../../app/serve/storageKey.ts';
-import { ARTIFACTS, browserAvailable, openSession, ROOT, type Session } from './browserSetup.ts';
+import { ARTIFACTS, browserAvailable, openSession, ROOT, type Session, waitReady } from './browserSetup.ts';
 import { overflowOf, SAMPLE_RUNS, showView, VIEWS } from './screenshots.ts';
 
 const SAMPLES = join(ROOT, 'sample-runs');
-
-async function waitReady(page: Page, file: string, timeout = 30_000) {
-  await page.locator(`tbody[data-run="${file}"][data-status="ready"]`).waitFor({ timeout });
-}
 
 async function waitKept(page: Page) {
   await page.locator('html[data-kept="kept"]').waitFor({ timeout: 15_000 });
